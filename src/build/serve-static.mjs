@@ -1,0 +1,76 @@
+/**
+ * Serves a built Capstan folder on localhost the way a plain static host would: files as they are,
+ * `/settings` from `settings.html`, and `200.html` (the SPA fallback) for any other path, so deep links
+ * such as `/process/<id>` work. `vite preview` does not serve that fallback, hence this small server.
+ *
+ * Usage: node src/build/serve-static.mjs [DIR] [--port N] [--host H]
+ */
+import { createReadStream, statSync } from 'node:fs';
+import { createServer } from 'node:http';
+import { extname, join, normalize, resolve } from 'node:path';
+
+const args = process.argv.slice(2);
+const flag = (name, fallback) => {
+  const i = args.indexOf(name);
+  return i >= 0 && args[i + 1] ? args[i + 1] : fallback;
+};
+const root = resolve(args.find((a, i) => !a.startsWith('--') && !args[i - 1]?.startsWith('--')) ?? 'build');
+const port = Number(flag('--port', process.env.PORT ?? '4173'));
+const host = flag('--host', '127.0.0.1');
+
+const TYPES = {
+  '.html': 'text/html; charset=utf-8',
+  '.js': 'text/javascript; charset=utf-8',
+  '.mjs': 'text/javascript; charset=utf-8',
+  '.css': 'text/css; charset=utf-8',
+  '.json': 'application/json; charset=utf-8',
+  '.webmanifest': 'application/manifest+json',
+  '.svg': 'image/svg+xml',
+  '.png': 'image/png',
+  '.ico': 'image/x-icon',
+  '.txt': 'text/plain; charset=utf-8'
+};
+
+function fileFor(urlPath) {
+  const clean = normalize(decodeURIComponent(urlPath)).replace(/^(\.\.[/\\])+/, '');
+  const candidates = [clean, `${clean}.html`, join(clean, 'index.html')];
+  for (const candidate of candidates) {
+    const full = join(root, candidate);
+    if (!full.startsWith(root)) continue;
+    try {
+      if (statSync(full).isFile()) return full;
+    } catch {
+      // try the next form
+    }
+  }
+  return undefined;
+}
+
+const server = createServer((req, res) => {
+  const url = new URL(req.url ?? '/', 'http://localhost');
+  let file = fileFor(url.pathname);
+  let status = 200;
+  if (!file) {
+    // Asset-like paths that do not exist are real 404s; page paths get the app shell.
+    if (extname(url.pathname) && extname(url.pathname) !== '.html') status = 404;
+    else file = join(root, '200.html');
+  }
+  if (status === 404 || !file) {
+    res.writeHead(404, { 'content-type': 'text/plain; charset=utf-8' });
+    res.end(`Not found: ${url.pathname}`);
+    return;
+  }
+  const immutable = url.pathname.startsWith('/_app/immutable/');
+  res.writeHead(status, {
+    'content-type': TYPES[extname(file)] ?? 'application/octet-stream',
+    // Hashed assets never change; everything else (pages, the service worker) is revalidated each time.
+    'cache-control': immutable ? 'public, max-age=31536000, immutable' : 'no-cache'
+  });
+  createReadStream(file).pipe(res);
+});
+
+server.listen(port, host, () => {
+  console.log(`Capstan is running at http://${host === '127.0.0.1' ? 'localhost' : host}:${port}/ (serving ${root})`);
+});
+
+for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.close(() => process.exit(0)));

@@ -1,0 +1,39 @@
+/**
+ * A reporting period is a calendar month written `YYYY-MM` (ISO 8601 calendar month, reduced precision).
+ * Months compare correctly as strings, which is why the format is strict: no `2026-1`, no `2026/01`.
+ */
+export type Period = string;
+
+const PERIOD_PATTERN = /^(\d{4})-(0[1-9]|1[0-2])$/;
+
+export function isPeriod(value: unknown): value is Period {
+  return typeof value === 'string' && PERIOD_PATTERN.test(value);
+}
+
+export function periodOf(date: Date): Period {
+  return `${date.getUTCFullYear()}-${String(date.getUTCMonth() + 1).padStart(2, '0')}`;
+}
+
+/** The period `months` after (or, when negative, before) `period`. */
+export function addMonths(period: Period, months: number): Period {
+  const match = PERIOD_PATTERN.exec(period);
+  if (!match) throw new RangeError(`addMonths requires a period written YYYY-MM, got '${period}'`);
+  const index = Number(match[1]) * 12 + (Number(match[2]) - 1) + months;
+  const year = Math.floor(index / 12);
+  return `${String(year).padStart(4, '0')}-${String((index % 12) + 1).padStart(2, '0')}`;
+}
+
+/** Calendar quarter of a period, written `YYYY-Qn`. */
+export function quarterOf(period: Period): string {
+  const match = PERIOD_PATTERN.exec(period);
+  if (!match) throw new RangeError(`quarterOf requires a period written YYYY-MM, got '${period}'`);
+  return `${match[1]}-Q${Math.floor((Number(match[2]) - 1) / 3) + 1}`;
+}
+
+/** The three periods of a quarter written `YYYY-Qn`. */
+export function periodsOfQuarter(quarter: string): Period[] {
+  const match = /^(\d{4})-Q([1-4])$/.exec(quarter);
+  if (!match) throw new RangeError(`periodsOfQuarter requires a quarter written YYYY-Qn, got '${quarter}'`);
+  const first = `${match[1]}-${String((Number(match[2]) - 1) * 3 + 1).padStart(2, '0')}`;
+  return [first, addMonths(first, 1), addMonths(first, 2)];
+}

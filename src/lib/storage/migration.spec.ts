@@ -1,0 +1,65 @@
+import 'fake-indexeddb/auto';
+import { Dexie } from 'dexie';
+import { describe, expect, it } from 'vitest';
+import { CapstanDatabase } from './database';
+import { SCHEMA_V1 } from './schema-versions';
+
+/**
+ * Opens a database as schema v1 shipped it, fills it with v1-shaped records, then reopens it with the
+ * current app and checks that every record survived and the v2 upgrade did its work.
+ */
+describe('schema upgrade v1 → v2', () => {
+  it('keeps every record and fills in what v2 added', async () => {
+    const name = 'capstan-migration-test';
+    const v1 = new Dexie(name);
+    v1.version(1).stores(SCHEMA_V1);
+    await v1.open();
+    const meta = (id: string) => ({ id, createdAt: '2025-01-01T00:00:00.000Z', updatedAt: '2025-01-01T00:00:00.000Z', rev: 1, deviceId: 'dev-v1' });
+    const site = { ...meta('11111111-1111-4111-8111-111111111111'), name: 'Old plant', region: '', timeZone: 'UTC' };
+    const process = {
+      ...meta('22222222-2222-4222-8222-222222222222'),
+      siteId: site.id,
+      name: 'Moulding',
+      owner: '',
+      contextId: 'medical-devices',
+      monthlyVolume: 100,
+      costPerDefective: 1,
+      currency: 'USD'
+    };
+    // v1 had no risk class on characteristics.
+    const characteristics = [
+      { ...meta('33333333-3333-4333-8333-333333333333'), processId: process.id, name: 'Wall', unit: 'mm', dataKind: 'measured', lsl: 1, usl: 2 },
+      { ...meta('44444444-4444-4444-8444-444444444444'), processId: process.id, name: 'Flash', unit: '', dataKind: 'counted' }
+    ];
+    const studies = Array.from({ length: 30 }, (_, i) => ({
+      ...meta(`55555555-5555-4555-8555-${String(i).padStart(12, '0')}`),
+      characteristicId: characteristics[0]!.id,
+      period: `2024-${String((i % 12) + 1).padStart(2, '0')}`,
+      data: { kind: 'raw', values: [1.5 + i / 1000, 1.51] },
+      enteredBy: 'v1 user'
+    }));
+    const tombstone = { ...studies[0]!, id: '66666666-6666-4666-8666-666666666666', deletedAt: '2025-02-01T00:00:00.000Z', rev: 2 };
+    await v1.table('sites').add(site);
+    await v1.table('processes').add(process);
+    await v1.table('characteristics').bulkAdd(characteristics);
+    await v1.table('studies').bulkAdd([...studies, tombstone]);
+    await v1.table('deviceSettings').put({ key: 'deviceId', value: 'dev-v1' });
+    v1.close();
+
+    const current = new CapstanDatabase(name);
+    await current.open();
+    expect(current.verno).toBe(2);
+    expect(await current.sites.toArray()).toEqual([site]);
+    expect(await current.processes.toArray()).toEqual([process]);
+    const upgraded = await current.characteristics.orderBy('id').toArray();
+    expect(upgraded).toEqual(characteristics.map((c) => ({ ...c, riskClass: 'standard' })));
+    expect(await current.studies.count()).toBe(31);
+    expect(await current.studies.get(tombstone.id)).toEqual(tombstone);
+    // The new compound index answers.
+    const march = await current.studies.where('[characteristicId+period]').equals([characteristics[0]!.id, '2024-03']).toArray();
+    expect(march.map((s) => s.id).sort()).toEqual([studies[2]!.id, studies[14]!.id, studies[26]!.id].sort());
+    expect((await current.deviceSettings.get('deviceId'))?.value).toBe('dev-v1');
+    current.close();
+    await Dexie.delete(name);
+  });
+});

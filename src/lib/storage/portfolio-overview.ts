@@ -1,0 +1,144 @@
+import type { Characteristic } from '../domain/characteristic';
+import type { ImprovementProject } from '../domain/improvement-project';
+import type { Process } from '../domain/process';
+import { isLive } from '../domain/record-meta';
+import type { Site } from '../domain/site';
+import type { Study } from '../domain/study';
+import type { CapstanDatabase } from './database';
+
+/** One process as the portfolio lists it before capability figures exist for it. */
+export interface ProcessOverview {
+  process: Process;
+  site: Site;
+  characteristics: Characteristic[];
+  /** Latest month with a study for any of its characteristics, or undefined when none. */
+  latestPeriod: string | undefined;
+  studyCount: number;
+  /** Projects not yet closed (all phases count until a project is deleted). */
+  projects: ImprovementProject[];
+}
+
+/** A light index of studies: what the overview needs, without each study's measured values. */
+export interface StudyIndexEntry {
+  id: string;
+  characteristicId: string;
+  period: string;
+  kind: Study['data']['kind'];
+}
+
+async function liveStudyIndex(db: CapstanDatabase): Promise<StudyIndexEntry[]> {
+  const out: StudyIndexEntry[] = [];
+  await db.studies.each((s) => {
+    if (isLive(s)) out.push({ id: s.id, characteristicId: s.characteristicId, period: s.period, kind: s.data.kind });
+  });
+  return out;
+}
+
+/** Every live process with its site, characteristics, latest period and projects; sorted by site then name. */
+export async function listProcessOverviews(db: CapstanDatabase): Promise<ProcessOverview[]> {
+  const [sites, processes, characteristics, projects, studies] = await Promise.all([
+    db.sites.toArray(),
+    db.processes.toArray(),
+    db.characteristics.toArray(),
+    db.projects.toArray(),
+    liveStudyIndex(db)
+  ]);
+  const siteById = new Map(sites.filter(isLive).map((s) => [s.id, s]));
+  const charsByProcess = new Map<string, Characteristic[]>();
+  for (const c of characteristics.filter(isLive)) {
+    charsByProcess.set(c.processId, [...(charsByProcess.get(c.processId) ?? []), c]);
+  }
+  const processOfCharacteristic = new Map(characteristics.map((c) => [c.id, c.processId]));
+  const latest = new Map<string, string>();
+  const counts = new Map<string, number>();
+  for (const s of studies) {
+    const pid = processOfCharacteristic.get(s.characteristicId);
+    if (!pid) continue;
+    counts.set(pid, (counts.get(pid) ?? 0) + 1);
+    if ((latest.get(pid) ?? '') < s.period) latest.set(pid, s.period);
+  }
+  const projectsByProcess = new Map<string, ImprovementProject[]>();
+  for (const p of projects.filter(isLive)) {
+    projectsByProcess.set(p.processId, [...(projectsByProcess.get(p.processId) ?? []), p]);
+  }
+  const rows: ProcessOverview[] = [];
+  for (const process of processes.filter(isLive)) {
+    const site = siteById.get(process.siteId);
+    if (!site) continue;
+    rows.push({
+      process,
+      site,
+      characteristics: charsByProcess.get(process.id) ?? [],
+      latestPeriod: latest.get(process.id),
+      studyCount: counts.get(process.id) ?? 0,
+      projects: projectsByProcess.get(process.id) ?? []
+    });
+  }
+  return rows.sort((a, b) => a.site.name.localeCompare(b.site.name) || a.process.name.localeCompare(b.process.name));
+}
+
+/** One process with everything beneath it, for the process page. */
+export interface ProcessDetail {
+  process: Process;
+  site: Site;
+  characteristics: { characteristic: Characteristic; studies: Study[] }[];
+  projects: ImprovementProject[];
+}
+
+export async function loadProcessDetail(db: CapstanDatabase, processId: string): Promise<ProcessDetail | undefined> {
+  const process = await db.processes.get(processId);
+  if (!process || !isLive(process)) return undefined;
+  const site = await db.sites.get(process.siteId);
+  if (!site || !isLive(site)) return undefined;
+  const characteristics = (await db.characteristics.where('processId').equals(processId).toArray()).filter(isLive);
+  const withStudies = await Promise.all(
+    characteristics.map(async (characteristic) => ({
+      characteristic,
+      studies: (
+        await db.studies
+          .where('[characteristicId+period]')
+          .between([characteristic.id, ''], [characteristic.id, '\uffff'])
+          .toArray()
+      ).filter(isLive)
+    }))
+  );
+  const projects = (await db.projects.where('processId').equals(processId).toArray()).filter(isLive);
+  return { process, site, characteristics: withStudies, projects };
+}
+
+/** Record counts per table, live and tombstoned, and the devices that wrote them. */
+export interface DatabaseSummary {
+  tables: { name: string; live: number; tombstones: number }[];
+  devices: { deviceId: string; records: number; lastWrite: string }[];
+}
+
+export async function summariseDatabase(db: CapstanDatabase): Promise<DatabaseSummary> {
+  const tables: DatabaseSummary['tables'] = [];
+  const devices = new Map<string, { records: number; lastWrite: string }>();
+  const named = [
+    ['Sites', db.sites],
+    ['Processes', db.processes],
+    ['Characteristics', db.characteristics],
+    ['Studies', db.studies],
+    ['Improvement projects', db.projects]
+  ] as const;
+  for (const [name, table] of named) {
+    let live = 0;
+    let tombstones = 0;
+    await (table as typeof db.sites).each((r) => {
+      if (isLive(r)) live += 1;
+      else tombstones += 1;
+      const d = devices.get(r.deviceId) ?? { records: 0, lastWrite: '' };
+      d.records += 1;
+      if (r.updatedAt > d.lastWrite) d.lastWrite = r.updatedAt;
+      devices.set(r.deviceId, d);
+    });
+    tables.push({ name, live, tombstones });
+  }
+  return {
+    tables,
+    devices: [...devices.entries()]
+      .map(([deviceId, d]) => ({ deviceId, ...d }))
+      .sort((a, b) => b.lastWrite.localeCompare(a.lastWrite))
+  };
+}

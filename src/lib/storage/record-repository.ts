@@ -1,0 +1,123 @@
+import type { Table } from 'dexie';
+import {
+  isLive,
+  stampDeleted,
+  stampNew,
+  stampRestored,
+  stampUpdate,
+  type Editable,
+  type RecordMeta,
+  type WriteContext
+} from '../domain/record-meta';
+import { ValidationError } from '../domain/validation-error';
+import type { CapstanDatabase } from './database';
+
+/** Thrown when an id names no live record; says which kind and which id. */
+export class RecordNotFoundError extends Error {
+  constructor(kind: string, id: string) {
+    super(`${kind} ${id} does not exist (or was deleted)`);
+    this.name = 'RecordNotFoundError';
+  }
+}
+
+export interface RepositorySpec<T extends RecordMeta> {
+  kind: string;
+  table: (db: CapstanDatabase) => Table<T, string>;
+  /** Validates unknown input into the editable fields; throws ValidationError. */
+  parse: (input: unknown) => Editable<T>;
+  /** Checks references and cross-record rules inside the write transaction; throws ValidationError. */
+  checkInTransaction?: (db: CapstanDatabase, fields: Editable<T>, existingId?: string) => Promise<void>;
+  /** Extra tables `checkInTransaction` reads. */
+  relatedTables?: (db: CapstanDatabase) => Table[];
+}
+
+/**
+ * Create, read, update and tombstone for one record kind. Every write validates first, then runs in one
+ * read-write transaction that also holds the tables its checks read, so a refused write changes nothing.
+ */
+export class RecordRepository<T extends RecordMeta> {
+  constructor(
+    protected readonly db: CapstanDatabase,
+    protected readonly ctx: WriteContext,
+    protected readonly spec: RepositorySpec<T>
+  ) {}
+
+  protected get table(): Table<T, string> {
+    return this.spec.table(this.db);
+  }
+
+  protected tables(): Table[] {
+    return [this.table as unknown as Table, ...(this.spec.relatedTables?.(this.db) ?? [])];
+  }
+
+  /** Live records (tombstones left out). */
+  async list(): Promise<T[]> {
+    return (await this.table.toArray()).filter(isLive);
+  }
+
+  /** A live record, or undefined. */
+  async get(id: string): Promise<T | undefined> {
+    const record = await this.table.get(id);
+    return record && isLive(record) ? record : undefined;
+  }
+
+  async create(input: unknown): Promise<T> {
+    const fields = this.spec.parse(input);
+    return this.db.transaction('rw', this.tables(), async () => {
+      await this.spec.checkInTransaction?.(this.db, fields);
+      const record = stampNew(fields, this.ctx) as unknown as T;
+      await this.table.add(record);
+      return record;
+    });
+  }
+
+  async update(id: string, input: unknown): Promise<T> {
+    const fields = this.spec.parse(input);
+    return this.db.transaction('rw', this.tables(), async () => {
+      const previous = await this.table.get(id);
+      if (!previous || !isLive(previous)) throw new RecordNotFoundError(this.spec.kind, id);
+      await this.spec.checkInTransaction?.(this.db, fields, id);
+      const record = stampUpdate(previous, fields, this.ctx);
+      await this.table.put(record);
+      return record;
+    });
+  }
+
+  /** Leaves a tombstone; returns it so that the caller can offer an undo. */
+  async remove(id: string): Promise<T> {
+    return this.db.transaction('rw', this.table, async () => {
+      const previous = await this.table.get(id);
+      if (!previous || !isLive(previous)) throw new RecordNotFoundError(this.spec.kind, id);
+      const tombstone = stampDeleted(previous, this.ctx);
+      await this.table.put(tombstone);
+      return tombstone;
+    });
+  }
+
+  /** Undoes a deletion as a new revision. */
+  async restore(id: string): Promise<T> {
+    return this.db.transaction('rw', this.table, async () => {
+      const previous = await this.table.get(id);
+      if (!previous) throw new RecordNotFoundError(this.spec.kind, id);
+      if (isLive(previous)) return previous;
+      const restored = stampRestored(previous, this.ctx);
+      await this.table.put(restored);
+      return restored;
+    });
+  }
+}
+
+/** Refuses a reference to a record that does not exist or is a tombstone. */
+export async function requireLive(
+  table: Table<RecordMeta, string>,
+  id: string,
+  recordKind: string,
+  field: string,
+  targetKind: string
+): Promise<RecordMeta> {
+  const target = await table.get(id);
+  if (!target || !isLive(target)) {
+    throw new ValidationError(recordKind, [{ field, message: `${targetKind} ${id} does not exist` }]);
+  }
+  return target;
+}

@@ -1,0 +1,45 @@
+import type { Dexie, Transaction } from 'dexie';
+
+/**
+ * Every schema version the app has shipped, oldest first. A version that has shipped is never edited:
+ * a change is a new version with its own upgrade and its own test (see migration.spec.ts).
+ *
+ * Index strings are Dexie's: the first entry is the primary key, `[a+b]` a compound index.
+ */
+
+/** v1: the first release. Characteristics had no risk class yet. */
+export const SCHEMA_V1 = {
+  sites: 'id, name, updatedAt',
+  processes: 'id, siteId, updatedAt',
+  characteristics: 'id, processId, updatedAt',
+  studies: 'id, characteristicId, period, updatedAt',
+  projects: 'id, processId, updatedAt',
+  deviceSettings: 'key'
+} as const;
+
+/**
+ * v2: studies get a compound index on characteristic and period (one month of one characteristic is looked up
+ * on every log entry and replace-or-combine decision), processes an index on their industry context, and every
+ * characteristic a risk class — records written by v1 become `standard`, the class v1 implied.
+ */
+export const SCHEMA_V2 = {
+  processes: 'id, siteId, contextId, updatedAt',
+  studies: 'id, characteristicId, period, updatedAt, [characteristicId+period]'
+} as const;
+
+export async function upgradeToV2(tx: Transaction): Promise<void> {
+  await tx
+    .table('characteristics')
+    .toCollection()
+    .modify((characteristic: Record<string, unknown>) => {
+      if (characteristic.riskClass === undefined) characteristic.riskClass = 'standard';
+    });
+}
+
+export const CURRENT_SCHEMA_VERSION = 2;
+
+/** Declares all versions on a database instance, in order. */
+export function declareSchemaVersions(db: Dexie): void {
+  db.version(1).stores(SCHEMA_V1);
+  db.version(2).stores(SCHEMA_V2).upgrade(upgradeToV2);
+}

@@ -1,0 +1,76 @@
+import type { DexieOptions } from 'dexie';
+import type { Characteristic } from '../domain/characteristic';
+import type { ImprovementProject } from '../domain/improvement-project';
+import type { Process } from '../domain/process';
+import { createCharacteristicRepository } from './characteristic-repository';
+import { CapstanDatabase, DEFAULT_DATABASE_NAME } from './database';
+import { loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
+import { createImprovementProjectRepository } from './improvement-project-repository';
+import { createProcessRepository } from './process-repository';
+import type { RecordRepository } from './record-repository';
+import { SiteRepository } from './site-repository';
+import { StudyRepository } from './study-repository';
+import { isPortfolioEmpty, loadDemoPortfolio, type DemoLoadResult } from './demo-portfolio-loader';
+import { loadMonthlyLogStatus, type MonthlyLogStatus } from './monthly-log-status';
+import {
+  listProcessOverviews,
+  loadProcessDetail,
+  summariseDatabase,
+  type DatabaseSummary,
+  type ProcessDetail,
+  type ProcessOverview
+} from './portfolio-overview';
+import { loadQuarterCoverage, type QuarterCoverage } from './quarter-coverage';
+
+/** Everything the app may do with stored data, as typed repositories over one open database. */
+export interface CapstanStorage {
+  readonly db: CapstanDatabase;
+  readonly deviceId: string;
+  readonly sites: SiteRepository;
+  readonly processes: RecordRepository<Process>;
+  readonly characteristics: RecordRepository<Characteristic>;
+  readonly studies: StudyRepository;
+  readonly projects: RecordRepository<ImprovementProject>;
+  /** Read models for the pages; each is safe to run inside a live query. */
+  readonly read: {
+    processOverviews(): Promise<ProcessOverview[]>;
+    processDetail(processId: string): Promise<ProcessDetail | undefined>;
+    monthlyLogStatus(siteId: string, period: string): Promise<MonthlyLogStatus>;
+    quarterCoverage(quarter: string): Promise<QuarterCoverage>;
+    summary(): Promise<DatabaseSummary>;
+    isEmpty(): Promise<boolean>;
+  };
+  loadDemo(file: unknown): Promise<DemoLoadResult>;
+  deviceName(): Promise<string>;
+  setDeviceName(name: string): Promise<string>;
+  close(): void;
+}
+
+/** Opens (creating or upgrading) the database and binds the repositories to this device. */
+export async function openStorage(name: string = DEFAULT_DATABASE_NAME, options?: DexieOptions): Promise<CapstanStorage> {
+  const db = new CapstanDatabase(name, options);
+  await db.open();
+  const deviceId = await loadDeviceId(db);
+  const ctx = writeContextFor(deviceId);
+  return {
+    db,
+    deviceId,
+    sites: new SiteRepository(db, ctx),
+    processes: createProcessRepository(db, ctx),
+    characteristics: createCharacteristicRepository(db, ctx),
+    studies: new StudyRepository(db, ctx),
+    projects: createImprovementProjectRepository(db, ctx),
+    read: {
+      processOverviews: () => listProcessOverviews(db),
+      processDetail: (processId) => loadProcessDetail(db, processId),
+      monthlyLogStatus: (siteId, period) => loadMonthlyLogStatus(db, siteId, period),
+      quarterCoverage: (quarter) => loadQuarterCoverage(db, quarter),
+      summary: () => summariseDatabase(db),
+      isEmpty: () => isPortfolioEmpty(db)
+    },
+    loadDemo: (file) => loadDemoPortfolio(db, file),
+    deviceName: () => loadDeviceName(db),
+    setDeviceName: (name) => saveDeviceName(db, name),
+    close: () => db.close()
+  };
+}

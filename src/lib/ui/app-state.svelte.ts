@@ -1,0 +1,47 @@
+import { getContext, setContext } from 'svelte';
+import { openStorage, type CapstanStorage } from '../storage/storage';
+import { readStorageHealth, requestPersistence, type StorageHealth } from '../storage/storage-health';
+
+/**
+ * What every page needs: the open storage (once it is open), this device's persistence status and the
+ * network state. Created once by the root layout and handed down through context, never a module global.
+ */
+export class AppState {
+  storage = $state.raw<CapstanStorage | undefined>(undefined);
+  openError = $state.raw<string | undefined>(undefined);
+  health = $state.raw<StorageHealth | undefined>(undefined);
+  online = $state(true);
+
+  async open(): Promise<void> {
+    try {
+      this.storage = await openStorage();
+    } catch (error) {
+      this.openError = error instanceof Error ? `${error.name}: ${error.message}` : String(error);
+      return;
+    }
+    // Ask once per start; browsers remember a grant, and a refusal costs nothing.
+    await requestPersistence().catch(() => undefined);
+    await this.refreshHealth();
+  }
+
+  async refreshHealth(): Promise<void> {
+    this.health = await readStorageHealth();
+  }
+
+  async askForPersistence(): Promise<void> {
+    await requestPersistence();
+    await this.refreshHealth();
+  }
+}
+
+const KEY = Symbol('capstan-app-state');
+
+export function provideAppState(state: AppState): AppState {
+  return setContext(KEY, state);
+}
+
+export function useAppState(): AppState {
+  const state = getContext<AppState | undefined>(KEY);
+  if (!state) throw new Error('useAppState must be called below the root layout');
+  return state;
+}

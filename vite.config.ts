@@ -1,0 +1,54 @@
+import { sveltekit } from '@sveltejs/kit/vite';
+import { SvelteKitPWA } from '@vite-pwa/sveltekit';
+import { readFileSync } from 'node:fs';
+import { defineConfig } from 'vite';
+
+const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as { version: string };
+
+export default defineConfig({
+  define: { __APP_VERSION__: JSON.stringify(pkg.version) },
+  plugins: [
+    sveltekit(),
+    SvelteKitPWA({
+      // base and scope fixed at the root: deep links must not register the worker at their own path.
+      base: '/',
+      scope: '/',
+      registerType: 'prompt',
+      injectRegister: false,
+      kit: { adapterFallback: '200.html', spa: true },
+      manifest: {
+        name: 'Capstan — process-capability portfolio',
+        short_name: 'Capstan',
+        description:
+          'Offline-first portfolio of process-capability studies across sites: yield, ppm and z-level on one scale.',
+        start_url: '/',
+        scope: '/',
+        display: 'standalone',
+        background_color: '#f6f4ef',
+        theme_color: '#1f3a4d',
+        icons: [
+          { src: '/icons/capstan-192.png', sizes: '192x192', type: 'image/png' },
+          { src: '/icons/capstan-512.png', sizes: '512x512', type: 'image/png' },
+          {
+            src: '/icons/capstan-maskable-512.png',
+            sizes: '512x512',
+            type: 'image/png',
+            purpose: 'maskable'
+          }
+        ]
+      },
+      workbox: {
+        // The whole app is precached, the demo portfolio chunk included, so a first visit is enough to work offline.
+        globPatterns: ['client/**/*.{js,css,ico,png,svg,webmanifest,json}', 'prerendered/**/*.{html,json}'],
+        maximumFileSizeToCacheInBytes: 4 * 1024 * 1024,
+        cleanupOutdatedCaches: true
+      },
+      devOptions: { enabled: false }
+    })
+  ],
+  test: {
+    include: ['src/**/*.spec.ts', 'seed-data/**/*.spec.ts', 'tests/unit/**/*.spec.ts'],
+    environment: 'node',
+    expect: { requireAssertions: true }
+  }
+});
