@@ -1,9 +1,11 @@
 import { sveltekit } from '@sveltejs/kit/vite';
 import { SvelteKitPWA } from '@vite-pwa/sveltekit';
 import { readFileSync } from 'node:fs';
-import { defineConfig } from 'vite';
+import { defineConfig } from 'vitest/config';
 
-const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as { version: string };
+const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as {
+  version: string;
+};
 
 export default defineConfig({
   define: { __APP_VERSION__: JSON.stringify(pkg.version) },
@@ -41,7 +43,10 @@ export default defineConfig({
         // The whole app is precached, the demo portfolio chunk included, so a first visit is enough to work offline.
         globPatterns: ['client/**/*.{js,css,ico,png,svg,webmanifest,json}', 'prerendered/**/*.{html,json}'],
         maximumFileSizeToCacheInBytes: 4 * 1024 * 1024,
-        cleanupOutdatedCaches: true
+        cleanupOutdatedCaches: true,
+        // The first worker takes charge of the open page at once (nothing older to replace). Later versions
+        // still wait for the person to accept the update prompt: no skipWaiting here.
+        clientsClaim: true
       },
       devOptions: { enabled: false }
     })

@@ -61,7 +61,9 @@ function measuredValue(rng: SeededRandom, g: Generator, drift: Drift, gain: numb
     case 'normal':
       return g.centre + g.sd * drift.offset * 0.6 + g.sd * drift.spread * gain * rng.normal();
     case 'lognormal':
-      return g.median * Math.exp(0.25 * g.logSd * drift.offset + g.logSd * drift.spread * gain * rng.normal());
+      return (
+        g.median * Math.exp(0.25 * g.logSd * drift.offset + g.logSd * drift.spread * gain * rng.normal())
+      );
     case 'bounded': {
       const z = g.location + 0.3 * g.scale * drift.offset + g.scale * drift.spread * gain * rng.normal();
       return g.low + (g.high - g.low) / (1 + Math.exp(-z));
@@ -79,7 +81,13 @@ function sampleMeanSd(values: number[]): { mean: number; sd: number } {
   return { mean, sd: Math.sqrt(ss / (values.length - 1)) };
 }
 
-function studyData(rng: SeededRandom, plan: CharacteristicPlan, drift: Drift, gain: number, period: string): StudyData {
+function studyData(
+  rng: SeededRandom,
+  plan: CharacteristicPlan,
+  drift: Drift,
+  gain: number,
+  period: string
+): StudyData {
   const g = plan.generator;
   if (g.shape === 'defectives') {
     const units = rng.integer(g.units[0], g.units[1]);
@@ -90,7 +98,12 @@ function studyData(rng: SeededRandom, plan: CharacteristicPlan, drift: Drift, ga
     const units = rng.integer(g.units[0], g.units[1]);
     const rate = g.ratePerOpportunity * Math.exp(0.25 * drift.offset) * gain;
     const max = units * g.opportunities;
-    return { kind: 'defects', units, opportunitiesPerUnit: g.opportunities, defects: Math.min(max, rng.poisson(max * rate)) };
+    return {
+      kind: 'defects',
+      units,
+      opportunitiesPerUnit: g.opportunities,
+      defects: Math.min(max, rng.poisson(max * rate))
+    };
   }
   const n = plan.sampleSize ?? 30;
   const values = Array.from({ length: n }, () => round(measuredValue(rng, g, drift, gain), plan.decimals));
@@ -165,7 +178,8 @@ export function buildDemoPortfolio(seed: number = DEMO_SEED): DemoPortfolio {
             const period = addMonths(FIRST_PERIOD, m);
             drift = advanceDrift(rng, drift);
             // Some months go unreported; the last month is still being logged at two of the sites.
-            const lateSite = sitePlan.name === 'Lakeside Medical Assembly' || sitePlan.name === 'Eastgate Service Centre';
+            const lateSite =
+              sitePlan.name === 'Lakeside Medical Assembly' || sitePlan.name === 'Eastgate Service Centre';
             const missing = rng.next() < 0.03 || (period === lastPeriod && lateSite && rng.next() < 0.6);
             if (missing) continue;
             const gain = project?.effect && period >= project.effect.fromPeriod ? project.effect.factor : 1;
@@ -185,7 +199,8 @@ export function buildDemoPortfolio(seed: number = DEMO_SEED): DemoPortfolio {
 
   for (const plan of PROJECTS) {
     const process = processByName.get(`${plan.site}|${plan.process}`);
-    if (!process) throw new Error(`Demo scenario: project '${plan.title}' names an unknown process '${plan.process}'`);
+    if (!process)
+      throw new Error(`Demo scenario: project '${plan.title}' names an unknown process '${plan.process}'`);
     const at = `${plan.startPeriod}-03T09:00:00.000Z`;
     projects.push({
       ...meta(rng, process.deviceId, at),
@@ -199,5 +214,11 @@ export function buildDemoPortfolio(seed: number = DEMO_SEED): DemoPortfolio {
     });
   }
 
-  return { kind: 'capstan-demo-portfolio', version: 1, seed, company: COMPANY, records: { sites, processes, characteristics, studies, projects } };
+  return {
+    kind: 'capstan-demo-portfolio',
+    version: 1,
+    seed,
+    company: COMPANY,
+    records: { sites, processes, characteristics, studies, projects }
+  };
 }

@@ -27,7 +27,9 @@ describe('demo portfolio generator', () => {
     expect(periods.size).toBe(24);
     const kinds = new Set(r.studies.map((s) => s.data.kind));
     expect([...kinds].sort()).toEqual(['defectives', 'defects', 'raw', 'summary']);
-    const ids = [...r.sites, ...r.processes, ...r.characteristics, ...r.studies, ...r.projects].map((x) => x.id);
+    const ids = [...r.sites, ...r.processes, ...r.characteristics, ...r.studies, ...r.projects].map(
+      (x) => x.id
+    );
     expect(new Set(ids).size).toBe(ids.length);
     expect(r.projects.length).toBeGreaterThanOrEqual(3);
   });

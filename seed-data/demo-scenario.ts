@@ -420,7 +420,12 @@ export const SITES: SitePlan[] = [
             riskClass: 'standard',
             report: 'counts',
             decimals: 0,
-            generator: { shape: 'defects', units: [2500, 3500], opportunities: 12, ratePerOpportunity: 0.0021 }
+            generator: {
+              shape: 'defects',
+              units: [2500, 3500],
+              opportunities: 12,
+              ratePerOpportunity: 0.0021
+            }
           }
         ]
       },

@@ -70,7 +70,9 @@ const server = createServer((req, res) => {
 });
 
 server.listen(port, host, () => {
-  console.log(`Capstan is running at http://${host === '127.0.0.1' ? 'localhost' : host}:${port}/ (serving ${root})`);
+  // Port 0 asks the system for a free port; print the real one so tests can read it.
+  const actual = server.address().port;
+  console.log(`Capstan is running at http://${host === '127.0.0.1' ? 'localhost' : host}:${actual}/ (serving ${root})`);
 });
 
 for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.close(() => process.exit(0)));

@@ -41,17 +41,33 @@ export const characteristicFieldsSchema = z
   })
   .superRefine((c, ctx) => {
     if (c.dataKind === 'measured' && c.lsl === undefined && c.usl === undefined) {
-      ctx.addIssue({ code: 'custom', path: ['lsl'], message: 'A measured characteristic needs at least one limit (LSL or USL)' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['lsl'],
+        message: 'A measured characteristic needs at least one limit (LSL or USL)'
+      });
     }
     if (c.lsl !== undefined && c.usl !== undefined && !(c.lsl < c.usl)) {
-      ctx.addIssue({ code: 'custom', path: ['usl'], message: `USL (${c.usl}) must be greater than LSL (${c.lsl})` });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['usl'],
+        message: `USL (${c.usl}) must be greater than LSL (${c.lsl})`
+      });
     }
     if (c.target !== undefined) {
       if (c.lsl !== undefined && c.target < c.lsl) {
-        ctx.addIssue({ code: 'custom', path: ['target'], message: `Target (${c.target}) lies below LSL (${c.lsl})` });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['target'],
+          message: `Target (${c.target}) lies below LSL (${c.lsl})`
+        });
       }
       if (c.usl !== undefined && c.target > c.usl) {
-        ctx.addIssue({ code: 'custom', path: ['target'], message: `Target (${c.target}) lies above USL (${c.usl})` });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['target'],
+          message: `Target (${c.target}) lies above USL (${c.usl})`
+        });
       }
     }
     if (c.physicalMin !== undefined && c.physicalMax !== undefined && !(c.physicalMin < c.physicalMax)) {

@@ -29,7 +29,9 @@ const withMeta = <S extends z.ZodObject>(schema: S) => schema.extend(recordMetaS
 
 // Characteristic and project schemas carry cross-field checks, which zod keeps through `.and`.
 const demoSchema = z.object({
-  kind: z.literal('capstan-demo-portfolio', { error: "This is not a Capstan demo portfolio file (kind differs)" }),
+  kind: z.literal('capstan-demo-portfolio', {
+    error: 'This is not a Capstan demo portfolio file (kind differs)'
+  }),
   version: z.literal(1, { error: 'Unsupported demo portfolio version' }),
   seed: z.number(),
   company: z.string(),
@@ -43,5 +45,5 @@ const demoSchema = z.object({
 });
 
 export function parseDemoPortfolio(input: unknown): DemoPortfolio {
-  return parseFields('Demo portfolio', demoSchema, input) as DemoPortfolio;
+  return parseFields('Demo portfolio', demoSchema, input) as unknown as DemoPortfolio;
 }

@@ -22,10 +22,15 @@ export interface ImprovementProjectFields {
 export type ImprovementProject = ImprovementProjectFields & RecordMeta;
 
 const calendarDate = (label: string) =>
-  z.string({ error: `${label} is required` }).refine(
-    (s) => /^\d{4}-\d{2}-\d{2}$/.test(s) && !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
-    { error: (issue) => `${label} '${String(issue.input)}' is not a date written YYYY-MM-DD` }
-  );
+  z
+    .string({ error: `${label} is required` })
+    .refine(
+      (s) =>
+        /^\d{4}-\d{2}-\d{2}$/.test(s) &&
+        !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) &&
+        new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
+      { error: (issue) => `${label} '${String(issue.input)}' is not a date written YYYY-MM-DD` }
+    );
 
 export const improvementProjectFieldsSchema = z
   .object({
@@ -39,7 +44,11 @@ export const improvementProjectFieldsSchema = z
   })
   .superRefine((p, ctx) => {
     if (p.targetDate !== undefined && p.targetDate < p.startDate) {
-      ctx.addIssue({ code: 'custom', path: ['targetDate'], message: `Target date ${p.targetDate} is before start date ${p.startDate}` });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['targetDate'],
+        message: `Target date ${p.targetDate} is before start date ${p.startDate}`
+      });
     }
   });
 

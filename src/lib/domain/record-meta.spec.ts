@@ -3,7 +3,11 @@ import { isLive, stampDeleted, stampNew, stampRestored, stampUpdate, type WriteC
 
 function clockAt(...times: string[]): WriteContext {
   let i = 0;
-  return { deviceId: 'dev-a', now: () => new Date(times[Math.min(i++, times.length - 1)] as string), newId: () => 'id-1' };
+  return {
+    deviceId: 'dev-a',
+    now: () => new Date(times[Math.min(i++, times.length - 1)] as string),
+    newId: () => 'id-1'
+  };
 }
 
 describe('record bookkeeping', () => {
@@ -21,9 +25,19 @@ describe('record bookkeeping', () => {
 
   it('keeps id and creation time on update and counts the revision up', () => {
     const created = stampNew({ name: 'x' }, clockAt('2026-01-01T00:00:00Z'));
-    const other: WriteContext = { deviceId: 'dev-b', now: () => new Date('2026-02-01T00:00:00Z'), newId: () => 'unused' };
+    const other: WriteContext = {
+      deviceId: 'dev-b',
+      now: () => new Date('2026-02-01T00:00:00Z'),
+      newId: () => 'unused'
+    };
     const updated = stampUpdate(created, { name: 'y' }, other);
-    expect(updated).toMatchObject({ id: 'id-1', createdAt: created.createdAt, rev: 2, deviceId: 'dev-b', name: 'y' });
+    expect(updated).toMatchObject({
+      id: 'id-1',
+      createdAt: created.createdAt,
+      rev: 2,
+      deviceId: 'dev-b',
+      name: 'y'
+    });
   });
 
   it('leaves a tombstone that keeps the fields, and restores as a further revision', () => {

@@ -55,7 +55,12 @@ export function stampDeleted<T extends RecordMeta>(previous: T, ctx: WriteContex
 
 /** Undoes a deletion as a new revision (never by rewriting history). */
 export function stampRestored<T extends RecordMeta>(previous: T, ctx: WriteContext): T {
-  const restored: T = { ...previous, updatedAt: ctx.now().toISOString(), rev: previous.rev + 1, deviceId: ctx.deviceId };
+  const restored: T = {
+    ...previous,
+    updatedAt: ctx.now().toISOString(),
+    rev: previous.rev + 1,
+    deviceId: ctx.deviceId
+  };
   delete restored.deletedAt;
   return restored;
 }

@@ -24,9 +24,9 @@ export function isTimeZone(name: string): boolean {
 export const siteFieldsSchema = z.object({
   name: requiredText('Site name', 120),
   region: optionalText('Region', 120),
-  timeZone: z
-    .string({ error: 'Time zone is required' })
-    .refine(isTimeZone, { error: (issue) => `'${String(issue.input)}' is not a known time zone (e.g. Europe/Oslo)` })
+  timeZone: z.string({ error: 'Time zone is required' }).refine(isTimeZone, {
+    error: (issue) => `'${String(issue.input)}' is not a known time zone (e.g. Europe/Oslo)`
+  })
 });
 
 export function parseSiteFields(input: unknown): SiteFields {

@@ -98,7 +98,9 @@ const defectsSchema = z
     kind: z.literal('defects'),
     units: count('Units inspected').min(1, { error: 'Units inspected must be at least 1' }),
     defects: count('Defects'),
-    opportunitiesPerUnit: count('Opportunities per unit').min(1, { error: 'Opportunities per unit must be at least 1' })
+    opportunitiesPerUnit: count('Opportunities per unit').min(1, {
+      error: 'Opportunities per unit must be at least 1'
+    })
   })
   .superRefine((d, ctx) => {
     if (d.defects > d.units * d.opportunitiesPerUnit) {
@@ -110,15 +112,19 @@ const defectsSchema = z
     }
   });
 
-export const studyDataSchema = z.discriminatedUnion('kind', [rawSchema, summarySchema, defectivesSchema, defectsSchema], {
-  error: "Data kind must be one of 'raw', 'summary', 'defectives', 'defects'"
-});
+export const studyDataSchema = z.discriminatedUnion(
+  'kind',
+  [rawSchema, summarySchema, defectivesSchema, defectsSchema],
+  {
+    error: "Data kind must be one of 'raw', 'summary', 'defectives', 'defects'"
+  }
+);
 
 export const studyFieldsSchema = z.object({
   characteristicId: recordId('Characteristic'),
-  period: z
-    .string({ error: 'Period is required' })
-    .refine(isPeriod, { error: (issue) => `Period ${describeValue(issue.input)} is not a month written YYYY-MM` }),
+  period: z.string({ error: 'Period is required' }).refine(isPeriod, {
+    error: (issue) => `Period ${describeValue(issue.input)} is not a month written YYYY-MM`
+  }),
   data: studyDataSchema,
   enteredBy: optionalText('Entered by', 120),
   note: optionalText('Note', 2000).optional()

@@ -46,11 +46,13 @@ describe('characteristic validation', () => {
   });
 
   it('requires at least one limit for measured data but not for counted data', () => {
-    const problems = problemsOf(() => parseCharacteristicFields({ ...measured, lsl: undefined, usl: undefined }));
-    expect(problems[0]?.message).toMatch(/at least one limit/);
-    expect(parseCharacteristicFields({ ...measured, dataKind: 'counted', lsl: undefined, usl: undefined }).dataKind).toBe(
-      'counted'
+    const problems = problemsOf(() =>
+      parseCharacteristicFields({ ...measured, lsl: undefined, usl: undefined })
     );
+    expect(problems[0]?.message).toMatch(/at least one limit/);
+    expect(
+      parseCharacteristicFields({ ...measured, dataKind: 'counted', lsl: undefined, usl: undefined }).dataKind
+    ).toBe('counted');
   });
 
   it('accepts a one-sided limit', () => {
@@ -59,7 +61,9 @@ describe('characteristic validation', () => {
 
   it('refuses a target outside the limits and an unknown risk class', () => {
     expect(problemsOf(() => parseCharacteristicFields({ ...measured, target: 11 }))[0]?.field).toBe('target');
-    expect(problemsOf(() => parseCharacteristicFields({ ...measured, riskClass: 'critical' }))[0]?.field).toBe('riskClass');
+    expect(
+      problemsOf(() => parseCharacteristicFields({ ...measured, riskClass: 'critical' }))[0]?.field
+    ).toBe('riskClass');
   });
 
   it('refuses a limit given as text', () => {
@@ -68,35 +72,53 @@ describe('characteristic validation', () => {
   });
 });
 
-const study = (data: unknown, period = '2026-03') => ({ characteristicId: CHAR_ID, period, data, enteredBy: 'Lead' });
+const study = (data: unknown, period = '2026-03') => ({
+  characteristicId: CHAR_ID,
+  period,
+  data,
+  enteredBy: 'Lead'
+});
 
 describe('study validation', () => {
   it('accepts each kind of data', () => {
     expect(parseStudyFields(study({ kind: 'raw', values: [1, 2, 3] })).data.kind).toBe('raw');
     expect(parseStudyFields(study({ kind: 'summary', n: 30, mean: 5, sd: 0.2 })).data.kind).toBe('summary');
-    expect(parseStudyFields(study({ kind: 'defectives', units: 100, defectives: 0 })).data.kind).toBe('defectives');
-    expect(parseStudyFields(study({ kind: 'defects', units: 10, defects: 3, opportunitiesPerUnit: 4 })).data.kind).toBe(
-      'defects'
+    expect(parseStudyFields(study({ kind: 'defectives', units: 100, defectives: 0 })).data.kind).toBe(
+      'defectives'
     );
+    expect(
+      parseStudyFields(study({ kind: 'defects', units: 10, defects: 3, opportunitiesPerUnit: 4 })).data.kind
+    ).toBe('defects');
   });
 
-  it.each(['2026-13', '2026-1', '26-01', '2026/01', '2026-00', 'March 2026', ''])('refuses period %j', (period) => {
-    const problems = problemsOf(() => parseStudyFields(study({ kind: 'raw', values: [1] }, period)));
-    expect(problems).toEqual([{ field: 'period', message: `Period '${period}' is not a month written YYYY-MM` }]);
-  });
+  it.each(['2026-13', '2026-1', '26-01', '2026/01', '2026-00', 'March 2026', ''])(
+    'refuses period %j',
+    (period) => {
+      const problems = problemsOf(() => parseStudyFields(study({ kind: 'raw', values: [1] }, period)));
+      expect(problems).toEqual([
+        { field: 'period', message: `Period '${period}' is not a month written YYYY-MM` }
+      ]);
+    }
+  );
 
   it('refuses a negative count', () => {
-    const problems = problemsOf(() => parseStudyFields(study({ kind: 'defectives', units: 100, defectives: -1 })));
+    const problems = problemsOf(() =>
+      parseStudyFields(study({ kind: 'defectives', units: 100, defectives: -1 }))
+    );
     expect(problems).toEqual([{ field: 'data.defectives', message: 'Defectives must not be negative' }]);
   });
 
   it('refuses a fractional count', () => {
-    const problems = problemsOf(() => parseStudyFields(study({ kind: 'defectives', units: 100.5, defectives: 1 })));
+    const problems = problemsOf(() =>
+      parseStudyFields(study({ kind: 'defectives', units: 100.5, defectives: 1 }))
+    );
     expect(problems[0]).toEqual({ field: 'data.units', message: 'Units inspected must be a whole number' });
   });
 
   it('refuses more defectives than units inspected', () => {
-    const problems = problemsOf(() => parseStudyFields(study({ kind: 'defectives', units: 100, defectives: 101 })));
+    const problems = problemsOf(() =>
+      parseStudyFields(study({ kind: 'defectives', units: 100, defectives: 101 }))
+    );
     expect(problems).toEqual([
       { field: 'data.defectives', message: 'Defectives (101) cannot exceed units inspected (100)' }
     ]);
@@ -120,14 +142,18 @@ describe('study validation', () => {
   });
 
   it('refuses a summary with n below 2 or a negative sd', () => {
-    expect(problemsOf(() => parseStudyFields(study({ kind: 'summary', n: 1, mean: 5, sd: 0 })))[0]?.field).toBe('data.n');
-    expect(problemsOf(() => parseStudyFields(study({ kind: 'summary', n: 5, mean: 5, sd: -1 })))[0]?.field).toBe(
-      'data.sd'
-    );
+    expect(
+      problemsOf(() => parseStudyFields(study({ kind: 'summary', n: 1, mean: 5, sd: 0 })))[0]?.field
+    ).toBe('data.n');
+    expect(
+      problemsOf(() => parseStudyFields(study({ kind: 'summary', n: 5, mean: 5, sd: -1 })))[0]?.field
+    ).toBe('data.sd');
   });
 
   it('refuses subgroup ids that do not pair with the values', () => {
-    const problems = problemsOf(() => parseStudyFields(study({ kind: 'raw', values: [1, 2, 3], subgroups: ['a', 'b'] })));
+    const problems = problemsOf(() =>
+      parseStudyFields(study({ kind: 'raw', values: [1, 2, 3], subgroups: ['a', 'b'] }))
+    );
     expect(problems[0]?.field).toBe('data.subgroups');
   });
 
@@ -164,13 +190,25 @@ describe('site, process and project validation', () => {
   });
 
   it('refuses an unknown phase and a target date before the start', () => {
-    const base = { processId: PROCESS_ID, title: 'Fewer rejects', owner: '', startDate: '2026-03-01', expectedAnnualSaving: 0 };
-    expect(problemsOf(() => parseImprovementProjectFields({ ...base, phase: 'Sustain' }))[0]?.field).toBe('phase');
-    expect(
-      problemsOf(() => parseImprovementProjectFields({ ...base, phase: 'Define', targetDate: '2026-02-01' }))[0]?.field
-    ).toBe('targetDate');
-    expect(problemsOf(() => parseImprovementProjectFields({ ...base, phase: 'Define', startDate: '2026-02-30' }))[0]?.field).toBe(
-      'startDate'
+    const base = {
+      processId: PROCESS_ID,
+      title: 'Fewer rejects',
+      owner: '',
+      startDate: '2026-03-01',
+      expectedAnnualSaving: 0
+    };
+    expect(problemsOf(() => parseImprovementProjectFields({ ...base, phase: 'Sustain' }))[0]?.field).toBe(
+      'phase'
     );
+    expect(
+      problemsOf(() =>
+        parseImprovementProjectFields({ ...base, phase: 'Define', targetDate: '2026-02-01' })
+      )[0]?.field
+    ).toBe('targetDate');
+    expect(
+      problemsOf(() =>
+        parseImprovementProjectFields({ ...base, phase: 'Define', startDate: '2026-02-30' })
+      )[0]?.field
+    ).toBe('startDate');
   });
 });

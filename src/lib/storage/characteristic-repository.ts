@@ -3,7 +3,10 @@ import type { WriteContext } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
 import { RecordRepository, requireLive } from './record-repository';
 
-export function createCharacteristicRepository(db: CapstanDatabase, ctx: WriteContext): RecordRepository<Characteristic> {
+export function createCharacteristicRepository(
+  db: CapstanDatabase,
+  ctx: WriteContext
+): RecordRepository<Characteristic> {
   return new RecordRepository<Characteristic>(db, ctx, {
     kind: 'Characteristic',
     table: (d) => d.characteristics,

@@ -26,16 +26,22 @@ export async function isPortfolioEmpty(db: CapstanDatabase): Promise<boolean> {
 export async function loadDemoPortfolio(db: CapstanDatabase, file: unknown): Promise<DemoLoadResult> {
   const demo = parseDemoPortfolio(file);
   const r = demo.records;
-  await db.transaction('rw', [db.sites, db.processes, db.characteristics, db.studies, db.projects], async () => {
-    if (!(await isPortfolioEmpty(db))) {
-      throw new Error('The demo portfolio loads only into an empty database; this one already holds records');
+  await db.transaction(
+    'rw',
+    [db.sites, db.processes, db.characteristics, db.studies, db.projects],
+    async () => {
+      if (!(await isPortfolioEmpty(db))) {
+        throw new Error(
+          'The demo portfolio loads only into an empty database; this one already holds records'
+        );
+      }
+      await db.sites.bulkPut(r.sites);
+      await db.processes.bulkPut(r.processes);
+      await db.characteristics.bulkPut(r.characteristics);
+      await db.studies.bulkPut(r.studies);
+      await db.projects.bulkPut(r.projects);
     }
-    await db.sites.bulkPut(r.sites);
-    await db.processes.bulkPut(r.processes);
-    await db.characteristics.bulkPut(r.characteristics);
-    await db.studies.bulkPut(r.studies);
-    await db.projects.bulkPut(r.projects);
-  });
+  );
   return {
     sites: r.sites.length,
     processes: r.processes.length,

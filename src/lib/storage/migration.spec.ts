@@ -14,8 +14,19 @@ describe('schema upgrade v1 → v2', () => {
     const v1 = new Dexie(name);
     v1.version(1).stores(SCHEMA_V1);
     await v1.open();
-    const meta = (id: string) => ({ id, createdAt: '2025-01-01T00:00:00.000Z', updatedAt: '2025-01-01T00:00:00.000Z', rev: 1, deviceId: 'dev-v1' });
-    const site = { ...meta('11111111-1111-4111-8111-111111111111'), name: 'Old plant', region: '', timeZone: 'UTC' };
+    const meta = (id: string) => ({
+      id,
+      createdAt: '2025-01-01T00:00:00.000Z',
+      updatedAt: '2025-01-01T00:00:00.000Z',
+      rev: 1,
+      deviceId: 'dev-v1'
+    });
+    const site = {
+      ...meta('11111111-1111-4111-8111-111111111111'),
+      name: 'Old plant',
+      region: '',
+      timeZone: 'UTC'
+    };
     const process = {
       ...meta('22222222-2222-4222-8222-222222222222'),
       siteId: site.id,
@@ -28,8 +39,22 @@ describe('schema upgrade v1 → v2', () => {
     };
     // v1 had no risk class on characteristics.
     const characteristics = [
-      { ...meta('33333333-3333-4333-8333-333333333333'), processId: process.id, name: 'Wall', unit: 'mm', dataKind: 'measured', lsl: 1, usl: 2 },
-      { ...meta('44444444-4444-4444-8444-444444444444'), processId: process.id, name: 'Flash', unit: '', dataKind: 'counted' }
+      {
+        ...meta('33333333-3333-4333-8333-333333333333'),
+        processId: process.id,
+        name: 'Wall',
+        unit: 'mm',
+        dataKind: 'measured',
+        lsl: 1,
+        usl: 2
+      },
+      {
+        ...meta('44444444-4444-4444-8444-444444444444'),
+        processId: process.id,
+        name: 'Flash',
+        unit: '',
+        dataKind: 'counted'
+      }
     ];
     const studies = Array.from({ length: 30 }, (_, i) => ({
       ...meta(`55555555-5555-4555-8555-${String(i).padStart(12, '0')}`),
@@ -38,7 +63,12 @@ describe('schema upgrade v1 → v2', () => {
       data: { kind: 'raw', values: [1.5 + i / 1000, 1.51] },
       enteredBy: 'v1 user'
     }));
-    const tombstone = { ...studies[0]!, id: '66666666-6666-4666-8666-666666666666', deletedAt: '2025-02-01T00:00:00.000Z', rev: 2 };
+    const tombstone = {
+      ...studies[0]!,
+      id: '66666666-6666-4666-8666-666666666666',
+      deletedAt: '2025-02-01T00:00:00.000Z',
+      rev: 2
+    };
     await v1.table('sites').add(site);
     await v1.table('processes').add(process);
     await v1.table('characteristics').bulkAdd(characteristics);
@@ -56,7 +86,10 @@ describe('schema upgrade v1 → v2', () => {
     expect(await current.studies.count()).toBe(31);
     expect(await current.studies.get(tombstone.id)).toEqual(tombstone);
     // The new compound index answers.
-    const march = await current.studies.where('[characteristicId+period]').equals([characteristics[0]!.id, '2024-03']).toArray();
+    const march = await current.studies
+      .where('[characteristicId+period]')
+      .equals([characteristics[0]!.id, '2024-03'])
+      .toArray();
     expect(march.map((s) => s.id).sort()).toEqual([studies[2]!.id, studies[14]!.id, studies[26]!.id].sort());
     expect((await current.deviceSettings.get('deviceId'))?.value).toBe('dev-v1');
     current.close();

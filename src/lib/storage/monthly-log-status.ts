@@ -19,10 +19,17 @@ export interface MonthlyLogStatus {
 }
 
 /** Every characteristic of a site with its study for `period`; not yet logged first, then by process and name. */
-export async function loadMonthlyLogStatus(db: CapstanDatabase, siteId: string, period: string): Promise<MonthlyLogStatus> {
+export async function loadMonthlyLogStatus(
+  db: CapstanDatabase,
+  siteId: string,
+  period: string
+): Promise<MonthlyLogStatus> {
   const processes = (await db.processes.where('siteId').equals(siteId).toArray()).filter(isLive);
   const characteristics = (
-    await db.characteristics.where('processId').anyOf(processes.map((p) => p.id)).toArray()
+    await db.characteristics
+      .where('processId')
+      .anyOf(processes.map((p) => p.id))
+      .toArray()
   ).filter(isLive);
   const studies = (await db.studies.where('period').equals(period).toArray()).filter(isLive);
   const studyByCharacteristic = new Map(studies.map((s) => [s.characteristicId, s]));

@@ -29,7 +29,8 @@ export interface StudyIndexEntry {
 async function liveStudyIndex(db: CapstanDatabase): Promise<StudyIndexEntry[]> {
   const out: StudyIndexEntry[] = [];
   await db.studies.each((s) => {
-    if (isLive(s)) out.push({ id: s.id, characteristicId: s.characteristicId, period: s.period, kind: s.data.kind });
+    if (isLive(s))
+      out.push({ id: s.id, characteristicId: s.characteristicId, period: s.period, kind: s.data.kind });
   });
   return out;
 }
@@ -74,7 +75,9 @@ export async function listProcessOverviews(db: CapstanDatabase): Promise<Process
       projects: projectsByProcess.get(process.id) ?? []
     });
   }
-  return rows.sort((a, b) => a.site.name.localeCompare(b.site.name) || a.process.name.localeCompare(b.process.name));
+  return rows.sort(
+    (a, b) => a.site.name.localeCompare(b.site.name) || a.process.name.localeCompare(b.process.name)
+  );
 }
 
 /** One process with everything beneath it, for the process page. */
@@ -85,12 +88,17 @@ export interface ProcessDetail {
   projects: ImprovementProject[];
 }
 
-export async function loadProcessDetail(db: CapstanDatabase, processId: string): Promise<ProcessDetail | undefined> {
+export async function loadProcessDetail(
+  db: CapstanDatabase,
+  processId: string
+): Promise<ProcessDetail | undefined> {
   const process = await db.processes.get(processId);
   if (!process || !isLive(process)) return undefined;
   const site = await db.sites.get(process.siteId);
   if (!site || !isLive(site)) return undefined;
-  const characteristics = (await db.characteristics.where('processId').equals(processId).toArray()).filter(isLive);
+  const characteristics = (await db.characteristics.where('processId').equals(processId).toArray()).filter(
+    isLive
+  );
   const withStudies = await Promise.all(
     characteristics.map(async (characteristic) => ({
       characteristic,

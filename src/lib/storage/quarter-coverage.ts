@@ -1,5 +1,4 @@
-import type { ImprovementProject } from '../domain/improvement-project';
-import { PROJECT_PHASES, type ProjectPhase } from '../domain/improvement-project';
+import { PROJECT_PHASES, type ImprovementProject, type ProjectPhase } from '../domain/improvement-project';
 import { periodsOfQuarter } from '../domain/period';
 import { isLive } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
@@ -34,19 +33,28 @@ export async function loadQuarterCoverage(db: CapstanDatabase, quarter: string):
     db.projects.toArray()
   ]);
   const periodKeys = (await db.studies.orderBy('period').uniqueKeys()) as string[];
-  const quartersWithData = [...new Set(periodKeys.map((p) => `${p.slice(0, 4)}-Q${Math.floor((Number(p.slice(5, 7)) - 1) / 3) + 1}`))].sort().reverse();
+  const quartersWithData = [
+    ...new Set(periodKeys.map((p) => `${p.slice(0, 4)}-Q${Math.floor((Number(p.slice(5, 7)) - 1) / 3) + 1}`))
+  ]
+    .sort()
+    .reverse();
   const studies = (await db.studies.where('period').anyOf(periods).toArray()).filter(isLive);
   const liveProcesses = processes.filter(isLive);
   const liveCharacteristics = characteristics.filter(isLive);
   const siteOfProcess = new Map(liveProcesses.map((p) => [p.id, p.siteId]));
-  const siteOfCharacteristic = new Map(liveCharacteristics.map((c) => [c.id, siteOfProcess.get(c.processId)]));
+  const siteOfCharacteristic = new Map(
+    liveCharacteristics.map((c) => [c.id, siteOfProcess.get(c.processId)])
+  );
 
   const rows: SiteQuarterCoverage[] = sites
     .filter(isLive)
     .map((site) => {
       const chars = liveCharacteristics.filter((c) => siteOfCharacteristic.get(c.id) === site.id);
       const loggedByMonth = periods.map(
-        (period) => studies.filter((s) => s.period === period && siteOfCharacteristic.get(s.characteristicId) === site.id).length
+        (period) =>
+          studies.filter(
+            (s) => s.period === period && siteOfCharacteristic.get(s.characteristicId) === site.id
+          ).length
       );
       return {
         siteId: site.id,
@@ -64,7 +72,10 @@ export async function loadQuarterCoverage(db: CapstanDatabase, quarter: string):
     quarter,
     periods,
     sites: rows,
-    projectsByPhase: PROJECT_PHASES.map((phase) => ({ phase, projects: liveProjects.filter((p) => p.phase === phase) })),
+    projectsByPhase: PROJECT_PHASES.map((phase) => ({
+      phase,
+      projects: liveProjects.filter((p) => p.phase === phase)
+    })),
     quartersWithData
   };
 }

@@ -1,9 +1,14 @@
-import { isLive, stampDeleted, stampRestored, type RecordMeta } from '../domain/record-meta';
+import {
+  isLive,
+  stampDeleted,
+  stampRestored,
+  type RecordMeta,
+  type WriteContext
+} from '../domain/record-meta';
 import { parseSiteFields, type Site } from '../domain/site';
 import type { Table } from 'dexie';
 import { RecordNotFoundError, RecordRepository } from './record-repository';
 import type { CapstanDatabase } from './database';
-import type { WriteContext } from '../domain/record-meta';
 
 /** What a site deletion touched, so that undo can bring back exactly that. */
 export interface SiteRemoval {
@@ -47,9 +52,15 @@ export class SiteRepository extends RecordRepository<Site> {
       );
       const studies = await bury(
         d.studies,
-        await d.studies.where('characteristicId').anyOf(characteristics.map((c) => c.id)).toArray()
+        await d.studies
+          .where('characteristicId')
+          .anyOf(characteristics.map((c) => c.id))
+          .toArray()
       );
-      const projects = await bury(d.projects, await d.projects.where('processId').anyOf(processIds).toArray());
+      const projects = await bury(
+        d.projects,
+        await d.projects.where('processId').anyOf(processIds).toArray()
+      );
       await d.sites.put(tombstone);
       return {
         site: tombstone,
@@ -76,13 +87,22 @@ export class SiteRepository extends RecordRepository<Site> {
       const site = await d.sites.get(removal.site.id);
       if (!site || site.deletedAt !== at) throw new RecordNotFoundError('Deleted site', removal.site.id);
       await raise(d.sites, [site]);
-      const processes = await raise(d.processes, await d.processes.where('siteId').equals(removal.site.id).toArray());
+      const processes = await raise(
+        d.processes,
+        await d.processes.where('siteId').equals(removal.site.id).toArray()
+      );
       const processIds = processes.map((p) => p.id);
       const characteristics = await raise(
         d.characteristics,
         await d.characteristics.where('processId').anyOf(processIds).toArray()
       );
-      await raise(d.studies, await d.studies.where('characteristicId').anyOf(characteristics.map((c) => c.id)).toArray());
+      await raise(
+        d.studies,
+        await d.studies
+          .where('characteristicId')
+          .anyOf(characteristics.map((c) => c.id))
+          .toArray()
+      );
       await raise(d.projects, await d.projects.where('processId').anyOf(processIds).toArray());
     });
   }

@@ -72,7 +72,11 @@ describe('repositories', () => {
 
   it('updates as a new revision', async () => {
     const { site } = await seedProcess(storage);
-    const updated = await storage.sites.update(site.id, { name: 'Plant East 2', region: 'Nordics', timeZone: 'Europe/Oslo' });
+    const updated = await storage.sites.update(site.id, {
+      name: 'Plant East 2',
+      region: 'Nordics',
+      timeZone: 'Europe/Oslo'
+    });
     expect(updated.rev).toBe(2);
     expect(updated.createdAt).toBe(site.createdAt);
     expect((await storage.sites.get(site.id))?.name).toBe('Plant East 2');
@@ -82,9 +86,30 @@ describe('repositories', () => {
     const { process, characteristic } = await seedProcess(storage);
     const before = await everything(storage);
     const attempts: (() => Promise<unknown>)[] = [
-      () => storage.characteristics.create({ processId: process.id, name: 'x', unit: '', dataKind: 'measured', lsl: 5, usl: 4, riskClass: 'standard' }),
-      () => storage.studies.create({ characteristicId: characteristic.id, period: '2026-3', data: { kind: 'raw', values: [1] }, enteredBy: '' }),
-      () => storage.studies.create({ characteristicId: characteristic.id, period: '2026-03', data: { kind: 'raw', values: [20, 'x'] }, enteredBy: '' }),
+      () =>
+        storage.characteristics.create({
+          processId: process.id,
+          name: 'x',
+          unit: '',
+          dataKind: 'measured',
+          lsl: 5,
+          usl: 4,
+          riskClass: 'standard'
+        }),
+      () =>
+        storage.studies.create({
+          characteristicId: characteristic.id,
+          period: '2026-3',
+          data: { kind: 'raw', values: [1] },
+          enteredBy: ''
+        }),
+      () =>
+        storage.studies.create({
+          characteristicId: characteristic.id,
+          period: '2026-03',
+          data: { kind: 'raw', values: [20, 'x'] },
+          enteredBy: ''
+        }),
       () => storage.characteristics.update(characteristic.id, { ...characteristic, lsl: 30 })
     ];
     for (const attempt of attempts) await expect(attempt()).rejects.toBeInstanceOf(ValidationError);
@@ -108,13 +133,23 @@ describe('repositories', () => {
   it('refuses counted data on a measured characteristic', async () => {
     const { characteristic } = await seedProcess(storage);
     await expect(
-      storage.studies.create({ characteristicId: characteristic.id, period: '2026-03', data: { kind: 'defectives', units: 10, defectives: 1 }, enteredBy: '' })
+      storage.studies.create({
+        characteristicId: characteristic.id,
+        period: '2026-03',
+        data: { kind: 'defectives', units: 10, defectives: 1 },
+        enteredBy: ''
+      })
     ).rejects.toThrow(/measured characteristic; defectives data does not fit/);
   });
 
   it('refuses a second study for the same characteristic and month', async () => {
     const { characteristic } = await seedProcess(storage);
-    const first = { characteristicId: characteristic.id, period: '2026-03', data: { kind: 'summary', n: 30, mean: 20, sd: 0.005 }, enteredBy: 'A' };
+    const first = {
+      characteristicId: characteristic.id,
+      period: '2026-03',
+      data: { kind: 'summary', n: 30, mean: 20, sd: 0.005 },
+      enteredBy: 'A'
+    };
     await storage.studies.create(first);
     await expect(storage.studies.create(first)).rejects.toThrow(/already has a study for 2026-03/);
     expect(await storage.studies.forCharacteristic(characteristic.id)).toHaveLength(1);
@@ -132,8 +167,18 @@ describe('repositories', () => {
 
   it('cascades a site deletion to everything beneath it, and undo brings back exactly that', async () => {
     const { site, process, characteristic } = await seedProcess(storage);
-    await storage.studies.create({ characteristicId: characteristic.id, period: '2026-02', data: { kind: 'raw', values: [20, 20.01] }, enteredBy: '' });
-    const earlier = await storage.studies.create({ characteristicId: characteristic.id, period: '2026-01', data: { kind: 'raw', values: [20] }, enteredBy: '' });
+    await storage.studies.create({
+      characteristicId: characteristic.id,
+      period: '2026-02',
+      data: { kind: 'raw', values: [20, 20.01] },
+      enteredBy: ''
+    });
+    const earlier = await storage.studies.create({
+      characteristicId: characteristic.id,
+      period: '2026-01',
+      data: { kind: 'raw', values: [20] },
+      enteredBy: ''
+    });
     await storage.studies.remove(earlier.id); // deleted before the site: must stay deleted after undo
     const removal = await storage.sites.removeWithContents(site.id);
     expect(removal.counts).toEqual({ processes: 1, characteristics: 1, studies: 1, projects: 0 });

@@ -47,7 +47,10 @@ export interface CapstanStorage {
 }
 
 /** Opens (creating or upgrading) the database and binds the repositories to this device. */
-export async function openStorage(name: string = DEFAULT_DATABASE_NAME, options?: DexieOptions): Promise<CapstanStorage> {
+export async function openStorage(
+  name: string = DEFAULT_DATABASE_NAME,
+  options?: DexieOptions
+): Promise<CapstanStorage> {
   const db = new CapstanDatabase(name, options);
   await db.open();
   const deviceId = await loadDeviceId(db);

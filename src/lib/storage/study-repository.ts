@@ -1,6 +1,5 @@
 import type { Characteristic } from '../domain/characteristic';
-import type { WriteContext } from '../domain/record-meta';
-import { isLive } from '../domain/record-meta';
+import { isLive, type WriteContext } from '../domain/record-meta';
 import { assertStudyFitsCharacteristic, parseStudyFields, type Study } from '../domain/study';
 import { ValidationError } from '../domain/validation-error';
 import type { CapstanDatabase } from './database';

@@ -8,7 +8,9 @@ export function formatCount(value: number): string {
 
 export function formatMoney(value: number, currency: string): string {
   try {
-    return new Intl.NumberFormat(undefined, { style: 'currency', currency, maximumFractionDigits: 0 }).format(value);
+    return new Intl.NumberFormat(undefined, { style: 'currency', currency, maximumFractionDigits: 0 }).format(
+      value
+    );
   } catch {
     return `${integer.format(value)} ${currency}`;
   }

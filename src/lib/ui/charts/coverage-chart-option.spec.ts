@@ -6,9 +6,30 @@ const coverage: QuarterCoverage = {
   quarter: '2026-Q3',
   periods: ['2026-07', '2026-08', '2026-09'],
   sites: [
-    { siteId: 'a', siteName: 'Alpha', processes: 2, characteristics: 4, loggedByMonth: [4, 3, 0], expected: 12 },
-    { siteId: 'b', siteName: 'Empty', processes: 0, characteristics: 0, loggedByMonth: [0, 0, 0], expected: 0 },
-    { siteId: 'c', siteName: 'Gamma', processes: 1, characteristics: 3, loggedByMonth: [1, 2, 3], expected: 9 }
+    {
+      siteId: 'a',
+      siteName: 'Alpha',
+      processes: 2,
+      characteristics: 4,
+      loggedByMonth: [4, 3, 0],
+      expected: 12
+    },
+    {
+      siteId: 'b',
+      siteName: 'Empty',
+      processes: 0,
+      characteristics: 0,
+      loggedByMonth: [0, 0, 0],
+      expected: 0
+    },
+    {
+      siteId: 'c',
+      siteName: 'Gamma',
+      processes: 1,
+      characteristics: 3,
+      loggedByMonth: [1, 2, 3],
+      expected: 9
+    }
   ],
   projectsByPhase: [],
   quartersWithData: ['2026-Q3']

@@ -1,0 +1,12 @@
+#!/usr/bin/env bash
+# Installs what the test command needs on a fresh machine: the Node packages from the lock file, and
+# Debian's Chromium for the browser tests (Playwright's own browser download cannot work here).
+set -euo pipefail
+cd "$(dirname "$0")/../.."
+if ! command -v chromium >/dev/null 2>&1; then
+  if [ "$(id -u)" -eq 0 ]; then apt_get="apt-get"; else apt_get="sudo apt-get"; fi
+  $apt_get update -qq
+  DEBIAN_FRONTEND=noninteractive $apt_get install -y -qq chromium fonts-dejavu-core >/dev/null
+fi
+chromium --version 2>/dev/null | head -n 1
+npm ci --no-audit --no-fund
