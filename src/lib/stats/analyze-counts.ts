@@ -1,0 +1,124 @@
+import type { CapabilityResult } from './capability-result';
+import { clopperPearson, poissonCountInterval } from './confidence-bounds';
+import { normalUpperQuantile } from './normal-distribution';
+
+export interface CountOptions {
+  confidence?: number;
+  shortTermShift?: number;
+}
+
+function checkLevel(level: number): void {
+  if (!(level > 0 && level < 1)) throw new RangeError(`Confidence must lie strictly between 0 and 1, got ${level}`);
+}
+
+function shift(result: CapabilityResult, options: CountOptions): CapabilityResult {
+  if (options.shortTermShift !== undefined) {
+    result.zLevelShortTerm = result.zLevel + options.shortTermShift;
+    result.assumptions.push(`short-term sigma level = z-level + ${options.shortTermShift} (shift convention), reported because it was asked for`);
+  }
+  return result;
+}
+
+/**
+ * Defectives out of units inspected (binomial): p = d/n, ppm = 10⁶·p, yield = 1 − p, z-level = Q⁻¹(p), with the
+ * exact Clopper–Pearson interval. With no defective the z-level is the one at the one-sided upper bound of p
+ * (≈ 3/n at 95 %, the rule of three), never infinite.
+ */
+export function analyzeDefectives(units: number, defectives: number, options: CountOptions = {}): CapabilityResult {
+  if (!(Number.isInteger(units) && units >= 1)) throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
+  if (!(Number.isInteger(defectives) && defectives >= 0)) throw new RangeError(`Defectives must be a whole number ≥ 0, got ${defectives}`);
+  if (defectives > units) throw new RangeError(`Defectives (${defectives}) cannot exceed units inspected (${units})`);
+  const level = options.confidence ?? 0.95;
+  checkLevel(level);
+  const p = defectives / units;
+  const ci = clopperPearson(defectives, units, level);
+  const assumptions = [
+    'counted data: each unit is defective or not, independently and with the same probability (binomial)',
+    `interval: exact Clopper–Pearson at ${Math.round(level * 1000) / 10} %`
+  ];
+  const warnings: string[] = [];
+  const zero = defectives === 0;
+  if (zero) {
+    assumptions.push(`no defective seen: the z-level shown is the lower bound, from the one-sided upper bound p ≤ ${ci.upperBound.toPrecision(3)}`);
+  }
+  if (units < 100) warnings.push(`Only ${units} units inspected: the interval on the defective rate is wide`);
+  const result: CapabilityResult = {
+    kind: 'defectives',
+    n: units,
+    p,
+    ppm: p * 1e6,
+    ppmTotal: p * 1e6,
+    yield: 1 - p,
+    zLevel: zero ? normalUpperQuantile(ci.upperBound) : normalUpperQuantile(p),
+    model: 'binomial',
+    modelLabel: 'binomial count of defectives',
+    method: 'fraction defective d/n; z-level = Q⁻¹(p)',
+    assumptions,
+    warnings,
+    intervals: {
+      p: { lower: ci.lower, upper: ci.upper, upperBound: ci.upperBound, level },
+      ppm: { lower: ci.lower * 1e6, upper: ci.upper * 1e6, upperBound: ci.upperBound * 1e6, level },
+      zLevel: {
+        lower: normalUpperQuantile(ci.upper),
+        upper: ci.lower === 0 ? Infinity : normalUpperQuantile(ci.lower),
+        lowerBound: normalUpperQuantile(ci.upperBound),
+        level
+      }
+    }
+  };
+  return shift(result, options);
+}
+
+/**
+ * Defects found on units with a number of opportunities each (Poisson): DPU = D/U, DPMO = 10⁶·D/(U·O),
+ * first-pass yield = e^(−DPU) (the Poisson chance of a unit with no defect), z-level = Q⁻¹(DPMO/10⁶). Interval
+ * from the exact Poisson limits on D. With no defect the z-level comes from the one-sided upper bound.
+ */
+export function analyzeDefects(units: number, defects: number, opportunitiesPerUnit = 1, options: CountOptions = {}): CapabilityResult {
+  if (!(Number.isInteger(units) && units >= 1)) throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
+  if (!(Number.isInteger(defects) && defects >= 0)) throw new RangeError(`Defects must be a whole number ≥ 0, got ${defects}`);
+  if (!(Number.isInteger(opportunitiesPerUnit) && opportunitiesPerUnit >= 1)) {
+    throw new RangeError(`Opportunities per unit must be a whole number ≥ 1, got ${opportunitiesPerUnit}`);
+  }
+  const opportunities = units * opportunitiesPerUnit;
+  if (defects > opportunities) throw new RangeError(`Defects (${defects}) cannot exceed the opportunities (${units} × ${opportunitiesPerUnit} = ${opportunities})`);
+  const level = options.confidence ?? 0.95;
+  checkLevel(level);
+  const dpu = defects / units;
+  const dpo = defects / opportunities;
+  const ci = poissonCountInterval(defects, level);
+  const zero = defects === 0;
+  const upperDpo = Math.min(1, ci.upperBound / opportunities);
+  const assumptions = [
+    'counted data: defects occur independently, each opportunity equally likely to hold one (Poisson)',
+    'first-pass yield e^(−DPU): the Poisson chance that a unit has no defect',
+    `interval: exact Poisson limits on the defect count at ${Math.round(level * 1000) / 10} %`
+  ];
+  if (zero) assumptions.push(`no defect seen: the z-level shown is the lower bound, from the one-sided upper bound DPMO ≤ ${(upperDpo * 1e6).toPrecision(3)}`);
+  const result: CapabilityResult = {
+    kind: 'defects',
+    n: units,
+    dpu,
+    dpmo: dpo * 1e6,
+    ppmTotal: dpo * 1e6,
+    yield: Math.exp(-dpu),
+    zLevel: zero ? normalUpperQuantile(upperDpo) : normalUpperQuantile(dpo),
+    model: 'poisson',
+    modelLabel: 'Poisson count of defects',
+    method: 'DPMO = 10⁶·defects/(units × opportunities); z-level = Q⁻¹(DPMO/10⁶)',
+    assumptions,
+    warnings: [],
+    intervals: {
+      dpu: { lower: ci.lower / units, upper: ci.upper / units, upperBound: ci.upperBound / units, level },
+      dpmo: { lower: (ci.lower / opportunities) * 1e6, upper: Math.min(1, ci.upper / opportunities) * 1e6, upperBound: upperDpo * 1e6, level },
+      yield: { lower: Math.exp(-ci.upper / units), upper: Math.exp(-ci.lower / units), level },
+      zLevel: {
+        lower: normalUpperQuantile(Math.min(1, ci.upper / opportunities)),
+        upper: ci.lower === 0 ? Infinity : normalUpperQuantile(ci.lower / opportunities),
+        lowerBound: normalUpperQuantile(upperDpo),
+        level
+      }
+    }
+  };
+  return shift(result, options);
+}

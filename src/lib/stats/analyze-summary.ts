@@ -1,0 +1,86 @@
+import { cpm as cpmIndex, indices } from './capability-indices';
+import type { CapabilityResult } from './capability-result';
+import { bissellInterval, spreadIndexInterval } from './confidence-bounds';
+import { normalSf, normalUpperQuantile } from './normal-distribution';
+import { checkSpecification, type Specification } from './specification';
+import { normalTailFractions } from './tail-fractions';
+
+export interface SummaryOptions {
+  spec: Specification;
+  confidence?: number;
+  shortTermShift?: number;
+  requiredIndex?: number;
+}
+
+/**
+ * Capability from a reported summary (n, mean, sd with n − 1): the normal-model figures with the overall sigma.
+ * Marked "summary only": with no values, normality and stability cannot be checked, and with no subgroups there
+ * is no within sigma, so Cp/Cpk are not reported (Pp/Ppk are).
+ */
+export function analyzeSummary(n: number, mu: number, sd: number, options: SummaryOptions): CapabilityResult {
+  const spec = options.spec;
+  checkSpecification(spec);
+  if (!(Number.isInteger(n) && n >= 2)) throw new RangeError(`n must be a whole number of at least 2, got ${n}`);
+  if (!Number.isFinite(mu)) throw new RangeError('The mean must be a finite number');
+  if (!(Number.isFinite(sd) && sd >= 0)) throw new RangeError('The standard deviation must be a finite number ≥ 0');
+  const level = options.confidence ?? 0.95;
+  const assumptions = [
+    'normal model',
+    'summary only: normality and stability not checked',
+    'overall sigma as reported (sample standard deviation, n − 1); no within sigma, so no Cp/Cpk'
+  ];
+  const warnings: string[] = [];
+  const base: CapabilityResult = {
+    kind: 'summary',
+    n,
+    mean: mu,
+    sdOverall: sd,
+    yield: 0,
+    zLevel: 0,
+    model: 'normal',
+    modelLabel: `normal (mean ${mu}, sd ${sd}) from the reported summary`,
+    method: 'normal model from the reported n, mean and standard deviation',
+    assumptions,
+    warnings,
+    intervals: {}
+  };
+  if (sd === 0) {
+    warnings.push('The reported standard deviation is zero: no index or tail fraction can be computed');
+    const inside = (spec.lsl === undefined || mu >= spec.lsl) && (spec.usl === undefined || mu <= spec.usl);
+    return { ...base, yield: inside ? 1 : 0, zLevel: inside ? Infinity : -Infinity };
+  }
+  const overall = indices(mu, sd, spec);
+  const tails = normalTailFractions(mu, sd, spec);
+  const result: CapabilityResult = { ...base, yield: 1 - tails.total, zLevel: tails.zLevel, ppmTotal: tails.total * 1e6 };
+  if (overall.spread !== undefined) result.pp = overall.spread;
+  if (overall.lower !== undefined) result.ppl = overall.lower;
+  if (overall.upper !== undefined) result.ppu = overall.upper;
+  if (overall.k !== undefined) result.ppk = overall.k;
+  const c = cpmIndex(mu, sd, spec);
+  if (c !== undefined) result.cpm = c;
+  if (tails.below !== undefined) result.ppmBelow = tails.below * 1e6;
+  if (tails.above !== undefined) result.ppmAbove = tails.above * 1e6;
+  if (tails.zMin !== undefined) result.zMin = tails.zMin;
+  if (tails.zLower !== undefined) result.zLower = tails.zLower;
+  if (tails.zUpper !== undefined) result.zUpper = tails.zUpper;
+  if (result.pp !== undefined) result.intervals.pp = spreadIndexInterval(result.pp, n, level);
+  if (result.cpm !== undefined) result.intervals.cpm = spreadIndexInterval(result.cpm, n, level);
+  if (result.ppk !== undefined && result.ppk > 0) {
+    const k = bissellInterval(result.ppk, n, level);
+    result.intervals.ppk = k;
+    result.intervals.zMin = { lower: 3 * k.lower, upper: 3 * k.upper, lowerBound: 3 * k.lowerBound, level };
+    const far = result.intervals.pp ? 3 * (2 * result.intervals.pp.lowerBound! - k.lowerBound) : Infinity;
+    const worst = Math.min(1, normalSf(3 * k.lowerBound) + normalSf(far));
+    result.intervals.zLevel = { lower: normalUpperQuantile(worst), upper: result.zLevel, lowerBound: normalUpperQuantile(worst), level };
+  }
+  if (n < 30) warnings.push(`Only ${n} values behind the summary: intervals are wide; 30 or more are advised`);
+  if (options.shortTermShift !== undefined) {
+    result.zLevelShortTerm = result.zLevel + options.shortTermShift;
+    assumptions.push(`short-term sigma level = z-level + ${options.shortTermShift} (shift convention), reported because it was asked for`);
+  }
+  if (options.requiredIndex !== undefined && result.ppk !== undefined && result.intervals.ppk) {
+    const lb = result.intervals.ppk.lowerBound!;
+    result.requirement = { index: 'ppk', threshold: options.requiredIndex, level, estimate: result.ppk, lowerBound: lb, shown: lb >= options.requiredIndex };
+  }
+  return result;
+}

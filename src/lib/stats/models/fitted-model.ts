@@ -1,0 +1,23 @@
+/** What every distribution fit returns: a model the engine can take tail fractions and quantiles from. */
+export type ModelName = 'normal' | 'lognormal' | 'weibull' | 'gamma' | 'exponential' | 'boxcox' | 'johnson';
+
+export interface FittedModel {
+  name: ModelName;
+  /** Plain-language name with its parameters, e.g. "lognormal (μ = 0.21, σ = 0.34 on the log scale)". */
+  label: string;
+  parameters: Record<string, number>;
+  cdf(x: number): number;
+  /** 1 − F(x), computed directly where the family allows it. */
+  sf(x: number): number;
+  quantile(p: number): number;
+}
+
+/** A fit that could not be made, and why (e.g. non-positive values for a lognormal). */
+export interface FitRefusal {
+  name: ModelName;
+  reason: string;
+}
+
+export function formatParameter(v: number): string {
+  return Number.isFinite(v) ? Number(v.toPrecision(4)).toString() : String(v);
+}

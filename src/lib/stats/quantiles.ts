@@ -1,0 +1,25 @@
+/**
+ * Sample quantile by the p(n+1) rule (Hyndman & Fan 1996 type 6; numpy method 'weibull'), clamped to the
+ * smallest and largest value outside the range the rule covers. This reproduces the quantiles printed in the
+ * NIST/SEMATECH e-Handbook furnace case study. `sorted` must be ascending.
+ */
+export function quantileType6(sorted: ArrayLike<number>, p: number): number {
+  const n = sorted.length;
+  if (n === 0) throw new RangeError('quantileType6 requires at least one value');
+  if (!(p >= 0 && p <= 1)) throw new RangeError(`quantileType6 requires 0 ≤ p ≤ 1, got ${p}`);
+  const h = p * (n + 1);
+  if (h <= 1) return sorted[0] as number;
+  if (h >= n) return sorted[n - 1] as number;
+  const lo = Math.floor(h);
+  const frac = h - lo;
+  const a = sorted[lo - 1] as number;
+  const b = sorted[lo] as number;
+  return a + frac * (b - a);
+}
+
+/** Ascending copy in a Float64Array (numeric sort, NaN-free input assumed). */
+export function sortedCopy(values: ArrayLike<number>): Float64Array {
+  const out = Float64Array.from(values as ArrayLike<number>);
+  out.sort();
+  return out;
+}
