@@ -24,12 +24,16 @@ export interface NistCertified {
 }
 
 export function nistCertified(): Record<string, NistCertified> {
-  const raw = JSON.parse(fixtureText('nist-strd/certified.json')) as { datasets: Record<string, Record<string, unknown>> };
+  const raw = JSON.parse(fixtureText('nist-strd/certified.json')) as {
+    datasets: Record<string, Record<string, unknown>>;
+  };
   const out: Record<string, NistCertified> = {};
   for (const [name, entry] of Object.entries(raw.datasets)) {
     out[name] = {
       ...(entry as unknown as NistCertified),
-      anderson_darling_normal_computed_scipy_1_17: entry['anderson_darling_normal_computed_scipy_1.17'] as NistCertified['anderson_darling_normal_computed_scipy_1_17']
+      anderson_darling_normal_computed_scipy_1_17: entry[
+        'anderson_darling_normal_computed_scipy_1.17'
+      ] as NistCertified['anderson_darling_normal_computed_scipy_1_17']
     };
   }
   return out;
@@ -54,11 +58,16 @@ export function expectRelative(actual: number | undefined, expected: number, rel
   expect(actual, label).toBeTypeOf('number');
   const scale = expected === 0 ? 1 : Math.abs(expected);
   const error = Math.abs((actual as number) - expected) / scale;
-  expect(error, `${label} ${actual} vs ${expected}: relative error ${error.toExponential(2)} > ${rel}`).toBeLessThanOrEqual(rel);
+  expect(
+    error,
+    `${label} ${actual} vs ${expected}: relative error ${error.toExponential(2)} > ${rel}`
+  ).toBeLessThanOrEqual(rel);
 }
 
 /** |actual − expected| ≤ abs. */
 export function expectAbsolute(actual: number | undefined, expected: number, abs: number, label = ''): void {
   expect(actual, label).toBeTypeOf('number');
-  expect(Math.abs((actual as number) - expected), `${label} ${actual} vs ${expected}`).toBeLessThanOrEqual(abs);
+  expect(Math.abs((actual as number) - expected), `${label} ${actual} vs ${expected}`).toBeLessThanOrEqual(
+    abs
+  );
 }

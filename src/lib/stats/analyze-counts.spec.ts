@@ -7,7 +7,10 @@ import { normalUpperQuantile } from './normal-distribution';
 const ref = checkValues().binomial_poisson_limits;
 
 describe('Clopper–Pearson interval', () => {
-  const published = ref.clopper_pearson['published_R_binom.test_outputs(as reproduced on a blog page, \'r binom test confidence interval\', Nov 13 2020)'];
+  const published =
+    ref.clopper_pearson[
+      "published_R_binom.test_outputs(as reproduced on a blog page, 'r binom test confidence interval', Nov 13 2020)"
+    ];
   it('x = 9, n = 24 at 95 % (R binom.test, 7 digits)', () => {
     const ci = clopperPearson(9, 24, 0.95);
     expectRelative(ci.lower, published['x=9,n=24,95%'][0], 5e-7);
@@ -41,7 +44,7 @@ describe('exact Poisson limits', () => {
     ['99%', 0.99]
   ])('x = 42 at %s (published to 2 decimals)', (key, level) => {
     const ci = poissonCountInterval(42, level);
-    const [lo, hi] = pub['x=42 (blog \'Poisson Confidence Intervals in R\')'][key];
+    const [lo, hi] = pub["x=42 (blog 'Poisson Confidence Intervals in R')"][key];
     expectAbsolute(ci.lower, lo, 0.005);
     expectAbsolute(ci.upper, hi, 0.005);
     const sc = ref.poisson_exact_chisq.computed_scipy['x=42'][key];
@@ -69,7 +72,11 @@ describe('counted studies', () => {
   it('zero defectives gives a finite z-level from the upper bound, never infinity', () => {
     const r = analyzeDefectives(300, 0);
     expect(Number.isFinite(r.zLevel)).toBe(true);
-    expectRelative(r.zLevel, normalUpperQuantile(ref.rule_of_three.computed['exact_binomial_upper_95%_one_sided']['n=300']), 1e-12);
+    expectRelative(
+      r.zLevel,
+      normalUpperQuantile(ref.rule_of_three.computed['exact_binomial_upper_95%_one_sided']['n=300']),
+      1e-12
+    );
     expect(r.assumptions.join(' ')).toMatch(/lower bound/);
   });
 

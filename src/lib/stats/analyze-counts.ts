@@ -8,13 +8,16 @@ export interface CountOptions {
 }
 
 function checkLevel(level: number): void {
-  if (!(level > 0 && level < 1)) throw new RangeError(`Confidence must lie strictly between 0 and 1, got ${level}`);
+  if (!(level > 0 && level < 1))
+    throw new RangeError(`Confidence must lie strictly between 0 and 1, got ${level}`);
 }
 
 function shift(result: CapabilityResult, options: CountOptions): CapabilityResult {
   if (options.shortTermShift !== undefined) {
     result.zLevelShortTerm = result.zLevel + options.shortTermShift;
-    result.assumptions.push(`short-term sigma level = z-level + ${options.shortTermShift} (shift convention), reported because it was asked for`);
+    result.assumptions.push(
+      `short-term sigma level = z-level + ${options.shortTermShift} (shift convention), reported because it was asked for`
+    );
   }
   return result;
 }
@@ -24,10 +27,17 @@ function shift(result: CapabilityResult, options: CountOptions): CapabilityResul
  * exact Clopper–Pearson interval. With no defective the z-level is the one at the one-sided upper bound of p
  * (≈ 3/n at 95 %, the rule of three), never infinite.
  */
-export function analyzeDefectives(units: number, defectives: number, options: CountOptions = {}): CapabilityResult {
-  if (!(Number.isInteger(units) && units >= 1)) throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
-  if (!(Number.isInteger(defectives) && defectives >= 0)) throw new RangeError(`Defectives must be a whole number ≥ 0, got ${defectives}`);
-  if (defectives > units) throw new RangeError(`Defectives (${defectives}) cannot exceed units inspected (${units})`);
+export function analyzeDefectives(
+  units: number,
+  defectives: number,
+  options: CountOptions = {}
+): CapabilityResult {
+  if (!(Number.isInteger(units) && units >= 1))
+    throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
+  if (!(Number.isInteger(defectives) && defectives >= 0))
+    throw new RangeError(`Defectives must be a whole number ≥ 0, got ${defectives}`);
+  if (defectives > units)
+    throw new RangeError(`Defectives (${defectives}) cannot exceed units inspected (${units})`);
   const level = options.confidence ?? 0.95;
   checkLevel(level);
   const p = defectives / units;
@@ -39,7 +49,9 @@ export function analyzeDefectives(units: number, defectives: number, options: Co
   const warnings: string[] = [];
   const zero = defectives === 0;
   if (zero) {
-    assumptions.push(`no defective seen: the z-level shown is the lower bound, from the one-sided upper bound p ≤ ${ci.upperBound.toPrecision(3)}`);
+    assumptions.push(
+      `no defective seen: the z-level shown is the lower bound, from the one-sided upper bound p ≤ ${ci.upperBound.toPrecision(3)}`
+    );
   }
   if (units < 100) warnings.push(`Only ${units} units inspected: the interval on the defective rate is wide`);
   const result: CapabilityResult = {
@@ -74,14 +86,24 @@ export function analyzeDefectives(units: number, defectives: number, options: Co
  * first-pass yield = e^(−DPU) (the Poisson chance of a unit with no defect), z-level = Q⁻¹(DPMO/10⁶). Interval
  * from the exact Poisson limits on D. With no defect the z-level comes from the one-sided upper bound.
  */
-export function analyzeDefects(units: number, defects: number, opportunitiesPerUnit = 1, options: CountOptions = {}): CapabilityResult {
-  if (!(Number.isInteger(units) && units >= 1)) throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
-  if (!(Number.isInteger(defects) && defects >= 0)) throw new RangeError(`Defects must be a whole number ≥ 0, got ${defects}`);
+export function analyzeDefects(
+  units: number,
+  defects: number,
+  opportunitiesPerUnit = 1,
+  options: CountOptions = {}
+): CapabilityResult {
+  if (!(Number.isInteger(units) && units >= 1))
+    throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
+  if (!(Number.isInteger(defects) && defects >= 0))
+    throw new RangeError(`Defects must be a whole number ≥ 0, got ${defects}`);
   if (!(Number.isInteger(opportunitiesPerUnit) && opportunitiesPerUnit >= 1)) {
     throw new RangeError(`Opportunities per unit must be a whole number ≥ 1, got ${opportunitiesPerUnit}`);
   }
   const opportunities = units * opportunitiesPerUnit;
-  if (defects > opportunities) throw new RangeError(`Defects (${defects}) cannot exceed the opportunities (${units} × ${opportunitiesPerUnit} = ${opportunities})`);
+  if (defects > opportunities)
+    throw new RangeError(
+      `Defects (${defects}) cannot exceed the opportunities (${units} × ${opportunitiesPerUnit} = ${opportunities})`
+    );
   const level = options.confidence ?? 0.95;
   checkLevel(level);
   const dpu = defects / units;
@@ -94,12 +116,17 @@ export function analyzeDefects(units: number, defects: number, opportunitiesPerU
     'first-pass yield e^(−DPU): the Poisson chance that a unit has no defect',
     `interval: exact Poisson limits on the defect count at ${Math.round(level * 1000) / 10} %`
   ];
-  if (zero) assumptions.push(`no defect seen: the z-level shown is the lower bound, from the one-sided upper bound DPMO ≤ ${(upperDpo * 1e6).toPrecision(3)}`);
+  if (zero)
+    assumptions.push(
+      `no defect seen: the z-level shown is the lower bound, from the one-sided upper bound DPMO ≤ ${(upperDpo * 1e6).toPrecision(3)}`
+    );
   const result: CapabilityResult = {
     kind: 'defects',
     n: units,
     dpu,
     dpmo: dpo * 1e6,
+    // For defect counts "ppm" is defects per million opportunities: the same figure as DPMO.
+    ppm: dpo * 1e6,
     ppmTotal: dpo * 1e6,
     yield: Math.exp(-dpu),
     zLevel: zero ? normalUpperQuantile(upperDpo) : normalUpperQuantile(dpo),
@@ -110,7 +137,12 @@ export function analyzeDefects(units: number, defects: number, opportunitiesPerU
     warnings: [],
     intervals: {
       dpu: { lower: ci.lower / units, upper: ci.upper / units, upperBound: ci.upperBound / units, level },
-      dpmo: { lower: (ci.lower / opportunities) * 1e6, upper: Math.min(1, ci.upper / opportunities) * 1e6, upperBound: upperDpo * 1e6, level },
+      dpmo: {
+        lower: (ci.lower / opportunities) * 1e6,
+        upper: Math.min(1, ci.upper / opportunities) * 1e6,
+        upperBound: upperDpo * 1e6,
+        level
+      },
       yield: { lower: Math.exp(-ci.upper / units), upper: Math.exp(-ci.lower / units), level },
       zLevel: {
         lower: normalUpperQuantile(Math.min(1, ci.upper / opportunities)),

@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { checkValues, expectAbsolute, expectRelative, furnaceThickness } from '../../../tests/support/reference-data';
+import {
+  checkValues,
+  expectAbsolute,
+  expectRelative,
+  furnaceThickness
+} from '../../../tests/support/reference-data';
 import { analyzeMeasured } from './analyze-measured';
 import { quantileType6, sortedCopy } from './quantiles';
 
@@ -69,7 +74,12 @@ describe('furnace case study (NIST/SEMATECH e-Handbook §3.5.1.2), published val
   it('answers "is Ppk ≥ 1.0 / ≥ 1.33 with 95 % confidence?" from the one-sided bound', () => {
     // Furnace data carry no subgroups, and their moving-range sigma is low (the order is by run): the rule
     // picks Cpk when it exists. Ask of Ppk via a summary-shaped question instead.
-    const yes = analyzeMeasured(furnaceThickness(), { spec, model: 'normal', requiredIndex: 1.0, estimator: 'moving-range' });
+    const yes = analyzeMeasured(furnaceThickness(), {
+      spec,
+      model: 'normal',
+      requiredIndex: 1.0,
+      estimator: 'moving-range'
+    });
     expect(yes.requirement?.index).toBe('cpk');
     expect(yes.requirement?.shown).toBe(true);
     const lowerPpk = r.intervals.ppk?.lowerBound as number;
@@ -91,8 +101,12 @@ describe('measured data guards and labels', () => {
 
   it('refuses fewer than two values, non-finite values and LSL ≥ USL', () => {
     expect(() => analyzeMeasured([1], { spec: { usl: 2 } })).toThrow(/At least 2 values/);
-    expect(() => analyzeMeasured([1, Number.NaN], { spec: { usl: 2 } })).toThrow(/Value 2 is not a finite number/);
-    expect(() => analyzeMeasured([1, 2], { spec: { lsl: 3, usl: 2 } })).toThrow(/LSL \(3\) must be less than USL \(2\)/);
+    expect(() => analyzeMeasured([1, Number.NaN], { spec: { usl: 2 } })).toThrow(
+      /Value 2 is not a finite number/
+    );
+    expect(() => analyzeMeasured([1, 2], { spec: { lsl: 3, usl: 2 } })).toThrow(
+      /LSL \(3\) must be less than USL \(2\)/
+    );
     expect(() => analyzeMeasured([1, 2], { spec: {} })).toThrow(/At least one specification limit/);
   });
 
@@ -104,7 +118,10 @@ describe('measured data guards and labels', () => {
   });
 
   it('warns about small samples (saying how wide), coarse resolution and physical bounds', () => {
-    const r = analyzeMeasured([-1, 2, 2, 3, 3, 3, 4, 4, 5, 2, 3, 4], { spec: { lsl: 0, usl: 7 }, physicalMin: 0 });
+    const r = analyzeMeasured([-1, 2, 2, 3, 3, 3, 4, 4, 5, 2, 3, 4], {
+      spec: { lsl: 0, usl: 7 },
+      physicalMin: 0
+    });
     const all = r.warnings.join(' | ');
     expect(all).toMatch(/Only 12 values: intervals are wide \(the 95 % interval for Ppk runs from/);
     expect(all).toMatch(/Only 5 distinct values/);
@@ -119,7 +136,12 @@ describe('measured data guards and labels', () => {
     expect(r.assumptions).toContain('normal model');
     expect(r.assumptions.join(' ')).toMatch(/R̄\/d2/);
     expect(r.zLevelShortTerm).toBeUndefined();
-    const shifted = analyzeMeasured(values, { spec: { lsl: 9, usl: 12 }, subgroups, model: 'normal', shortTermShift: 1.5 });
+    const shifted = analyzeMeasured(values, {
+      spec: { lsl: 9, usl: 12 },
+      subgroups,
+      model: 'normal',
+      shortTermShift: 1.5
+    });
     expectRelative(shifted.zLevelShortTerm, shifted.zLevel + 1.5, 1e-15);
     expect(shifted.assumptions.join(' ')).toMatch(/1\.5σ shift/);
   });

@@ -5,7 +5,7 @@ import { bissellInterval, clopperPearson, spreadIndexInterval } from './confiden
 import { mean as meanOf, sampleVariance } from './moments';
 import type { FittedModel, ModelName } from './models/fitted-model';
 import { fitModel, isRefusal, searchModels } from './model-search';
-import { normalQuantile, normalSf, normalUpperQuantile } from './normal-distribution';
+import { normalQuantile, normalUpperQuantile } from './normal-distribution';
 import { percentileIndices } from './percentile-method';
 import { quantileType6, sortedCopy } from './quantiles';
 import {
@@ -19,6 +19,7 @@ import {
 import { SIGMA_SHIFT } from './sigma-level';
 import { checkSpecification, type Specification } from './specification';
 import { individualsStability, subgroupStability, type StabilityResult } from './stability';
+import { fractionIntervals } from './fraction-bounds';
 import { modelTailFractions, normalTailFractions } from './tail-fractions';
 
 export type ModelChoice = 'auto' | 'quantile' | ModelName;
@@ -83,7 +84,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     if (!Number.isFinite(values[i] as number)) throw new RangeError(`Value ${i + 1} is not a finite number`);
   }
   const level = options.confidence ?? 0.95;
-  if (!(level > 0 && level < 1)) throw new RangeError(`Confidence must lie strictly between 0 and 1, got ${level}`);
+  if (!(level > 0 && level < 1))
+    throw new RangeError(`Confidence must lie strictly between 0 and 1, got ${level}`);
 
   const assumptions: string[] = [];
   const warnings: string[] = [];
@@ -100,19 +102,30 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
   const ppmObserved = (outside / n) * 1e6;
 
   if (options.physicalMin !== undefined && (sorted[0] as number) < options.physicalMin) {
-    warnings.push(`Some values lie below the physical minimum of ${options.physicalMin} declared for this characteristic: check the data`);
+    warnings.push(
+      `Some values lie below the physical minimum of ${options.physicalMin} declared for this characteristic: check the data`
+    );
   }
   if (options.physicalMax !== undefined && (sorted[n - 1] as number) > options.physicalMax) {
-    warnings.push(`Some values lie above the physical maximum of ${options.physicalMax} declared for this characteristic: check the data`);
+    warnings.push(
+      `Some values lie above the physical maximum of ${options.physicalMax} declared for this characteristic: check the data`
+    );
   }
   let distinct = 1;
   for (let i = 1; i < n; i += 1) if (sorted[i] !== sorted[i - 1]) distinct += 1;
 
   // Zero spread: no index, no model, only what was observed.
   if (!(sdOverall > 0)) {
-    warnings.push('All values are identical: the spread is zero, so no capability index or model tail can be computed');
+    warnings.push(
+      'All values are identical: the spread is zero, so no capability index or model tail can be computed'
+    );
     const ci = clopperPearson(outside, n, level);
-    intervals.ppmObserved = { lower: ci.lower * 1e6, upper: ci.upper * 1e6, upperBound: ci.upperBound * 1e6, level };
+    intervals.ppmObserved = {
+      lower: ci.lower * 1e6,
+      upper: ci.upper * 1e6,
+      upperBound: ci.upperBound * 1e6,
+      level
+    };
     const total = Math.max(outside / n, ci.upperBound);
     return {
       kind: 'measured',
@@ -135,7 +148,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
   // Within sigma.
   let groups: number[][] | undefined;
   if (options.subgroups) {
-    if (options.subgroups.length !== n) throw new RangeError(`${options.subgroups.length} subgroup ids for ${n} values`);
+    if (options.subgroups.length !== n)
+      throw new RangeError(`${options.subgroups.length} subgroup ids for ${n} values`);
     groups = groupBySubgroup(values, options.subgroups);
   } else if (options.subgroupSize !== undefined) {
     if (!(Number.isInteger(options.subgroupSize) && options.subgroupSize >= 2)) {
@@ -143,7 +157,9 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     }
     groups = consecutiveSubgroups(values, options.subgroupSize);
     if (groups.length * options.subgroupSize < n) {
-      warnings.push(`The last ${n - groups.length * options.subgroupSize} values do not fill a subgroup of ${options.subgroupSize} and are left out of the within sigma`);
+      warnings.push(
+        `The last ${n - groups.length * options.subgroupSize} values do not fill a subgroup of ${options.subgroupSize} and are left out of the within sigma`
+      );
     }
   }
   const estimator = options.estimator ?? defaultEstimator(groups);
@@ -151,10 +167,12 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
   try {
     sdWithin = withinSigma(estimator, values, groups);
   } catch (error) {
-    throw new RangeError((error as Error).message);
+    throw new RangeError((error as Error).message, { cause: error });
   }
   if (!(sdWithin > 0)) {
-    warnings.push('The within-subgroup spread is zero (repeated identical readings): Cp and Cpk are not computed');
+    warnings.push(
+      'The within-subgroup spread is zero (repeated identical readings): Cp and Cpk are not computed'
+    );
     sdWithin = undefined;
   } else {
     assumptions.push(SIGMA_ESTIMATOR_LABELS[estimator]);
@@ -166,16 +184,19 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
   if (n < 8) warnings.push(`Only ${n} values: the normality test has little power and its p-value is rough`);
   let stability: StabilityResult | undefined;
   try {
-    stability = groups && groups.filter((g) => g.length >= 2).length >= 3 && sdWithin
-      ? subgroupStability(groups, sdWithin)
-      : n >= 3
-        ? individualsStability(values)
-        : undefined;
+    stability =
+      groups && groups.filter((g) => g.length >= 2).length >= 3 && sdWithin
+        ? subgroupStability(groups, sdWithin)
+        : n >= 3
+          ? individualsStability(values)
+          : undefined;
   } catch {
     stability = undefined;
   }
   if (stability && !stability.stable) {
-    warnings.push(`Not shown to be stable — capability may not predict future output (${stability.description})`);
+    warnings.push(
+      `Not shown to be stable — capability may not predict future output (${stability.description})`
+    );
   }
 
   // Model choice.
@@ -196,7 +217,9 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
       model = search.best;
       modelName = model ? model.name : 'observed';
       if (model?.name !== 'normal' && normality) {
-        assumptions.push(`normality rejected (Anderson–Darling p = ${normality.p.toPrecision(2)}); models compared by A²`);
+        assumptions.push(
+          `normality rejected (Anderson–Darling p = ${normality.p.toPrecision(2)}); models compared by A²`
+        );
       }
     }
   } else {
@@ -206,7 +229,10 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     modelName = f.name;
     const search = searchModels(sorted, mu, sdOverall, [requested]);
     candidates = search.candidates;
-    if (!candidates[0]?.accepted) warnings.push(`The requested ${requested} model does not fit these data well (${candidates[0]?.note ?? ''})`);
+    if (!candidates[0]?.accepted)
+      warnings.push(
+        `The requested ${requested} model does not fit these data well (${candidates[0]?.note ?? ''})`
+      );
   }
   if (model?.name === 'normal') {
     modelName = 'normal';
@@ -239,50 +265,59 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
   if (modelName === 'normal') {
     const overall = indices(mu, sdOverall, spec);
     const tails = normalTailFractions(mu, sdOverall, spec);
-    Object.assign(result, defined({
-      cp: within.spread,
-      cpl: within.lower,
-      cpu: within.upper,
-      cpk: within.k,
-      pp: overall.spread,
-      ppl: overall.lower,
-      ppu: overall.upper,
-      ppk: overall.k,
-      cpm: cpmIndex(mu, sdOverall, spec),
-      ppmBelow: ppm(tails.below),
-      ppmAbove: ppm(tails.above),
-      ppmTotal: tails.total * 1e6,
-      yield: 1 - tails.total,
-      zLevel: tails.zLevel,
-      zMin: tails.zMin,
-      zLower: tails.zLower,
-      zUpper: tails.zUpper,
-      ppmTotalWithin: withinTails ? withinTails.total * 1e6 : undefined,
-      zLevelWithin: withinTails?.zLevel,
-      zMinWithin: withinTails?.zMin
-    }));
+    Object.assign(
+      result,
+      defined({
+        cp: within.spread,
+        cpl: within.lower,
+        cpu: within.upper,
+        cpk: within.k,
+        pp: overall.spread,
+        ppl: overall.lower,
+        ppu: overall.upper,
+        ppk: overall.k,
+        cpm: cpmIndex(mu, sdOverall, spec),
+        ppmBelow: ppm(tails.below),
+        ppmAbove: ppm(tails.above),
+        ppmTotal: tails.total * 1e6,
+        yield: 1 - tails.total,
+        zLevel: tails.zLevel,
+        zMin: tails.zMin,
+        zLower: tails.zLower,
+        zUpper: tails.zUpper,
+        ppmTotalWithin: withinTails ? withinTails.total * 1e6 : undefined,
+        zLevelWithin: withinTails?.zLevel,
+        zMinWithin: withinTails?.zMin
+      })
+    );
     result.modelLabel = `normal (mean ${mu.toPrecision(6)}, overall sd ${sdOverall.toPrecision(4)})`;
     result.method = `normal model; ${sdWithin !== undefined ? SIGMA_ESTIMATOR_LABELS[estimator] : 'no within sigma'}; overall sigma for Pp/Ppk, ppm, yield and z-level`;
     assumptions.unshift('normal model');
-    if (normality && normality.p < 0.05) warnings.push(`Normality is rejected (Anderson–Darling p = ${normality.p.toPrecision(2)}): the normal-model ppm may be far off in the tails`);
+    if (normality && normality.p < 0.05)
+      warnings.push(
+        `Normality is rejected (Anderson–Darling p = ${normality.p.toPrecision(2)}): the normal-model ppm may be far off in the tails`
+      );
     addNormalIntervals(result, n, level);
   } else if (model) {
     const tails = modelTailFractions(model.cdf, model.sf, spec);
     const pct = percentileIndices(model.quantile, spec);
-    Object.assign(result, defined({
-      pp: pct.pp,
-      ppl: pct.ppl,
-      ppu: pct.ppu,
-      ppk: pct.ppk,
-      ppmBelow: ppm(tails.below),
-      ppmAbove: ppm(tails.above),
-      ppmTotal: tails.total * 1e6,
-      yield: 1 - tails.total,
-      zLevel: tails.zLevel,
-      zMin: tails.zMin,
-      zLower: tails.zLower,
-      zUpper: tails.zUpper
-    }));
+    Object.assign(
+      result,
+      defined({
+        pp: pct.pp,
+        ppl: pct.ppl,
+        ppu: pct.ppu,
+        ppk: pct.ppk,
+        ppmBelow: ppm(tails.below),
+        ppmAbove: ppm(tails.above),
+        ppmTotal: tails.total * 1e6,
+        yield: 1 - tails.total,
+        zLevel: tails.zLevel,
+        zMin: tails.zMin,
+        zLower: tails.zLower,
+        zUpper: tails.zUpper
+      })
+    );
     if ((model.parameters.massAtZero ?? 0) > 1e-9) {
       warnings.push(
         `The Box-Cox model puts ${(model.parameters.massAtZero! * 100).toPrecision(2)} % of its mass at or below zero, where no value can lie: its lower tail is unreliable`
@@ -291,45 +326,77 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     result.modelLabel = model.label;
     result.method = `${model.label}; ppm from the model's tails; Pp/Ppk by the percentile method of ISO 22514-2`;
     assumptions.unshift(`non-normal model: ${model.label}`);
-    assumptions.push('Pp/Ppk from the model quantiles X0.00135, X0.5, X0.99865 (ISO 22514-2 percentile method)');
+    assumptions.push(
+      'Pp/Ppk from the model quantiles X0.00135, X0.5, X0.99865 (ISO 22514-2 percentile method)'
+    );
     assumptions.push('z-values are normal equivalents of the model tail fractions');
     assumptions.push('Cp/Cpk are not reported: within-sigma indices assume a normal model');
-    warnings.push('No confidence interval is given for model-based figures; judge them with the sample size in mind');
+    warnings.push(
+      'No confidence interval is given for model-based figures; judge them with the sample size in mind'
+    );
   } else {
     // Empirical: the percentile method on the data themselves, ppm as observed with an exact interval.
     const pct = percentileIndices((p) => quantileType6(sorted, p), spec);
     const ci = clopperPearson(outside, n, level);
     const upper = ci.upperBound;
-    Object.assign(result, defined({
-      pp: pct.pp,
-      ppl: pct.ppl,
-      ppu: pct.ppu,
-      ppk: pct.ppk,
-      ppmTotal: ppmObserved,
-      yield: 1 - outside / n,
-      zLevel: outside === 0 ? normalUpperQuantile(upper) : normalUpperQuantile(outside / n)
-    }));
+    Object.assign(
+      result,
+      defined({
+        pp: pct.pp,
+        ppl: pct.ppl,
+        ppu: pct.ppu,
+        ppk: pct.ppk,
+        ppmTotal: ppmObserved,
+        yield: 1 - outside / n,
+        zLevel: outside === 0 ? normalUpperQuantile(upper) : normalUpperQuantile(outside / n)
+      })
+    );
     intervals.ppmTotal = { lower: ci.lower * 1e6, upper: ci.upper * 1e6, upperBound: upper * 1e6, level };
-    intervals.zLevel = { lower: normalUpperQuantile(ci.upper), upper: outside === 0 ? Infinity : normalUpperQuantile(ci.lower), lowerBound: normalUpperQuantile(upper), level };
-    result.modelLabel = requested === 'quantile' ? 'empirical quantiles (no model)' : 'observed fraction (no model fits)';
-    result.method = 'observed fraction out of specification with a Clopper–Pearson interval; Pp/Ppk by the ISO 22514-2 percentile method on sample quantiles (p(n+1) rule)';
-    assumptions.unshift(requested === 'quantile' ? 'no distribution model: sample quantiles' : 'no candidate model fits: observed fraction used');
-    if (outside === 0) assumptions.push('no value outside the limits: the z-level is the lower confidence bound');
-    if (requested !== 'quantile') warnings.push('None of the candidate models fits these data: ppm is the observed fraction, with a wide interval');
-    if (n < 1000) warnings.push(`Sample quantiles X0.00135 and X0.99865 need far more than ${n} values to be estimated; these Pp/Ppk are rough`);
+    intervals.zLevel = {
+      lower: normalUpperQuantile(ci.upper),
+      upper: outside === 0 ? Infinity : normalUpperQuantile(ci.lower),
+      lowerBound: normalUpperQuantile(upper),
+      level
+    };
+    result.modelLabel =
+      requested === 'quantile' ? 'empirical quantiles (no model)' : 'observed fraction (no model fits)';
+    result.method =
+      'observed fraction out of specification with a Clopper–Pearson interval; Pp/Ppk by the ISO 22514-2 percentile method on sample quantiles (p(n+1) rule)';
+    assumptions.unshift(
+      requested === 'quantile'
+        ? 'no distribution model: sample quantiles'
+        : 'no candidate model fits: observed fraction used'
+    );
+    if (outside === 0)
+      assumptions.push('no value outside the limits: the z-level is the lower confidence bound');
+    if (requested !== 'quantile')
+      warnings.push(
+        'None of the candidate models fits these data: ppm is the observed fraction, with a wide interval'
+      );
+    if (n < 1000)
+      warnings.push(
+        `Sample quantiles X0.00135 and X0.99865 need far more than ${n} values to be estimated; these Pp/Ppk are rough`
+      );
   }
 
   if (n < SMALL_SAMPLE) {
     const width = result.intervals.ppk ?? result.intervals.cpk;
-    const spread = width && result.ppk ? ` (the ${Math.round(level * 100)} % interval for ${result.intervals.ppk ? 'Ppk' : 'Cpk'} runs from ${width.lower.toFixed(2)} to ${width.upper.toFixed(2)})` : '';
+    const spread =
+      width && result.ppk
+        ? ` (the ${Math.round(level * 100)} % interval for ${result.intervals.ppk ? 'Ppk' : 'Cpk'} runs from ${width.lower.toFixed(2)} to ${width.upper.toFixed(2)})`
+        : '';
     warnings.push(`Only ${n} values: intervals are wide${spread}; 30 or more are advised`);
   }
   if (distinct < Math.min(10, n)) {
-    warnings.push(`Only ${distinct} distinct values: the measurement resolution may be too coarse for these limits`);
+    warnings.push(
+      `Only ${distinct} distinct values: the measurement resolution may be too coarse for these limits`
+    );
   }
   if (options.shortTermShift !== undefined) {
     result.zLevelShortTerm = result.zLevel + options.shortTermShift;
-    assumptions.push(`short-term sigma level = z-level + ${options.shortTermShift} (the ${SIGMA_SHIFT}σ shift convention), reported because it was asked for`);
+    assumptions.push(
+      `short-term sigma level = z-level + ${options.shortTermShift} (the ${SIGMA_SHIFT}σ shift convention), reported because it was asked for`
+    );
   }
   if (options.requiredIndex !== undefined) addRequirement(result, options.requiredIndex, level);
   return result;
@@ -337,26 +404,19 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
 
 function addNormalIntervals(result: CapabilityResult, n: number, level: number): void {
   const iv = result.intervals;
+  const pp = result.pp !== undefined ? spreadIndexInterval(result.pp, n, level) : undefined;
   if (result.cp !== undefined) iv.cp = spreadIndexInterval(result.cp, n, level);
-  if (result.pp !== undefined) iv.pp = spreadIndexInterval(result.pp, n, level);
+  if (pp) iv.pp = pp;
   if (result.cpm !== undefined) iv.cpm = spreadIndexInterval(result.cpm, n, level);
   if (result.cpk !== undefined && result.cpk > 0) iv.cpk = bissellInterval(result.cpk, n, level);
-  if (result.ppk !== undefined && result.ppk > 0) iv.ppk = bissellInterval(result.ppk, n, level);
-  const ppkIv = iv.ppk;
-  if (ppkIv?.lowerBound !== undefined) {
-    iv.zMin = { lower: 3 * ppkIv.lower, upper: 3 * ppkIv.upper, lowerBound: 3 * ppkIv.lowerBound, level };
-    // Bound on the z-level: the fraction out of specification if the nearer limit sat at 3·Ppk_lower sd and
-    // the farther at 3·(2·Pp_lower − Ppk_lower) sd (two-sided), i.e. both indices at their lower bounds.
-    const near = 3 * ppkIv.lowerBound;
-    const ppIv = iv.pp;
-    const far = ppIv?.lowerBound !== undefined ? 3 * (2 * ppIv.lowerBound - ppkIv.lowerBound) : Infinity;
-    const worst = Math.min(1, normalSf(near) + normalSf(far));
-    iv.zLevel = { lower: normalUpperQuantile(worst), upper: result.zLevel, lowerBound: normalUpperQuantile(worst), level };
-    iv.ppmTotal = { lower: result.ppmTotal ?? 0, upper: worst * 1e6, upperBound: worst * 1e6, level };
-    result.assumptions.push(
-      'intervals: chi-square for Cp, Pp and Cpm, Bissell (1990) for Cpk and Ppk, n − 1 degrees of freedom; z-level and ppm bounds from the lower bounds of Pp and Ppk'
-    );
+  if (result.ppk !== undefined && result.ppk > 0) {
+    const ppk = bissellInterval(result.ppk, n, level);
+    iv.ppk = ppk;
+    Object.assign(iv, fractionIntervals(ppk, pp));
   }
+  result.assumptions.push(
+    'intervals: chi-square for Cp, Pp and Cpm, Bissell (1990) for Cpk and Ppk, n − 1 degrees of freedom; z-level and ppm intervals follow from those of Pp and Ppk (approximate)'
+  );
 }
 
 function addRequirement(result: CapabilityResult, threshold: number, level: number): void {
@@ -364,7 +424,9 @@ function addRequirement(result: CapabilityResult, threshold: number, level: numb
   const estimate = result[index];
   const bound = result.intervals[index]?.lowerBound;
   if (estimate === undefined || bound === undefined) {
-    result.warnings.push(`Whether ${index === 'cpk' ? 'Cpk' : 'Ppk'} ≥ ${threshold} cannot be shown: no interval exists for this model`);
+    result.warnings.push(
+      `Whether ${index === 'cpk' ? 'Cpk' : 'Ppk'} ≥ ${threshold} cannot be shown: no interval exists for this model`
+    );
     return;
   }
   result.requirement = { index, threshold, level, estimate, lowerBound: bound, shown: bound >= threshold };

@@ -1,7 +1,7 @@
 import { cpm as cpmIndex, indices } from './capability-indices';
 import type { CapabilityResult } from './capability-result';
-import { bissellInterval, spreadIndexInterval } from './confidence-bounds';
-import { normalSf, normalUpperQuantile } from './normal-distribution';
+import { bissellInterval, spreadIndexInterval, type IndexInterval } from './confidence-bounds';
+import { fractionIntervals } from './fraction-bounds';
 import { checkSpecification, type Specification } from './specification';
 import { normalTailFractions } from './tail-fractions';
 
@@ -20,9 +20,11 @@ export interface SummaryOptions {
 export function analyzeSummary(n: number, mu: number, sd: number, options: SummaryOptions): CapabilityResult {
   const spec = options.spec;
   checkSpecification(spec);
-  if (!(Number.isInteger(n) && n >= 2)) throw new RangeError(`n must be a whole number of at least 2, got ${n}`);
+  if (!(Number.isInteger(n) && n >= 2))
+    throw new RangeError(`n must be a whole number of at least 2, got ${n}`);
   if (!Number.isFinite(mu)) throw new RangeError('The mean must be a finite number');
-  if (!(Number.isFinite(sd) && sd >= 0)) throw new RangeError('The standard deviation must be a finite number ≥ 0');
+  if (!(Number.isFinite(sd) && sd >= 0))
+    throw new RangeError('The standard deviation must be a finite number ≥ 0');
   const level = options.confidence ?? 0.95;
   const assumptions = [
     'normal model',
@@ -51,7 +53,12 @@ export function analyzeSummary(n: number, mu: number, sd: number, options: Summa
   }
   const overall = indices(mu, sd, spec);
   const tails = normalTailFractions(mu, sd, spec);
-  const result: CapabilityResult = { ...base, yield: 1 - tails.total, zLevel: tails.zLevel, ppmTotal: tails.total * 1e6 };
+  const result: CapabilityResult = {
+    ...base,
+    yield: 1 - tails.total,
+    zLevel: tails.zLevel,
+    ppmTotal: tails.total * 1e6
+  };
   if (overall.spread !== undefined) result.pp = overall.spread;
   if (overall.lower !== undefined) result.ppl = overall.lower;
   if (overall.upper !== undefined) result.ppu = overall.upper;
@@ -66,21 +73,33 @@ export function analyzeSummary(n: number, mu: number, sd: number, options: Summa
   if (result.pp !== undefined) result.intervals.pp = spreadIndexInterval(result.pp, n, level);
   if (result.cpm !== undefined) result.intervals.cpm = spreadIndexInterval(result.cpm, n, level);
   if (result.ppk !== undefined && result.ppk > 0) {
-    const k = bissellInterval(result.ppk, n, level);
-    result.intervals.ppk = k;
-    result.intervals.zMin = { lower: 3 * k.lower, upper: 3 * k.upper, lowerBound: 3 * k.lowerBound, level };
-    const far = result.intervals.pp ? 3 * (2 * result.intervals.pp.lowerBound! - k.lowerBound) : Infinity;
-    const worst = Math.min(1, normalSf(3 * k.lowerBound) + normalSf(far));
-    result.intervals.zLevel = { lower: normalUpperQuantile(worst), upper: result.zLevel, lowerBound: normalUpperQuantile(worst), level };
+    result.intervals.ppk = bissellInterval(result.ppk, n, level);
+    Object.assign(
+      result.intervals,
+      fractionIntervals(
+        result.intervals.ppk as IndexInterval,
+        result.intervals.pp as IndexInterval | undefined
+      )
+    );
   }
-  if (n < 30) warnings.push(`Only ${n} values behind the summary: intervals are wide; 30 or more are advised`);
+  if (n < 30)
+    warnings.push(`Only ${n} values behind the summary: intervals are wide; 30 or more are advised`);
   if (options.shortTermShift !== undefined) {
     result.zLevelShortTerm = result.zLevel + options.shortTermShift;
-    assumptions.push(`short-term sigma level = z-level + ${options.shortTermShift} (shift convention), reported because it was asked for`);
+    assumptions.push(
+      `short-term sigma level = z-level + ${options.shortTermShift} (shift convention), reported because it was asked for`
+    );
   }
   if (options.requiredIndex !== undefined && result.ppk !== undefined && result.intervals.ppk) {
     const lb = result.intervals.ppk.lowerBound!;
-    result.requirement = { index: 'ppk', threshold: options.requiredIndex, level, estimate: result.ppk, lowerBound: lb, shown: lb >= options.requiredIndex };
+    result.requirement = {
+      index: 'ppk',
+      threshold: options.requiredIndex,
+      level,
+      estimate: result.ppk,
+      lowerBound: lb,
+      shown: lb >= options.requiredIndex
+    };
   }
   return result;
 }

@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { checkValues, expectAbsolute, expectRelative, furnaceThickness, nistCertified, nistValues } from '../../../tests/support/reference-data';
+import {
+  checkValues,
+  expectAbsolute,
+  expectRelative,
+  furnaceThickness,
+  nistCertified,
+  nistValues
+} from '../../../tests/support/reference-data';
 import { andersonDarlingNormal, andersonDarlingNormalP } from './anderson-darling';
 import { mean, sampleSd } from './moments';
 import { sortedCopy } from './quantiles';

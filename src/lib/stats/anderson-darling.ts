@@ -59,6 +59,7 @@ export function andersonDarlingNormal(sorted: ArrayLike<number>, mu: number, sd:
     ad,
     adAdjusted,
     p: andersonDarlingNormalP(adAdjusted),
-    variant: "A² with estimated mean and sd; p from A²·(1 + 0.75/n + 2.25/n²) by D'Agostino & Stephens (1986) Table 4.9"
+    variant:
+      "A² with estimated mean and sd; p from A²·(1 + 0.75/n + 2.25/n²) by D'Agostino & Stephens (1986) Table 4.9"
   };
 }

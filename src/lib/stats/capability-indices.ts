@@ -30,6 +30,7 @@ export function indices(mu: number, sigma: number, spec: Specification): IndexSe
 
 /** Cpm (Taguchi index) with the overall sigma; needs both limits and a target. */
 export function cpm(mu: number, sigma: number, spec: Specification): number | undefined {
-  if (spec.lsl === undefined || spec.usl === undefined || spec.target === undefined || !(sigma > 0)) return undefined;
+  if (spec.lsl === undefined || spec.usl === undefined || spec.target === undefined || !(sigma > 0))
+    return undefined;
   return (spec.usl - spec.lsl) / (6 * Math.sqrt(sigma * sigma + (mu - spec.target) ** 2));
 }

@@ -75,5 +75,12 @@ export interface CapabilityResult {
   /** Sorted values against normal scores (Blom), thinned to at most 400 points, for a probability plot. */
   probabilityPlot?: { value: number[]; normalScore: number[] };
   /** The answer to "is the ruling index at least T with the stated confidence?" when a threshold was given. */
-  requirement?: { index: 'cpk' | 'ppk'; threshold: number; level: number; estimate: number; lowerBound: number; shown: boolean };
+  requirement?: {
+    index: 'cpk' | 'ppk';
+    threshold: number;
+    level: number;
+    estimate: number;
+    lowerBound: number;
+    shown: boolean;
+  };
 }

@@ -11,7 +11,8 @@ export interface IndexInterval {
 }
 
 function checkLevel(level: number): void {
-  if (!(level > 0 && level < 1)) throw new RangeError(`confidence level must lie strictly between 0 and 1, got ${level}`);
+  if (!(level > 0 && level < 1))
+    throw new RangeError(`confidence level must lie strictly between 0 and 1, got ${level}`);
 }
 
 /**
@@ -25,7 +26,12 @@ export function spreadIndexInterval(index: number, n: number, level = 0.95): Ind
   const df = n - 1;
   const alpha = 1 - level;
   const q = (p: number) => Math.sqrt(jStat.chisquare.inv(p, df) / df);
-  return { lower: index * q(alpha / 2), upper: index * q(1 - alpha / 2), lowerBound: index * q(alpha), level };
+  return {
+    lower: index * q(alpha / 2),
+    upper: index * q(1 - alpha / 2),
+    lowerBound: index * q(alpha),
+    level
+  };
 }
 
 /**
@@ -38,7 +44,12 @@ export function bissellInterval(index: number, n: number, level = 0.95): IndexIn
   const se = Math.sqrt(1 / (9 * n * index * index) + 1 / (2 * (n - 1)));
   const zTwo = normalQuantile(1 - (1 - level) / 2);
   const zOne = normalQuantile(level);
-  return { lower: index * (1 - zTwo * se), upper: index * (1 + zTwo * se), lowerBound: index * (1 - zOne * se), level };
+  return {
+    lower: index * (1 - zTwo * se),
+    upper: index * (1 + zTwo * se),
+    lowerBound: index * (1 - zOne * se),
+    level
+  };
 }
 
 /** Two-sided and one-sided bounds on a proportion, and on a Poisson rate. */

@@ -5,12 +5,15 @@ import { c4, c4Exact, CONTROL_CHART_TABLE, d2, d2Exact } from './control-chart-c
 const constants = checkValues().control_chart_constants;
 
 describe('control-chart constants', () => {
-  it.each(Object.keys(CONTROL_CHART_TABLE).map(Number))('n = %i: table d2 and c4 agree with the exact forms to the last published digit', (n) => {
-    const row = CONTROL_CHART_TABLE[n]!;
-    // d2 has 3 decimals, c4 has 4: allow one unit in the last digit plus rounding (1.5 units).
-    expectAbsolute(row.d2, d2Exact(n), 1.5e-3, `d2(${n})`);
-    expectAbsolute(row.c4, c4Exact(n), 1.5e-4, `c4(${n})`);
-  });
+  it.each(Object.keys(CONTROL_CHART_TABLE).map(Number))(
+    'n = %i: table d2 and c4 agree with the exact forms to the last published digit',
+    (n) => {
+      const row = CONTROL_CHART_TABLE[n]!;
+      // d2 has 3 decimals, c4 has 4: allow one unit in the last digit plus rounding (1.5 units).
+      expectAbsolute(row.d2, d2Exact(n), 1.5e-3, `d2(${n})`);
+      expectAbsolute(row.c4, c4Exact(n), 1.5e-4, `c4(${n})`);
+    }
+  );
 
   it('the exact forms agree with scipy numeric integration (check-values.json control_chart_constants, 1e-9)', () => {
     for (let n = 2; n <= 25; n += 1) {

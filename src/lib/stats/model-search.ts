@@ -23,7 +23,15 @@ import { fitWeibull } from './models/weibull-fit';
  *   from memory (the gamma one depends a little on the shape; 0.752 is its large-shape value).
  * Candidates are ranked accepted first, then by A² (smaller fits better); ties keep the order listed here.
  */
-export const CANDIDATE_ORDER: ModelName[] = ['normal', 'lognormal', 'weibull', 'gamma', 'exponential', 'boxcox', 'johnson'];
+export const CANDIDATE_ORDER: ModelName[] = [
+  'normal',
+  'lognormal',
+  'weibull',
+  'gamma',
+  'exponential',
+  'boxcox',
+  'johnson'
+];
 
 export interface ModelSearchResult {
   candidates: ModelCandidate[];
@@ -35,7 +43,12 @@ export function isRefusal(f: FittedModel | FitRefusal): f is FitRefusal {
   return 'reason' in f;
 }
 
-export function fitModel(name: ModelName, sorted: Float64Array, mu: number, sd: number): FittedModel | FitRefusal {
+export function fitModel(
+  name: ModelName,
+  sorted: Float64Array,
+  mu: number,
+  sd: number
+): FittedModel | FitRefusal {
   switch (name) {
     case 'normal':
       return sd > 0 ? normalModel(mu, sd) : { name, reason: 'the values have no spread' };
@@ -73,7 +86,12 @@ function judge(model: FittedModel, sorted: Float64Array): ModelCandidate {
     case 'boxcox':
     case 'johnson': {
       const p = andersonDarlingNormalP(ad * (1 + 0.75 / n + 2.25 / (n * n)));
-      return { ...base, p, accepted: p >= 0.05, note: model.name === 'normal' ? NORMAL_NOTE : TRANSFORMED_NOTE };
+      return {
+        ...base,
+        p,
+        accepted: p >= 0.05,
+        note: model.name === 'normal' ? NORMAL_NOTE : TRANSFORMED_NOTE
+      };
     }
     case 'weibull':
       return {
@@ -88,7 +106,11 @@ function judge(model: FittedModel, sorted: Float64Array): ModelCandidate {
         note: 'accepted when A²·(1 + 0.6/n) < 1.321 (5 % point, quoted from memory)'
       };
     case 'gamma':
-      return { ...base, accepted: ad < 0.752, note: 'accepted when A² < 0.752 (approximate 5 % point, quoted from memory)' };
+      return {
+        ...base,
+        accepted: ad < 0.752,
+        note: 'accepted when A² < 0.752 (approximate 5 % point, quoted from memory)'
+      };
   }
 }
 
@@ -112,7 +134,10 @@ export function searchModels(
   }
   const order = (c: ModelCandidate) => CANDIDATE_ORDER.indexOf(c.model as ModelName);
   candidates.sort(
-    (a, b) => Number(b.accepted) - Number(a.accepted) || (a.ad ?? Infinity) - (b.ad ?? Infinity) || order(a) - order(b)
+    (a, b) =>
+      Number(b.accepted) - Number(a.accepted) ||
+      (a.ad ?? Infinity) - (b.ad ?? Infinity) ||
+      order(a) - order(b)
   );
   const top = candidates[0];
   const best = top?.accepted ? fitted.get(top.model as ModelName) : undefined;

@@ -37,22 +37,28 @@ function decompose(v: number): [bigint, number] {
 describe('mean and standard deviation against NIST StRD certified values', () => {
   const certified = nistCertified();
   // Source: NIST Statistical Reference Datasets, Univariate Summary Statistics (certified to 15 digits).
-  it.each(['PiDigits', 'Lottery', 'Lew', 'Mavro', 'Michelso', 'NumAcc1', 'NumAcc2'])('%s: mean and sd to 1e-13 relative', (name) => {
-    const values = nistValues(name);
-    const c = certified[name]!;
-    expect(values).toHaveLength(c.n);
-    expectRelative(mean(values), Number(c.certified.mean), 1e-13, 'mean');
-    expectRelative(sampleSd(values), Number(c.certified.sd), 1e-13, 'sd');
-  });
+  it.each(['PiDigits', 'Lottery', 'Lew', 'Mavro', 'Michelso', 'NumAcc1', 'NumAcc2'])(
+    '%s: mean and sd to 1e-13 relative',
+    (name) => {
+      const values = nistValues(name);
+      const c = certified[name]!;
+      expect(values).toHaveLength(c.n);
+      expectRelative(mean(values), Number(c.certified.mean), 1e-13, 'mean');
+      expectRelative(sampleSd(values), Number(c.certified.sd), 1e-13, 'sd');
+    }
+  );
 
-  it.each(['NumAcc3', 'NumAcc4'])('%s: mean to 1e-13, sd within 1e-8 of certified and 1e-12 of the exact sd of the stored doubles', (name) => {
-    const values = nistValues(name);
-    const c = certified[name]!;
-    expectRelative(mean(values), Number(c.certified.mean), 1e-13, 'mean');
-    const sd = sampleSd(values);
-    expectRelative(sd, Number(c.certified.sd), 1e-8, 'sd vs certified');
-    expectRelative(sd, exactSdOfDoubles(values), 1e-12, 'sd vs exact sd of the doubles');
-  });
+  it.each(['NumAcc3', 'NumAcc4'])(
+    '%s: mean to 1e-13, sd within 1e-8 of certified and 1e-12 of the exact sd of the stored doubles',
+    (name) => {
+      const values = nistValues(name);
+      const c = certified[name]!;
+      expectRelative(mean(values), Number(c.certified.mean), 1e-13, 'mean');
+      const sd = sampleSd(values);
+      expectRelative(sd, Number(c.certified.sd), 1e-8, 'sd vs certified');
+      expectRelative(sd, exactSdOfDoubles(values), 1e-12, 'sd vs exact sd of the doubles');
+    }
+  );
 
   it('the NumAcc4 check has teeth: the naive one-pass formula misses it by far more than the tolerance', () => {
     const values = nistValues('NumAcc4');

@@ -6,10 +6,16 @@ import { normalCdf, normalQuantile, normalSf, normalUpperQuantile } from './norm
 
 describe('standard normal tails', () => {
   // Source: tests/fixtures/check-values.json sigma_level_table.computed_scipy (scipy.stats.norm.sf, scipy 1.17).
-  const rows = checkValues().sigma_level_table.computed_scipy as { sigma_level: number; dpmo_no_shift_one_sided: number }[];
-  it.each(rows.map((r) => [r.sigma_level, r.dpmo_no_shift_one_sided]))('Q(%s)·10⁶ matches scipy to 1e-13 relative', (z, dpmo) => {
-    expectRelative(normalSf(z) * 1e6, dpmo, 1e-13);
-  });
+  const rows = checkValues().sigma_level_table.computed_scipy as {
+    sigma_level: number;
+    dpmo_no_shift_one_sided: number;
+  }[];
+  it.each(rows.map((r) => [r.sigma_level, r.dpmo_no_shift_one_sided]))(
+    'Q(%s)·10⁶ matches scipy to 1e-13 relative',
+    (z, dpmo) => {
+      expectRelative(normalSf(z) * 1e6, dpmo, 1e-13);
+    }
+  );
 
   it('keeps its precision in the far tail (no 1 − Φ)', () => {
     // scipy.stats.norm.sf values, quoted from memory of the scipy output and consistent with A&S 26.2.12.
@@ -30,8 +36,10 @@ describe('standard normal tails', () => {
   });
 
   it('agrees with jStat where jStat is itself precise (jStat.normal.cdf: |z| ≤ 3 to 1e-12, |z| ≤ 5 to 1e-9)', () => {
-    for (let z = -3; z <= 3; z += 0.25) expectRelative(normalCdf(z), jStat.normal.cdf(z, 0, 1), 1e-12, `z=${z}`);
-    for (let z = -5; z <= 5; z += 0.25) expectRelative(normalCdf(z), jStat.normal.cdf(z, 0, 1), 1e-9, `z=${z}`);
+    for (let z = -3; z <= 3; z += 0.25)
+      expectRelative(normalCdf(z), jStat.normal.cdf(z, 0, 1), 1e-12, `z=${z}`);
+    for (let z = -5; z <= 5; z += 0.25)
+      expectRelative(normalCdf(z), jStat.normal.cdf(z, 0, 1), 1e-9, `z=${z}`);
   });
 
   it('is continuous where the series hands over to the continued fraction (z = 3)', () => {

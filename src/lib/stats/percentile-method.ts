@@ -7,7 +7,10 @@ import type { Specification } from './specification';
  *   Ppl = (X₀.₅ − LSL)/(X₀.₅ − X₀.₀₀₁₃₅), Ppu = (USL − X₀.₅)/(X₀.₉₉₈₆₅ − X₀.₅), Ppk = min of those that exist.
  * For a normal model these equal the usual Pp, Ppl, Ppu.
  */
-export function percentileIndices(quantile: (p: number) => number, spec: Specification): { pp?: number; ppl?: number; ppu?: number; ppk?: number } {
+export function percentileIndices(
+  quantile: (p: number) => number,
+  spec: Specification
+): { pp?: number; ppl?: number; ppu?: number; ppk?: number } {
   const lo = quantile(0.00135);
   const med = quantile(0.5);
   const hi = quantile(0.99865);

@@ -59,7 +59,8 @@ export function sigmaFromRanges(groups: readonly number[][]): number {
 /** S̄/c4 over subgroups of size ≥ 2; with unequal sizes, the mean of sᵢ/c4(nᵢ). */
 export function sigmaFromSubgroupSds(groups: readonly number[][]): number {
   const usable = groups.filter((g) => g.length >= 2);
-  if (usable.length === 0) throw new RangeError('sigmaFromSubgroupSds requires a subgroup of at least two values');
+  if (usable.length === 0)
+    throw new RangeError('sigmaFromSubgroupSds requires a subgroup of at least two values');
   let sum = 0;
   for (const g of usable) sum += Math.sqrt(sampleVariance(g)) / c4(g.length);
   return sum / usable.length;
@@ -82,7 +83,8 @@ export function pooledSd(groups: readonly number[][]): number {
 export function meanMovingRange(values: ArrayLike<number>): number {
   if (values.length < 2) throw new RangeError('meanMovingRange requires at least two values');
   let sum = 0;
-  for (let i = 1; i < values.length; i += 1) sum += Math.abs((values[i] as number) - (values[i - 1] as number));
+  for (let i = 1; i < values.length; i += 1)
+    sum += Math.abs((values[i] as number) - (values[i - 1] as number));
   return sum / (values.length - 1);
 }
 
@@ -105,7 +107,11 @@ export function defaultEstimator(groups: readonly number[][] | undefined): Sigma
 }
 
 /** Estimates the within sigma with the chosen estimator. */
-export function withinSigma(estimator: SigmaEstimator, values: ArrayLike<number>, groups: readonly number[][] | undefined): number {
+export function withinSigma(
+  estimator: SigmaEstimator,
+  values: ArrayLike<number>,
+  groups: readonly number[][] | undefined
+): number {
   switch (estimator) {
     case 'moving-range':
       return sigmaFromMovingRange(values);
@@ -118,10 +124,12 @@ export function withinSigma(estimator: SigmaEstimator, values: ArrayLike<number>
   }
 }
 
-function requireGroups(groups: readonly number[][] | undefined, estimator: SigmaEstimator): readonly number[][] {
+function requireGroups(
+  groups: readonly number[][] | undefined,
+  estimator: SigmaEstimator
+): readonly number[][] {
   if (!groups || groups.length === 0) {
     throw new RangeError(`The ${estimator} estimator needs subgroups; give subgroup ids or a subgroup size`);
   }
   return groups;
 }
-

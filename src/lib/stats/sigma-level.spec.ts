@@ -2,7 +2,15 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkValues, expectAbsolute, expectRelative } from '../../../tests/support/reference-data';
 import { normalTailFractions } from './tail-fractions';
-import { combinedYield, longTermZ, ppmFromZ, rolledThroughputYield, shortTermLevel, zFromPpm, zFromYield } from './sigma-level';
+import {
+  combinedYield,
+  longTermZ,
+  ppmFromZ,
+  rolledThroughputYield,
+  shortTermLevel,
+  zFromPpm,
+  zFromYield
+} from './sigma-level';
 
 describe('ppm ↔ z-level ↔ yield', () => {
   it('the sigma-level table in common use (common practice; 6w2h.org and micquality.com tables)', () => {
@@ -28,9 +36,19 @@ describe('ppm ↔ z-level ↔ yield', () => {
       dpmo_no_shift_two_sided_centered: number;
     }[];
     for (const r of rows) {
-      expectRelative(ppmFromZ(r.sigma_level - 1.5), r['dpmo_shift1.5_one_sided'], 1e-12, `shifted ${r.sigma_level}`);
+      expectRelative(
+        ppmFromZ(r.sigma_level - 1.5),
+        r['dpmo_shift1.5_one_sided'],
+        1e-12,
+        `shifted ${r.sigma_level}`
+      );
       const centred = normalTailFractions(0, 1, { lsl: -r.sigma_level, usl: r.sigma_level });
-      expectRelative(centred.total * 1e6, r.dpmo_no_shift_two_sided_centered, 1e-12, `two-sided ${r.sigma_level}`);
+      expectRelative(
+        centred.total * 1e6,
+        r.dpmo_no_shift_two_sided_centered,
+        1e-12,
+        `two-sided ${r.sigma_level}`
+      );
     }
   });
 

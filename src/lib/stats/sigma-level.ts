@@ -26,7 +26,8 @@ export function ppmFromZ(z: number): number {
 
 /** z-level from a yield given as a fraction (0.9973 → 2.78). */
 export function zFromYield(yieldFraction: number): number {
-  if (!(yieldFraction >= 0 && yieldFraction <= 1)) throw new RangeError(`yield must lie between 0 and 1, got ${yieldFraction}`);
+  if (!(yieldFraction >= 0 && yieldFraction <= 1))
+    throw new RangeError(`yield must lie between 0 and 1, got ${yieldFraction}`);
   return normalUpperQuantile(1 - yieldFraction);
 }
 

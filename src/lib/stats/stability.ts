@@ -40,7 +40,14 @@ export interface StabilityResult {
 
 const MAX_LISTED = 50;
 
-function runRules(series: ArrayLike<number>, centre: number, lcl: number, ucl: number, signals: RuleSignal[], counts: StabilityResult['counts']): void {
+function runRules(
+  series: ArrayLike<number>,
+  centre: number,
+  lcl: number,
+  ucl: number,
+  signals: RuleSignal[],
+  counts: StabilityResult['counts']
+): void {
   let sideRun = 0;
   let lastSide = 0;
   let trendRun = 1;
@@ -72,7 +79,13 @@ function runRules(series: ArrayLike<number>, centre: number, lcl: number, ucl: n
   }
 }
 
-function spreadSignals(series: ArrayLike<number>, lcl: number, ucl: number, signals: RuleSignal[], counts: StabilityResult['counts']): void {
+function spreadSignals(
+  series: ArrayLike<number>,
+  lcl: number,
+  ucl: number,
+  signals: RuleSignal[],
+  counts: StabilityResult['counts']
+): void {
   for (let i = 0; i < series.length; i += 1) {
     const v = series[i] as number;
     if (v > ucl || v < lcl) {
@@ -108,7 +121,8 @@ export function individualsStability(values: ArrayLike<number>): StabilityResult
 /** X̄–R (subgroups up to 10) or X̄–S chart of subgroups in time order, with the within sigma given. */
 export function subgroupStability(groups: readonly number[][], sigmaWithin: number): StabilityResult {
   const usable = groups.filter((g) => g.length >= 2);
-  if (usable.length < 3) throw new RangeError('subgroupStability requires at least three subgroups of two or more values');
+  if (usable.length < 3)
+    throw new RangeError('subgroupStability requires at least three subgroups of two or more values');
   const size = Math.round(usable.reduce((a, g) => a + g.length, 0) / usable.length);
   const means = usable.map((g) => mean(g));
   const centre = mean(means);
@@ -124,7 +138,18 @@ export function subgroupStability(groups: readonly number[][], sigmaWithin: numb
     const lclR = Math.max(0, 1 - factor) * rBar;
     const uclR = (1 + factor) * rBar;
     spreadSignals(ranges, lclR, uclR, signals, counts);
-    return finish('xbar-r', centre, centre - half, centre + half, rBar, lclR, uclR, usable.length, signals, counts);
+    return finish(
+      'xbar-r',
+      centre,
+      centre - half,
+      centre + half,
+      rBar,
+      lclR,
+      uclR,
+      usable.length,
+      signals,
+      counts
+    );
   }
   const sds = usable.map((g) => Math.sqrt(sampleVariance(g)));
   const sBar = mean(sds);
@@ -133,7 +158,18 @@ export function subgroupStability(groups: readonly number[][], sigmaWithin: numb
   const lclS = Math.max(0, 1 - k) * sBar;
   const uclS = (1 + k) * sBar;
   spreadSignals(sds, lclS, uclS, signals, counts);
-  return finish('xbar-s', centre, centre - half, centre + half, sBar, lclS, uclS, usable.length, signals, counts);
+  return finish(
+    'xbar-s',
+    centre,
+    centre - half,
+    centre + half,
+    sBar,
+    lclS,
+    uclS,
+    usable.length,
+    signals,
+    counts
+  );
 }
 
 function finish(
@@ -149,10 +185,28 @@ function finish(
   counts: StabilityResult['counts']
 ): StabilityResult {
   const total = counts.rule1 + counts.rule2 + counts.rule3 + counts.spread;
-  const chartName = chart === 'individuals' ? 'individuals and moving-range chart' : chart === 'xbar-r' ? 'X̄ and R chart' : 'X̄ and S chart';
+  const chartName =
+    chart === 'individuals'
+      ? 'individuals and moving-range chart'
+      : chart === 'xbar-r'
+        ? 'X̄ and R chart'
+        : 'X̄ and S chart';
   const description =
     total === 0
       ? `No signal on the ${chartName} (${points} points; Nelson tests 1–3)`
       : `${total} signal${total === 1 ? '' : 's'} on the ${chartName}: ${counts.rule1} beyond 3σ, ${counts.rule2} runs of nine on one side, ${counts.rule3} trends of six, ${counts.spread} spread points beyond limits`;
-  return { chart, centre, lcl, ucl, spreadCentre, spreadLcl, spreadUcl, points, signals, counts, stable: total === 0, description };
+  return {
+    chart,
+    centre,
+    lcl,
+    ucl,
+    spreadCentre,
+    spreadLcl,
+    spreadUcl,
+    points,
+    signals,
+    counts,
+    stable: total === 0,
+    description
+  };
 }

@@ -36,7 +36,11 @@ export function normalTailFractions(mu: number, sigma: number, spec: Specificati
 }
 
 /** Fractions from any model given its CDF and survival function at the limits (non-normal models). */
-export function modelTailFractions(cdf: (x: number) => number, sf: (x: number) => number, spec: Specification): TailFractions {
+export function modelTailFractions(
+  cdf: (x: number) => number,
+  sf: (x: number) => number,
+  spec: Specification
+): TailFractions {
   const below = spec.lsl !== undefined ? cdf(spec.lsl) : undefined;
   const above = spec.usl !== undefined ? sf(spec.usl) : undefined;
   const total = Math.min(1, (below ?? 0) + (above ?? 0));

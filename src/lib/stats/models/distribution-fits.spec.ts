@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { checkValues, expectAbsolute, expectRelative, furnaceThickness, nistValues } from '../../../../tests/support/reference-data';
+import {
+  checkValues,
+  expectAbsolute,
+  expectRelative,
+  furnaceThickness,
+  nistValues
+} from '../../../../tests/support/reference-data';
 import { normalCdf } from '../normal-distribution';
 import { quantileType6, sortedCopy } from '../quantiles';
 import { boxCoxLambda, fitBoxCox } from './box-cox-fit';
@@ -25,10 +31,16 @@ function fitted(f: FittedModel | FitRefusal): FittedModel {
 const boxCoxRef = checkValues().box_cox.computed_scipy_boxcox_normmax;
 
 describe('Box-Cox λ by profile likelihood (scipy.stats.boxcox_normmax, method mle)', () => {
-  it('NIST StRD Lottery', () => expectAbsolute(boxCoxLambda(nistValues('Lottery')), boxCoxRef['Lottery(NIST StRD)'].mle, 1e-5));
-  it('furnace thickness', () => expectAbsolute(boxCoxLambda(furnaceThickness()), boxCoxRef['FURNACE thickness'].mle, 1e-5));
+  it('NIST StRD Lottery', () =>
+    expectAbsolute(boxCoxLambda(nistValues('Lottery')), boxCoxRef['Lottery(NIST StRD)'].mle, 1e-5));
+  it('furnace thickness', () =>
+    expectAbsolute(boxCoxLambda(furnaceThickness()), boxCoxRef['FURNACE thickness'].mle, 1e-5));
   it('Box & Cox (1964) yarn data, i.i.d. case', () =>
-    expectAbsolute(boxCoxLambda(checkValues().box_cox.yarn_Box_Cox_1964.data_cycles_to_failure), checkValues().box_cox.yarn_Box_Cox_1964.computed_numpy.iid_boxcox_normmax_mle, 1e-5));
+    expectAbsolute(
+      boxCoxLambda(checkValues().box_cox.yarn_Box_Cox_1964.data_cycles_to_failure),
+      checkValues().box_cox.yarn_Box_Cox_1964.computed_numpy.iid_boxcox_normmax_mle,
+      1e-5
+    ));
   it('refuses non-positive values', () => expect(fitBoxCox([1, 0, 2])).toHaveProperty('reason'));
   it('gives a model whose quantile inverts its CDF, and reports the mass it puts at x ≤ 0', () => {
     const m = fitted(fitBoxCox(nistValues('Lottery')));
@@ -47,16 +59,19 @@ describe('Johnson system by the Slifker–Shapiro quantile-ratio rule', () => {
     ['bounded S_B', z.map((v) => 1 / (1 + Math.exp(-(v + 0.3) / 1.4))), 'S_B'],
     ['lognormal-like', z.map((v) => 2 + Math.exp(0.6 * v)), '']
   ];
-  it.each(cases)('%s: the fitted model maps the four chosen sample quantiles back to ±z, ±3z', (_label, data, system) => {
-    const sorted = sortedCopy(data);
-    const m = fitted(fitJohnson(sorted));
-    if (system) expect(m.label).toContain(system);
-    for (const k of [-3, -1, 1, 3]) {
-      const p = normalCdf(k * JOHNSON_Z);
-      expectAbsolute(m.cdf(quantileType6(sorted, p)), p, 1e-9, `k=${k}`);
+  it.each(cases)(
+    '%s: the fitted model maps the four chosen sample quantiles back to ±z, ±3z',
+    (_label, data, system) => {
+      const sorted = sortedCopy(data);
+      const m = fitted(fitJohnson(sorted));
+      if (system) expect(m.label).toContain(system);
+      for (const k of [-3, -1, 1, 3]) {
+        const p = normalCdf(k * JOHNSON_Z);
+        expectAbsolute(m.cdf(quantileType6(sorted, p)), p, 1e-9, `k=${k}`);
+      }
+      for (const p of [0.01, 0.5, 0.99]) expectRelative(m.cdf(m.quantile(p)), p, 1e-9);
     }
-    for (const p of [0.01, 0.5, 0.99]) expectRelative(m.cdf(m.quantile(p)), p, 1e-9);
-  });
+  );
 
   it('recovers the generating S_U parameters from a large sample (within 10 %)', () => {
     const data = normals(20000, 7).map((v) => 5 + 2 * Math.sinh((v - 0.5) / 1.25)); // γ 0.5, η 1.25, ε 5, λ 2
@@ -85,7 +100,7 @@ describe('maximum-likelihood fits recover known parameters from large samples', 
     const m = fitted(fitWeibull(data));
     expectRelative(m.parameters.shape, 2, 0.03);
     expectRelative(m.parameters.scale, 3, 0.03);
-    const k = m.parameters.shape;
+    const k = m.parameters.shape as number;
     let a = 0;
     let b = 0;
     let l = 0;
@@ -99,7 +114,10 @@ describe('maximum-likelihood fits recover known parameters from large samples', 
 
   it('gamma: shape 3 and scale 2 from a sum of exponentials (within 4 %)', () => {
     const u = normals(60000, 5).map((v) => normalCdf(v));
-    const data = Array.from({ length: 20000 }, (_, i) => -2 * (Math.log(u[3 * i]!) + Math.log(u[3 * i + 1]!) + Math.log(u[3 * i + 2]!)));
+    const data = Array.from(
+      { length: 20000 },
+      (_, i) => -2 * (Math.log(u[3 * i]!) + Math.log(u[3 * i + 1]!) + Math.log(u[3 * i + 2]!))
+    );
     const m = fitted(fitGamma(data));
     expectRelative(m.parameters.shape, 3, 0.04);
     expectRelative(m.parameters.scale, 2, 0.04);

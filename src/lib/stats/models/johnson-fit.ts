@@ -21,7 +21,8 @@ export function fitJohnson(sorted: ArrayLike<number>, z: number = JOHNSON_Z): Fi
   const m = x3 - x1;
   const n = xm1 - xm3;
   const p = x1 - xm1;
-  if (!(m > 0 && n > 0 && p > 0)) return { name: 'johnson', reason: 'the sample quantiles do not spread (too few distinct values)' };
+  if (!(m > 0 && n > 0 && p > 0))
+    return { name: 'johnson', reason: 'the sample quantiles do not spread (too few distinct values)' };
   const mp = m / p;
   const np = n / p;
   const d = (m * n) / (p * p);

@@ -49,7 +49,8 @@ export function fitWeibull(values: ArrayLike<number>): FittedModel | FitRefusal 
       break;
     }
   }
-  if (!converged || !Number.isFinite(k)) return { name: 'weibull', reason: 'the likelihood equation did not converge' };
+  if (!converged || !Number.isFinite(k))
+    return { name: 'weibull', reason: 'the likelihood equation did not converge' };
   let a = 0;
   for (let i = 0; i < n; i += 1) a += Math.exp(k * (logs[i] as number));
   const scale = max * (a / n) ** (1 / k);

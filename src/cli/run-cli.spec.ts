@@ -1,0 +1,181 @@
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { checkValues, expectAbsolute, furnaceThickness } from '../../tests/support/reference-data';
+import { runCli } from './run-cli';
+
+const dir = mkdtempSync(join(tmpdir(), 'capstan-cli-'));
+function file(name: string, text: string): string {
+  const path = join(dir, name);
+  writeFileSync(path, text);
+  return path;
+}
+
+async function run(...argv: string[]) {
+  let out = '';
+  let err = '';
+  const code = await runCli(argv, { stdout: (t) => (out += `${t}\n`), stderr: (t) => (err += `${t}\n`) });
+  return { code, out, err };
+}
+
+const furnaceCsv = file('furnace.csv', `thickness\n${furnaceThickness().join('\n')}\n`);
+const pub = checkValues().furnace_case_study.published;
+
+describe('capstan analyze', () => {
+  it('prints the figures as JSON with the documented keys (furnace case study, NIST e-Handbook)', async () => {
+    const r = await run(
+      'analyze',
+      furnaceCsv,
+      '--lsl',
+      '460',
+      '--usl',
+      '660',
+      '--target',
+      '560',
+      '--model',
+      'normal',
+      '--json'
+    );
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    for (const key of [
+      'n',
+      'mean',
+      'sdWithin',
+      'sdOverall',
+      'cp',
+      'cpk',
+      'pp',
+      'ppk',
+      'cpm',
+      'ppmBelow',
+      'ppmAbove',
+      'ppmTotal',
+      'ppmObserved',
+      'yield',
+      'zLevel',
+      'model',
+      'assumptions',
+      'warnings',
+      'intervals',
+      'normality',
+      'stability'
+    ]) {
+      expect(j, key).toHaveProperty(key);
+    }
+    expectAbsolute(j.pp, pub.CP, 5e-6);
+    expectAbsolute(j.intervals.ppk.lower, pub.CPK_95ci[0], 5e-6);
+    expect(j.normality).toHaveProperty('ad');
+    expect(j.normality).toHaveProperty('p');
+    expect(j).not.toHaveProperty('probabilityPlot');
+  });
+
+  it('reads semicolons and decimal commas, with subgroups from a column', async () => {
+    const rows = Array.from(
+      { length: 30 },
+      (_, i) => `${Math.floor(i / 5) + 1};${(10 + ((i * 37) % 11) / 100).toFixed(2).replace('.', ',')}`
+    );
+    const path = file('eu.csv', `Gruppe;Durchmesser\n${rows.join('\n')}\n`);
+    const r = await run(
+      'analyze',
+      path,
+      '--lsl',
+      '9.9',
+      '--usl',
+      '10.2',
+      '--subgroup-column',
+      'Gruppe',
+      '--column',
+      'Durchmesser',
+      '--json'
+    );
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(j.n).toBe(30);
+    expect(j.sigmaEstimator).toBe('rbar');
+    expect(j.mean).toBeGreaterThan(10);
+    expect(j.mean).toBeLessThan(10.11);
+  });
+
+  it('has a readable table by default, with the assumptions', async () => {
+    const r = await run('analyze', furnaceCsv, '--lsl', '460', '--usl', '660', '--min-index', '1.33');
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/Ppk\s+1\.27327/);
+    expect(r.out).toMatch(/assumptions:/);
+    expect(r.out).toMatch(/with 95 % confidence/);
+  });
+
+  it.each([
+    [['analyze', join(dir, 'missing.csv'), '--lsl', '1'], /Cannot read '.*missing\.csv'/],
+    [
+      ['analyze', furnaceCsv, '--lsl', '700', '--usl', '600'],
+      /--lsl \(700\) must be less than --usl \(600\)/
+    ],
+    [['analyze', furnaceCsv], /at least one limit/],
+    [
+      ['analyze', file('bad.csv', 'value\n1.5\n2.5\nabc\n'), '--usl', '3'],
+      /Line 4, column 1 \('value'\): 'abc' is not a number/
+    ],
+    [['analyze', file('one.csv', 'value\n1.5\n'), '--usl', '3'], /holds 1 value; at least 2/],
+    [['analyze', furnaceCsv, '--usl', '700', '--model', 'magic'], /--model must be one of/],
+    [['analyze', furnaceCsv, '--usl', '700', '--colour', 'red'], /has no option --colour/],
+    [
+      ['counts', '--units', '10', '--defects', '50', '--opportunities', '4'],
+      /Defects \(50\) cannot exceed the opportunities \(10 × 4 = 40\)/
+    ],
+    [['counts', '--units', '10', '--defectives', '11'], /cannot exceed units inspected/],
+    [['counts', '--units', '10'], /either --defectives D or --defects D/],
+    [['convert', '--ppm', '5', '--z', '3'], /exactly one of/],
+    [['convert', '--yield', '150'], /fraction \(0\.9973\) or a percent/],
+    [['explode'], /Unknown command 'explode'/]
+  ])('bad input %j: exit 2 with one clear line on stderr', async (argv, message) => {
+    const r = await run(...(argv as string[]));
+    expect(r.code).toBe(2);
+    expect(r.err.trim().split('\n')).toHaveLength(1);
+    expect(r.err).toMatch(message as RegExp);
+    expect(r.out).toBe('');
+  });
+});
+
+describe('capstan counts and convert', () => {
+  it('counts defectives with the Clopper–Pearson interval (R binom.test x = 9, n = 24)', async () => {
+    const j = JSON.parse((await run('counts', '--units', '24', '--defectives', '9', '--json')).out);
+    expect(j.p).toBe(0.375);
+    expectAbsolute(j.intervals.p.lower, 0.1879929, 5e-8);
+    expectAbsolute(j.intervals.p.upper, 0.5940636, 5e-8);
+    for (const key of ['p', 'ppm', 'yield', 'zLevel', 'intervals']) expect(j).toHaveProperty(key);
+  });
+
+  it('counts defects per opportunity', async () => {
+    const j = JSON.parse(
+      (await run('counts', '--units', '1000', '--defects', '6', '--opportunities', '3', '--json')).out
+    );
+    expect(j.dpu).toBe(0.006);
+    expect(j.dpmo).toBe(2000);
+    for (const key of ['dpu', 'dpmo', 'ppm', 'yield', 'zLevel', 'intervals']) expect(j).toHaveProperty(key);
+  });
+
+  it('converts with and without the shift (common practice: 3.4 ppm ↔ 4.5 ↔ 6.0)', async () => {
+    const a = JSON.parse((await run('convert', '--ppm', '3.4', '--shift', '1.5', '--json')).out);
+    expectAbsolute(a.zLevel, 4.5, 5e-4);
+    expectAbsolute(a.zLevelShortTerm, 6, 5e-4);
+    const b = JSON.parse((await run('convert', '--z', '6', '--shift', '1.5', '--json')).out);
+    expectAbsolute(b.ppm, 3.4, 0.005);
+    const c = JSON.parse((await run('convert', '--yield', '99.73%', '--json')).out);
+    expectAbsolute(c.zLevel, 2.78, 0.005);
+  });
+
+  it('runs as `npm run -s cli` in a real process with its exit codes', () => {
+    const ok = execFileSync('npm', ['run', '-s', 'cli', '--', 'convert', '--ppm', '66807', '--json'], {
+      encoding: 'utf8'
+    });
+    expectAbsolute(JSON.parse(ok).zLevel, 1.5, 1e-5);
+    const bad = spawnSync('npm', ['run', '-s', 'cli', '--', 'counts', '--units', 'x', '--defects', '1'], {
+      encoding: 'utf8'
+    });
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/--units must be a number, got 'x'/);
+  });
+});

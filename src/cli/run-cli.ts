@@ -1,0 +1,48 @@
+import { CsvInputError } from '../lib/exchange/measurement-csv';
+import { analyzeCommand } from './analyze-command';
+import { UsageError } from './cli-arguments';
+import type { CliIo } from './cli-io';
+import { convertCommand } from './convert-command';
+import { countsCommand } from './counts-command';
+
+export const USAGE = `Capstan command line — capability figures with their assumptions
+
+  analyze FILE.csv --lsl L --usl U [--target T] [--subgroup-size K | --subgroup-column NAME]
+          [--estimator rbar|sbar|pooled|moving-range]
+          [--model auto|normal|lognormal|weibull|gamma|exponential|boxcox|johnson|quantile]
+          [--confidence 0.95] [--column NAME] [--delimiter ,|;|tab] [--decimal .|,]
+          [--shift 1.5] [--min-index 1.33] [--json]
+  counts  --units N (--defectives D | --defects D [--opportunities O]) [--confidence 0.95] [--shift 1.5] [--json]
+  convert (--ppm X | --yield Y | --z Z) [--shift 1.5] [--json]
+
+Exit 0 on success; 2 on bad input, with one line on stderr saying what and where.`;
+
+/** Runs one command; returns the exit code. Bad input never throws out of here. */
+export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
+  const [command, ...rest] = argv;
+  try {
+    switch (command) {
+      case 'analyze':
+        return await analyzeCommand(rest, io);
+      case 'counts':
+        return countsCommand(rest, io);
+      case 'convert':
+        return convertCommand(rest, io);
+      case undefined:
+      case 'help':
+      case '--help':
+        io.stdout(USAGE);
+        return command === undefined ? 2 : 0;
+      default:
+        throw new UsageError(
+          `Unknown command '${command}'; use analyze, counts or convert (help lists them)`
+        );
+    }
+  } catch (error) {
+    if (error instanceof UsageError || error instanceof CsvInputError || error instanceof RangeError) {
+      io.stderr(`capstan ${command ?? ''}: ${error.message}`.replace(/\s+:/, ':'));
+      return 2;
+    }
+    throw error;
+  }
+}

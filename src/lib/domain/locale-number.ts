@@ -1,0 +1,39 @@
+/**
+ * Reads a number as people type it in many locales: decimal point or decimal comma, optional thousands
+ * separators (space, narrow no-break space, apostrophe, or the other of . and ,), a leading sign, and an
+ * exponent. Returns undefined for text that is not a number (empty cells included), never NaN.
+ *
+ * With `decimal: 'auto'` a lone separator decides: `1,5` and `1.5` are 1.5; with both, the last one is the
+ * decimal mark (`1.234,5` and `1,234.5` are 1234.5). A single group of exactly three digits after one comma
+ * (`1,234`) is ambiguous and read as the decimal comma only when `decimal` is ','.
+ */
+export type DecimalMark = '.' | ',' | 'auto';
+
+const GROUPING = /[\s\u00a0\u202f']/g;
+
+export function parseLocaleNumber(text: string, decimal: DecimalMark = 'auto'): number | undefined {
+  let s = text
+    .trim()
+    .replace(/^\+/, '')
+    .replace(/\u2212/g, '-');
+  if (s === '') return undefined;
+  s = s.replace(GROUPING, '');
+  const lastDot = s.lastIndexOf('.');
+  const lastComma = s.lastIndexOf(',');
+  let mark: '.' | ',';
+  if (decimal !== 'auto') mark = decimal;
+  else if (lastDot >= 0 && lastComma >= 0) mark = lastDot > lastComma ? '.' : ',';
+  else if (lastComma >= 0) mark = /^-?\d{1,3}(,\d{3})+$/.test(s) ? '.' : ',';
+  else mark = '.';
+  const group = mark === '.' ? ',' : '.';
+  if (s.includes(group)) {
+    // Grouping separators must sit between groups of three digits before the decimal mark.
+    const intPart = s.split(mark)[0] ?? '';
+    if (!new RegExp(`^-?\\d{1,3}(\\${group}\\d{3})+$`).test(intPart)) return undefined;
+    s = s.split(group).join('');
+  }
+  if (mark === ',') s = s.replace(',', '.');
+  if (!/^-?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(s)) return undefined;
+  const v = Number(s);
+  return Number.isFinite(v) ? v : undefined;
+}
