@@ -188,7 +188,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
       groups && groups.filter((g) => g.length >= 2).length >= 3 && sdWithin
         ? subgroupStability(groups, sdWithin)
         : n >= 3
-          ? individualsStability(values)
+          ? individualsStability(values, mu)
           : undefined;
   } catch {
     stability = undefined;

@@ -1,5 +1,11 @@
 import jStat from 'jstat';
+import { gammaQuantile } from './incomplete-gamma';
 import { normalQuantile } from './normal-distribution';
+
+/** Chi-square quantile χ²_{p, df} = 2·Γ⁻¹(p; df/2): our incomplete gamma, which stays fast for the large df of big studies. */
+export function chiSquareQuantile(p: number, df: number): number {
+  return 2 * gammaQuantile(p, df / 2, 1);
+}
 
 /** A two-sided interval and the one-sided lower bound at the same confidence level. */
 export interface IndexInterval {
@@ -25,7 +31,7 @@ export function spreadIndexInterval(index: number, n: number, level = 0.95): Ind
   checkLevel(level);
   const df = n - 1;
   const alpha = 1 - level;
-  const q = (p: number) => Math.sqrt(jStat.chisquare.inv(p, df) / df);
+  const q = (p: number) => Math.sqrt(chiSquareQuantile(p, df) / df);
   return {
     lower: index * q(alpha / 2),
     upper: index * q(1 - alpha / 2),
@@ -83,8 +89,8 @@ export function clopperPearson(x: number, n: number, level = 0.95): ProportionIn
 export function poissonCountInterval(x: number, level = 0.95): ProportionInterval {
   checkLevel(level);
   const alpha = 1 - level;
-  const lower = x === 0 ? 0 : jStat.chisquare.inv(alpha / 2, 2 * x) / 2;
-  const upper = jStat.chisquare.inv(1 - alpha / 2, 2 * x + 2) / 2;
-  const upperBound = x === 0 ? -Math.log(alpha) : jStat.chisquare.inv(level, 2 * x + 2) / 2;
+  const lower = x === 0 ? 0 : chiSquareQuantile(alpha / 2, 2 * x) / 2;
+  const upper = chiSquareQuantile(1 - alpha / 2, 2 * x + 2) / 2;
+  const upperBound = x === 0 ? -Math.log(alpha) : chiSquareQuantile(level, 2 * x + 2) / 2;
   return { lower, upper, upperBound, level };
 }

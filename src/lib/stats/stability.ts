@@ -96,16 +96,12 @@ function spreadSignals(
 }
 
 /** Individuals and moving-range chart of values in time order. Needs at least 3 values. */
-export function individualsStability(values: ArrayLike<number>): StabilityResult {
+export function individualsStability(values: ArrayLike<number>, knownMean?: number): StabilityResult {
   const n = values.length;
   if (n < 3) throw new RangeError('individualsStability requires at least three values');
-  const centre = mean(values);
-  const ranges = new Float64Array(n - 1);
+  const centre = knownMean ?? mean(values);
   let sum = 0;
-  for (let i = 1; i < n; i += 1) {
-    ranges[i - 1] = Math.abs((values[i] as number) - (values[i - 1] as number));
-    sum += ranges[i - 1] as number;
-  }
+  for (let i = 1; i < n; i += 1) sum += Math.abs((values[i] as number) - (values[i - 1] as number));
   const mrBar = sum / (n - 1);
   const sigma = mrBar / d2(2);
   const signals: RuleSignal[] = [];
@@ -114,7 +110,13 @@ export function individualsStability(values: ArrayLike<number>): StabilityResult
   const ucl = centre + 3 * sigma;
   runRules(values, centre, lcl, ucl, signals, counts);
   const spreadUcl = 3.267 * mrBar;
-  spreadSignals(ranges, 0, spreadUcl, signals, counts);
+  // Moving ranges recomputed rather than stored: a million-value study should not need another array.
+  for (let i = 1; i < n; i += 1) {
+    if (Math.abs((values[i] as number) - (values[i - 1] as number)) > spreadUcl) {
+      counts.spread += 1;
+      if (signals.length < MAX_LISTED) signals.push({ rule: 1, chart: 'spread', index: i - 1 });
+    }
+  }
   return finish('individuals', centre, lcl, ucl, mrBar, 0, spreadUcl, n, signals, counts);
 }
 

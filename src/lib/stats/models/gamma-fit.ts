@@ -1,11 +1,11 @@
-import jStat from 'jstat';
+import { gammaQuantile, regularizedGamma } from '../incomplete-gamma';
 import { digamma, trigamma } from '../special-functions';
 import { formatParameter, type FitRefusal, type FittedModel } from './fitted-model';
 
 /**
  * Two-parameter gamma by maximum likelihood. With s = ln(mean) − mean(ln x), the shape k solves
  * ln k − ψ(k) = s; start k₀ = (3 − s + √((s − 3)² + 24s))/(12s) (Minka 2002, "Estimating a Gamma
- * distribution"), then Newton steps; scale θ = mean/k. Tail probabilities from jStat's regularised gamma.
+ * distribution"), then Newton steps; scale θ = mean/k. Both tails computed directly (incomplete-gamma.ts).
  */
 export function fitGamma(values: ArrayLike<number>): FittedModel | FitRefusal {
   const n = values.length;
@@ -31,13 +31,12 @@ export function fitGamma(values: ArrayLike<number>): FittedModel | FitRefusal {
     k = next;
   }
   const theta = m / k;
-  const cdf = (x: number) => (x <= 0 ? 0 : jStat.gamma.cdf(x, k, theta));
   return {
     name: 'gamma',
     label: `gamma (shape ${formatParameter(k)}, scale ${formatParameter(theta)})`,
     parameters: { shape: k, scale: theta },
-    cdf,
-    sf: (x) => 1 - cdf(x),
-    quantile: (p) => jStat.gamma.inv(p, k, theta)
+    cdf: (x) => (x <= 0 ? 0 : regularizedGamma(k, x / theta).p),
+    sf: (x) => (x <= 0 ? 1 : regularizedGamma(k, x / theta).q),
+    quantile: (p) => gammaQuantile(p, k, theta)
   };
 }

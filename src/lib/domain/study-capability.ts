@@ -1,0 +1,47 @@
+import { analyzeDefectives, analyzeDefects } from '../stats/analyze-counts';
+import { analyzeMeasured, type ModelChoice } from '../stats/analyze-measured';
+import { analyzeSummary } from '../stats/analyze-summary';
+import type { CapabilityResult } from '../stats/capability-result';
+import type { Characteristic } from './characteristic';
+import type { StudyFields } from './study';
+
+export interface StudyCapabilityOptions {
+  model?: ModelChoice;
+  confidence?: number;
+}
+
+/**
+ * The capability figures of one stored study, with the characteristic's limits, target and physical bounds.
+ * One code path for the app, the worker and the command line. Throws RangeError when the data cannot support
+ * an analysis (e.g. a measured characteristic without limits, fewer than two values).
+ */
+export function capabilityOfStudy(
+  study: Pick<StudyFields, 'data'>,
+  characteristic: Pick<Characteristic, 'lsl' | 'usl' | 'target' | 'physicalMin' | 'physicalMax' | 'dataKind'>,
+  options: StudyCapabilityOptions = {}
+): CapabilityResult {
+  const spec = {
+    ...(characteristic.lsl !== undefined ? { lsl: characteristic.lsl } : {}),
+    ...(characteristic.usl !== undefined ? { usl: characteristic.usl } : {}),
+    ...(characteristic.target !== undefined ? { target: characteristic.target } : {})
+  };
+  const confidence = options.confidence !== undefined ? { confidence: options.confidence } : {};
+  const data = study.data;
+  switch (data.kind) {
+    case 'raw':
+      return analyzeMeasured(data.values, {
+        spec,
+        ...(data.subgroups ? { subgroups: data.subgroups } : {}),
+        ...(options.model ? { model: options.model } : {}),
+        ...(characteristic.physicalMin !== undefined ? { physicalMin: characteristic.physicalMin } : {}),
+        ...(characteristic.physicalMax !== undefined ? { physicalMax: characteristic.physicalMax } : {}),
+        ...confidence
+      });
+    case 'summary':
+      return analyzeSummary(data.n, data.mean, data.sd, { spec, ...confidence });
+    case 'defectives':
+      return analyzeDefectives(data.units, data.defectives, confidence);
+    case 'defects':
+      return analyzeDefects(data.units, data.defects, data.opportunitiesPerUnit, confidence);
+  }
+}
