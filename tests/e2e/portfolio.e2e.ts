@@ -34,7 +34,9 @@ test('loads the demo portfolio and lists every process; a click opens its proces
   for (const c of demo.records.characteristics.filter((x) => x.processId === target.id)) {
     await expect(page.getByRole('heading', { name: `${c.name}: monthly studies` })).toBeVisible();
     // The latest month's figures come with their assumptions and the caution.
-    const figures = page.getByRole('region', { name: new RegExp(`Capability figures: ${c.name}, latest month`) });
+    const figures = page.getByRole('region', {
+      name: new RegExp(`Capability figures: ${c.name}, latest month`)
+    });
     await expect(figures).toContainText('z-level (one-tail equivalent)');
     await expect(figures.getByRole('heading', { name: 'Assumptions' })).toBeVisible();
     await expect(figures).toContainText('qualified people prevail');
