@@ -24,6 +24,9 @@ const layer = (files, forbidden, why) => ({
   }
 });
 
+/** The browser-side frameworks: only UI code and pages may import them. */
+const FRAMEWORKS = ['svelte', 'svelte/*', 'echarts', 'echarts/*', '$app/*'];
+
 export default ts.config(
   {
     ignores: [
@@ -63,45 +66,22 @@ export default ts.config(
   },
   layer(
     ['src/lib/stats/**'],
-    [
-      '$lib/*',
-      '../domain/*',
-      '../storage/*',
-      '../exchange/*',
-      '../ui/*',
-      'svelte',
-      'svelte/*',
-      'dexie',
-      'echarts',
-      'echarts/*',
-      '$app/*'
-    ],
+    ['$lib/*', '../domain/*', '../storage/*', '../exchange/*', '../ui/*', 'dexie', ...FRAMEWORKS],
     'stats is pure numeric code: no domain, storage, UI, Svelte, Dexie or ECharts'
   ),
   layer(
     ['src/lib/domain/**'],
-    [
-      '$lib/*',
-      '../storage/*',
-      '../exchange/*',
-      '../ui/*',
-      'svelte',
-      'svelte/*',
-      'dexie',
-      'echarts',
-      'echarts/*',
-      '$app/*'
-    ],
+    ['$lib/*', '../storage/*', '../exchange/*', '../ui/*', 'dexie', ...FRAMEWORKS],
     'domain is pure: it may use stats, never storage, exchange or UI'
   ),
   layer(
     ['src/lib/storage/**'],
-    ['$lib/*', '../ui/*', '../exchange/*', 'svelte', 'svelte/*', 'echarts', 'echarts/*', '$app/*'],
+    ['$lib/*', '../ui/*', '../exchange/*', ...FRAMEWORKS],
     'storage may use domain and stats, never UI or exchange'
   ),
   layer(
     ['src/lib/exchange/**'],
-    ['$lib/*', '../ui/*', 'svelte', 'svelte/*', 'dexie', 'echarts', 'echarts/*', '$app/*'],
+    ['$lib/*', '../ui/*', 'dexie', ...FRAMEWORKS],
     'exchange may use domain, storage types and stats, never UI or Dexie directly'
   ),
   layer(
@@ -116,7 +96,7 @@ export default ts.config(
   ),
   layer(
     ['src/cli/**'],
-    ['$lib/*', '../lib/ui/*', 'svelte', 'svelte/*', 'dexie', 'echarts', 'echarts/*'],
+    ['$lib/*', '../lib/ui/*', 'dexie', ...FRAMEWORKS],
     'the command line runs in Node on stats, domain and exchange'
   )
 );

@@ -12,6 +12,7 @@ import { fileURLToPath } from 'node:url';
 import { gzipSync } from 'node:zlib';
 import { chromium } from 'playwright-core';
 import { spawn } from 'node:child_process';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from './support/chromium.mjs';
 
 const FIRST_PAGE_BUDGET = 150 * 1024;
 const PRECACHE_BUDGET = 3 * 1024 * 1024;
@@ -47,18 +48,7 @@ const url = await new Promise((resolve, reject) => {
   server.on('exit', (code) => reject(new Error(`static server exited with ${code}`)));
 });
 
-const browser = await chromium.launch({
-  executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-  args: [
-    '--no-sandbox',
-    '--disable-gpu',
-    '--disable-quic',
-    '--no-first-run',
-    '--disable-background-networking',
-    '--disable-component-update',
-    '--disable-sync'
-  ]
-});
+const browser = await chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS });
 const scripts = new Set();
 let failures = 0;
 try {

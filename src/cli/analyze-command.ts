@@ -1,6 +1,7 @@
 import { readFile } from 'node:fs/promises';
 import { readMeasurementCsv } from '../lib/exchange/measurement-csv';
 import { analyzeMeasured, type ModelChoice } from '../lib/stats/analyze-measured';
+import { CANDIDATE_ORDER } from '../lib/stats/model-search';
 import type { SigmaEstimator } from '../lib/stats/sigma-estimators';
 import {
   integerFlag,
@@ -13,17 +14,7 @@ import {
 import { toJson, toTable } from './figure-report';
 import type { CliIo } from './cli-io';
 
-const MODELS: ModelChoice[] = [
-  'auto',
-  'normal',
-  'lognormal',
-  'weibull',
-  'gamma',
-  'exponential',
-  'boxcox',
-  'johnson',
-  'quantile'
-];
+const MODELS: ModelChoice[] = ['auto', ...CANDIDATE_ORDER, 'quantile'];
 const ESTIMATORS: SigmaEstimator[] = ['rbar', 'sbar', 'pooled', 'moving-range'];
 const KNOWN = [
   'lsl',

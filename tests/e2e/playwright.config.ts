@@ -1,18 +1,10 @@
 import { defineConfig } from '@playwright/test';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../support/chromium.mjs';
 
 /**
  * End-to-end tests on the built app (`build/`), in Debian's Chromium: Playwright's own browser download
  * cannot run on these machines. Each test gets a fresh browser context, so a fresh IndexedDB.
  */
-export const CHROMIUM_ARGS = [
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync'
-];
 
 export default defineConfig({
   testDir: '.',
@@ -26,7 +18,7 @@ export default defineConfig({
   reporter: [['list'], ['json', { outputFile: './.output/results.json' }]],
   use: {
     browserName: 'chromium',
-    launchOptions: { executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: CHROMIUM_ARGS },
+    launchOptions: { executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS },
     trace: 'off',
     screenshot: 'only-on-failure'
   }

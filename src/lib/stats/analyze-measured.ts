@@ -20,7 +20,7 @@ import { SIGMA_SHIFT } from './sigma-level';
 import { checkSpecification, type Specification } from './specification';
 import { individualsStability, subgroupStability, type StabilityResult } from './stability';
 import { fractionIntervals } from './fraction-bounds';
-import { modelTailFractions, normalTailFractions } from './tail-fractions';
+import { modelTailFractions, normalTailFractions, type TailFractions } from './tail-fractions';
 
 export type ModelChoice = 'auto' | 'quantile' | ModelName;
 
@@ -46,6 +46,20 @@ const SMALL_SAMPLE = 30;
 
 function ppm(fraction: number | undefined): number | undefined {
   return fraction === undefined ? undefined : fraction * 1e6;
+}
+
+/** The tail figures every model reports, in the result's key names. */
+function tailFigures(tails: TailFractions) {
+  return {
+    ppmBelow: ppm(tails.below),
+    ppmAbove: ppm(tails.above),
+    ppmTotal: tails.total * 1e6,
+    yield: 1 - tails.total,
+    zLevel: tails.zLevel,
+    zMin: tails.zMin,
+    zLower: tails.zLower,
+    zUpper: tails.zUpper
+  };
 }
 
 function defined<T extends object>(o: T): T {
@@ -277,14 +291,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
         ppu: overall.upper,
         ppk: overall.k,
         cpm: cpmIndex(mu, sdOverall, spec),
-        ppmBelow: ppm(tails.below),
-        ppmAbove: ppm(tails.above),
-        ppmTotal: tails.total * 1e6,
-        yield: 1 - tails.total,
-        zLevel: tails.zLevel,
-        zMin: tails.zMin,
-        zLower: tails.zLower,
-        zUpper: tails.zUpper,
+        ...tailFigures(tails),
         ppmTotalWithin: withinTails ? withinTails.total * 1e6 : undefined,
         zLevelWithin: withinTails?.zLevel,
         zMinWithin: withinTails?.zMin
@@ -308,14 +315,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
         ppl: pct.ppl,
         ppu: pct.ppu,
         ppk: pct.ppk,
-        ppmBelow: ppm(tails.below),
-        ppmAbove: ppm(tails.above),
-        ppmTotal: tails.total * 1e6,
-        yield: 1 - tails.total,
-        zLevel: tails.zLevel,
-        zMin: tails.zMin,
-        zLower: tails.zLower,
-        zUpper: tails.zUpper
+        ...tailFigures(tails)
       })
     );
     if ((model.parameters.massAtZero ?? 0) > 1e-9) {

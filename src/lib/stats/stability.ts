@@ -133,41 +133,34 @@ export function subgroupStability(groups: readonly number[][], sigmaWithin: numb
   const counts = { rule1: 0, rule2: 0, rule3: 0, spread: 0 };
   runRules(means, centre, centre - half, centre + half, signals, counts);
   const d3n = d3(size);
+  let chart: ChartKind;
+  let spread: number[];
+  let factorLow: number;
+  let factorHigh: number;
   if (size <= 10 && d3n !== undefined) {
-    const ranges = usable.map((g) => Math.max(...g) - Math.min(...g));
-    const rBar = mean(ranges);
+    chart = 'xbar-r';
+    spread = usable.map((g) => Math.max(...g) - Math.min(...g));
     const factor = (3 * d3n) / d2(size);
-    const lclR = Math.max(0, 1 - factor) * rBar;
-    const uclR = (1 + factor) * rBar;
-    spreadSignals(ranges, lclR, uclR, signals, counts);
-    return finish(
-      'xbar-r',
-      centre,
-      centre - half,
-      centre + half,
-      rBar,
-      lclR,
-      uclR,
-      usable.length,
-      signals,
-      counts
-    );
+    factorLow = Math.max(0, 1 - factor);
+    factorHigh = 1 + factor;
+  } else {
+    chart = 'xbar-s';
+    spread = usable.map((g) => Math.sqrt(sampleVariance(g)));
+    const c = c4(size);
+    const k = (3 * Math.sqrt(1 - c * c)) / c;
+    factorLow = Math.max(0, 1 - k);
+    factorHigh = 1 + k;
   }
-  const sds = usable.map((g) => Math.sqrt(sampleVariance(g)));
-  const sBar = mean(sds);
-  const c = c4(size);
-  const k = (3 * Math.sqrt(1 - c * c)) / c;
-  const lclS = Math.max(0, 1 - k) * sBar;
-  const uclS = (1 + k) * sBar;
-  spreadSignals(sds, lclS, uclS, signals, counts);
+  const spreadBar = mean(spread);
+  spreadSignals(spread, factorLow * spreadBar, factorHigh * spreadBar, signals, counts);
   return finish(
-    'xbar-s',
+    chart,
     centre,
     centre - half,
     centre + half,
-    sBar,
-    lclS,
-    uclS,
+    spreadBar,
+    factorLow * spreadBar,
+    factorHigh * spreadBar,
     usable.length,
     signals,
     counts

@@ -24,14 +24,24 @@ export function normalTailFractions(mu: number, sigma: number, spec: Specificati
   const zUpper = spec.usl !== undefined ? (spec.usl - mu) / sigma : undefined;
   const below = zLower !== undefined ? normalCdf(-zLower) : undefined;
   const above = zUpper !== undefined ? normalSf(zUpper) : undefined;
-  const total = (below ?? 0) + (above ?? 0);
+  return assemble(below, above, zLower, zUpper);
+}
+
+/** Puts the parts together: total, zMin over the limits that exist, and the one-tail z-level. */
+function assemble(
+  below: number | undefined,
+  above: number | undefined,
+  zLower: number | undefined,
+  zUpper: number | undefined
+): TailFractions {
+  const total = Math.min(1, (below ?? 0) + (above ?? 0));
   const zs = [zLower, zUpper].filter((v): v is number => v !== undefined);
   return {
     ...(below !== undefined ? { below, zLower } : {}),
     ...(above !== undefined ? { above, zUpper } : {}),
     total,
     ...(zs.length ? { zMin: Math.min(...zs) } : {}),
-    zLevel: normalUpperQuantile(Math.min(1, total))
+    zLevel: normalUpperQuantile(total)
   };
 }
 
@@ -43,15 +53,7 @@ export function modelTailFractions(
 ): TailFractions {
   const below = spec.lsl !== undefined ? cdf(spec.lsl) : undefined;
   const above = spec.usl !== undefined ? sf(spec.usl) : undefined;
-  const total = Math.min(1, (below ?? 0) + (above ?? 0));
   const zLower = below !== undefined ? normalUpperQuantile(below) : undefined;
   const zUpper = above !== undefined ? normalUpperQuantile(above) : undefined;
-  const zs = [zLower, zUpper].filter((v): v is number => v !== undefined);
-  return {
-    ...(below !== undefined ? { below, zLower } : {}),
-    ...(above !== undefined ? { above, zUpper } : {}),
-    total,
-    ...(zs.length ? { zMin: Math.min(...zs) } : {}),
-    zLevel: normalUpperQuantile(total)
-  };
+  return assemble(below, above, zLower, zUpper);
 }
