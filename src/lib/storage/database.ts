@@ -12,6 +12,24 @@ export interface DeviceSetting {
   value: unknown;
 }
 
+/** What an entry form held when last typed into; device-local, never exported. */
+export interface EntryDraft {
+  /** `characteristicId|period` */
+  key: string;
+  form: unknown;
+  updatedAt: string;
+}
+
+/** A study as it was before a replace or combine, kept for restoring. Device-local. */
+export interface StudyRevision {
+  id: string;
+  studyId: string;
+  savedAt: string;
+  /** Why it was kept: the change that followed it. */
+  reason: 'replaced' | 'combined' | 'restored';
+  study: Study;
+}
+
 export const DEFAULT_DATABASE_NAME = 'capstan';
 
 /**
@@ -26,6 +44,8 @@ export class CapstanDatabase extends Dexie {
   studies!: Table<Study, string>;
   projects!: Table<ImprovementProject, string>;
   deviceSettings!: Table<DeviceSetting, string>;
+  entryDrafts!: Table<EntryDraft, string>;
+  studyRevisions!: Table<StudyRevision, string>;
 
   constructor(name: string = DEFAULT_DATABASE_NAME, options?: DexieOptions) {
     super(name, options);

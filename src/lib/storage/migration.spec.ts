@@ -2,7 +2,7 @@ import 'fake-indexeddb/auto';
 import { Dexie } from 'dexie';
 import { describe, expect, it } from 'vitest';
 import { CapstanDatabase } from './database';
-import { SCHEMA_V1 } from './schema-versions';
+import { SCHEMA_V1, SCHEMA_V2 } from './schema-versions';
 
 /**
  * Opens a database as schema v1 shipped it, fills it with v1-shaped records, then reopens it with the
@@ -78,7 +78,7 @@ describe('schema upgrade v1 → v2', () => {
 
     const current = new CapstanDatabase(name);
     await current.open();
-    expect(current.verno).toBe(2);
+    expect(current.verno).toBe(3);
     expect(await current.sites.toArray()).toEqual([site]);
     expect(await current.processes.toArray()).toEqual([process]);
     const upgraded = await current.characteristics.orderBy('id').toArray();
@@ -92,6 +92,38 @@ describe('schema upgrade v1 → v2', () => {
       .toArray();
     expect(march.map((s) => s.id).sort()).toEqual([studies[2]!.id, studies[14]!.id, studies[26]!.id].sort());
     expect((await current.deviceSettings.get('deviceId'))?.value).toBe('dev-v1');
+    current.close();
+    await Dexie.delete(name);
+  });
+});
+
+describe('schema upgrade v2 → v3', () => {
+  it('adds the draft and revision tables and leaves every record as it was', async () => {
+    const name = 'capstan-migration-v3';
+    const v2 = new Dexie(name);
+    v2.version(1).stores(SCHEMA_V1);
+    v2.version(2).stores(SCHEMA_V2);
+    await v2.open();
+    const study = {
+      id: '77777777-7777-4777-8777-777777777777',
+      createdAt: '2026-01-05T00:00:00.000Z',
+      updatedAt: '2026-01-05T00:00:00.000Z',
+      rev: 4,
+      deviceId: 'dev-v2',
+      characteristicId: '33333333-3333-4333-8333-333333333333',
+      period: '2025-12',
+      data: { kind: 'summary', n: 30, mean: 1, sd: 0.1 },
+      enteredBy: 'v2 user'
+    };
+    await v2.table('studies').add(study);
+    v2.close();
+    const current = new CapstanDatabase(name);
+    await current.open();
+    expect(current.verno).toBe(3);
+    expect(await current.studies.toArray()).toEqual([study]);
+    expect(await current.entryDrafts.count()).toBe(0);
+    await current.studyRevisions.add({ id: 'r1', studyId: study.id, savedAt: '2026-02-01T00:00:00.000Z', reason: 'replaced', study: study as never });
+    expect(await current.studyRevisions.where('studyId').equals(study.id).count()).toBe(1);
     current.close();
     await Dexie.delete(name);
   });

@@ -36,10 +36,21 @@ export async function upgradeToV2(tx: Transaction): Promise<void> {
     });
 }
 
-export const CURRENT_SCHEMA_VERSION = 2;
+/**
+ * v3: two device-local tables for monthly logging. `entryDrafts` keeps what is being typed into an entry form
+ * (keyed by characteristic and month) so that a closed tab loses nothing; `studyRevisions` keeps the earlier
+ * version of a study each time it is replaced or combined, so that the person can restore it. No data change.
+ */
+export const SCHEMA_V3 = {
+  entryDrafts: 'key, updatedAt',
+  studyRevisions: 'id, studyId, savedAt'
+} as const;
+
+export const CURRENT_SCHEMA_VERSION = 3;
 
 /** Declares all versions on a database instance, in order. */
 export function declareSchemaVersions(db: Dexie): void {
   db.version(1).stores(SCHEMA_V1);
   db.version(2).stores(SCHEMA_V2).upgrade(upgradeToV2);
+  db.version(3).stores(SCHEMA_V3);
 }

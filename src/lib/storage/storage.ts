@@ -5,6 +5,7 @@ import type { Process } from '../domain/process';
 import { createCharacteristicRepository } from './characteristic-repository';
 import { CapstanDatabase, DEFAULT_DATABASE_NAME } from './database';
 import { loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
+import { EntryDraftRepository } from './entry-draft-repository';
 import { createImprovementProjectRepository } from './improvement-project-repository';
 import { createProcessRepository } from './process-repository';
 import type { RecordRepository } from './record-repository';
@@ -31,6 +32,7 @@ export interface CapstanStorage {
   readonly characteristics: RecordRepository<Characteristic>;
   readonly studies: StudyRepository;
   readonly projects: RecordRepository<ImprovementProject>;
+  readonly drafts: EntryDraftRepository;
   /** Read models for the pages; each is safe to run inside a live query. */
   readonly read: {
     processOverviews(): Promise<ProcessOverview[]>;
@@ -63,6 +65,7 @@ export async function openStorage(
     characteristics: createCharacteristicRepository(db, ctx),
     studies: new StudyRepository(db, ctx),
     projects: createImprovementProjectRepository(db, ctx),
+    drafts: new EntryDraftRepository(db),
     read: {
       processOverviews: () => listProcessOverviews(db),
       processDetail: (processId) => loadProcessDetail(db, processId),

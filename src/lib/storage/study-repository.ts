@@ -1,9 +1,30 @@
 import type { Characteristic } from '../domain/characteristic';
-import { isLive, type WriteContext } from '../domain/record-meta';
-import { assertStudyFitsCharacteristic, parseStudyFields, type Study } from '../domain/study';
+import { combineStudyData } from '../domain/combine-study-data';
+import { isLive, stampNew, stampRestored, stampUpdate, type Editable, type WriteContext } from '../domain/record-meta';
+import { assertStudyFitsCharacteristic, parseStudyFields, type Study, type StudyFields } from '../domain/study';
 import { ValidationError } from '../domain/validation-error';
-import type { CapstanDatabase } from './database';
-import { RecordRepository, requireLive } from './record-repository';
+import type { CapstanDatabase, StudyRevision } from './database';
+import { RecordNotFoundError, RecordRepository, requireLive } from './record-repository';
+
+/** What to do when the month already has a study: refuse, replace it, or combine the two. */
+export type LogMode = 'new' | 'replace' | 'combine';
+
+export interface LogOutcome {
+  study: Study;
+  /** The study as it was before, when one was replaced or combined (also kept as a revision). */
+  previous?: Study;
+  action: 'created' | 'replaced' | 'combined';
+}
+
+function editable(fields: StudyFields): Editable<Study> {
+  return {
+    characteristicId: fields.characteristicId,
+    period: fields.period,
+    data: fields.data,
+    enteredBy: fields.enteredBy,
+    ...(fields.note !== undefined ? { note: fields.note } : {})
+  };
+}
 
 /**
  * Studies. One live study per characteristic and month: a second one for the same month is refused here,
@@ -28,7 +49,7 @@ export class StudyRepository extends RecordRepository<Study> {
         const sameMonth = await d.studies
           .where('[characteristicId+period]')
           .equals([fields.characteristicId, fields.period])
-          .filter((s) => isLive(s) && s.id !== existingId)
+          .filter((study) => isLive(study) && study.id !== existingId)
           .first();
         if (sameMonth) {
           throw new ValidationError('Study', [
@@ -39,6 +60,95 @@ export class StudyRepository extends RecordRepository<Study> {
           ]);
         }
       }
+    });
+  }
+
+  private async liveForMonth(characteristicId: string, period: string, exceptId?: string): Promise<Study | undefined> {
+    return this.db.studies
+      .where('[characteristicId+period]')
+      .equals([characteristicId, period])
+      .filter((s) => isLive(s) && s.id !== exceptId)
+      .first();
+  }
+
+  /** The live study of one characteristic and month, if any. */
+  async findForMonth(characteristicId: string, period: string): Promise<Study | undefined> {
+    return this.liveForMonth(characteristicId, period);
+  }
+
+  /**
+   * Logs studies, each for its characteristic and month, in one transaction: every input is validated first,
+   * and a refusal of any of them writes nothing. A month that already has a study is replaced or combined as
+   * `mode` says (the earlier version is kept as a revision), or refused with mode 'new'.
+   */
+  async logMany(inputs: readonly unknown[], mode: LogMode): Promise<LogOutcome[]> {
+    const parsed = inputs.map((input, i) => {
+      try {
+        return parseStudyFields(input);
+      } catch (error) {
+        if (error instanceof ValidationError && inputs.length > 1) {
+          throw new ValidationError('Study', error.problems.map((p) => ({ field: `[${i + 1}].${p.field}`, message: p.message })));
+        }
+        throw error;
+      }
+    });
+    const d = this.db;
+    return d.transaction('rw', [d.studies, d.characteristics, d.studyRevisions], async () => {
+      const outcomes: LogOutcome[] = [];
+      for (const fields of parsed) {
+        const characteristic = (await requireLive(d.characteristics, fields.characteristicId, 'Study', 'characteristicId', 'Characteristic')) as Characteristic;
+        assertStudyFitsCharacteristic(fields, characteristic);
+        const existing = await this.liveForMonth(fields.characteristicId, fields.period);
+        if (!existing) {
+          const study = stampNew(editable(fields), this.ctx) as Study;
+          await d.studies.add(study);
+          outcomes.push({ study, action: 'created' });
+          continue;
+        }
+        if (mode === 'new') {
+          throw new ValidationError('Study', [
+            { field: 'period', message: `'${characteristic.name}' already has a study for ${fields.period}; replace or combine that one instead` }
+          ]);
+        }
+        const data = mode === 'combine' ? combineStudyData(existing.data, fields.data) : fields.data;
+        const next = parseStudyFields({ ...editable(fields), data });
+        await this.keepRevision(existing, mode === 'combine' ? 'combined' : 'replaced');
+        const study = stampUpdate(existing, editable(next), this.ctx);
+        await d.studies.put(study);
+        outcomes.push({ study, previous: existing, action: mode === 'combine' ? 'combined' : 'replaced' });
+      }
+      return outcomes;
+    });
+  }
+
+  async logOne(input: unknown, mode: LogMode): Promise<LogOutcome> {
+    return (await this.logMany([input], mode))[0] as LogOutcome;
+  }
+
+  private async keepRevision(study: Study, reason: StudyRevision['reason']): Promise<void> {
+    await this.db.studyRevisions.add({ id: this.ctx.newId(), studyId: study.id, savedAt: this.ctx.now().toISOString(), reason, study });
+  }
+
+  /** Earlier versions of a study, newest first. */
+  async revisionsOf(studyId: string): Promise<StudyRevision[]> {
+    const rows = await this.db.studyRevisions.where('studyId').equals(studyId).toArray();
+    return rows.sort((a, b) => b.savedAt.localeCompare(a.savedAt) || b.study.rev - a.study.rev);
+  }
+
+  /** Puts an earlier version back as a new revision; the version it replaces is kept in turn. */
+  async restoreRevision(revisionId: string): Promise<Study> {
+    const d = this.db;
+    return d.transaction('rw', [d.studies, d.studyRevisions], async () => {
+      const revision = await d.studyRevisions.get(revisionId);
+      if (!revision) throw new RecordNotFoundError('Study revision', revisionId);
+      const current = await d.studies.get(revision.studyId);
+      if (!current) throw new RecordNotFoundError('Study', revision.studyId);
+      await this.keepRevision(current, 'restored');
+      const base = isLive(current) ? current : stampRestored(current, this.ctx);
+      const old = revision.study;
+      const restored = stampUpdate(base, editable(old), this.ctx);
+      await d.studies.put(restored);
+      return restored;
     });
   }
 
