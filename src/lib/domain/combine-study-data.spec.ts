@@ -8,7 +8,12 @@ function months(): number[][] {
   let s = 3;
   const u = () => (s = (s * 48271) % 2147483647) / 2147483647;
   // Three months whose means shift: the between-month shift must show in the pooled sd.
-  return [20, 35, 50].map((n, m) => Array.from({ length: n }, () => 10 + 0.3 * m + Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u())));
+  return [20, 35, 50].map((n, m) =>
+    Array.from(
+      { length: n },
+      () => 10 + 0.3 * m + Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u())
+    )
+  );
 }
 
 describe('combining studies exactly', () => {
@@ -22,7 +27,10 @@ describe('combining studies exactly', () => {
   });
 
   it('concatenates raw values and keeps subgroups apart', () => {
-    const r = combineStudyData({ kind: 'raw', values: [1, 2], subgroups: ['a', 'a'] }, { kind: 'raw', values: [3, 4] });
+    const r = combineStudyData(
+      { kind: 'raw', values: [1, 2], subgroups: ['a', 'a'] },
+      { kind: 'raw', values: [3, 4] }
+    );
     expect(r).toEqual({ kind: 'raw', values: [1, 2, 3, 4], subgroups: ['a', 'a', 'added', 'added'] });
   });
 
@@ -35,8 +43,20 @@ describe('combining studies exactly', () => {
   });
 
   it('adds counts and refuses what cannot be combined', () => {
-    expect(combineStudyData({ kind: 'defectives', units: 100, defectives: 2 }, { kind: 'defectives', units: 50, defectives: 1 })).toEqual({ kind: 'defectives', units: 150, defectives: 3 });
-    expect(() => combineStudyData({ kind: 'defects', units: 10, defects: 1, opportunitiesPerUnit: 4 }, { kind: 'defects', units: 10, defects: 1, opportunitiesPerUnit: 5 })).toThrow(/5 opportunities per unit cannot be combined with the 4/);
-    expect(() => combineStudyData({ kind: 'defectives', units: 10, defectives: 1 }, { kind: 'raw', values: [1] })).toThrow(/raw data cannot be combined with the defectives/);
+    expect(
+      combineStudyData(
+        { kind: 'defectives', units: 100, defectives: 2 },
+        { kind: 'defectives', units: 50, defectives: 1 }
+      )
+    ).toEqual({ kind: 'defectives', units: 150, defectives: 3 });
+    expect(() =>
+      combineStudyData(
+        { kind: 'defects', units: 10, defects: 1, opportunitiesPerUnit: 4 },
+        { kind: 'defects', units: 10, defects: 1, opportunitiesPerUnit: 5 }
+      )
+    ).toThrow(/5 opportunities per unit cannot be combined with the 4/);
+    expect(() =>
+      combineStudyData({ kind: 'defectives', units: 10, defectives: 1 }, { kind: 'raw', values: [1] })
+    ).toThrow(/raw data cannot be combined with the defectives/);
   });
 });

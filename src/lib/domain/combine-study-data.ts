@@ -15,7 +15,10 @@ export function combineStudyData(earlier: StudyData, added: StudyData): StudyDat
   if (earlier.kind === 'defectives' && added.kind === 'defectives') return addDefectives(earlier, added);
   if (earlier.kind === 'defects' && added.kind === 'defects') return addDefects(earlier, added);
   throw new ValidationError('Study', [
-    { field: 'data.kind', message: `${added.kind} data cannot be combined with the ${earlier.kind} data already logged` }
+    {
+      field: 'data.kind',
+      message: `${added.kind} data cannot be combined with the ${earlier.kind} data already logged`
+    }
   ]);
 }
 
@@ -69,5 +72,10 @@ function addDefects(a: DefectsData, b: DefectsData): DefectsData {
       }
     ]);
   }
-  return { kind: 'defects', units: a.units + b.units, defects: a.defects + b.defects, opportunitiesPerUnit: a.opportunitiesPerUnit };
+  return {
+    kind: 'defects',
+    units: a.units + b.units,
+    defects: a.defects + b.defects,
+    opportunitiesPerUnit: a.opportunitiesPerUnit
+  };
 }

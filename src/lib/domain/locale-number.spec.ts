@@ -32,3 +32,18 @@ describe('locale number parsing', () => {
     expect(parseLocaleNumber('1,5', '.')).toBeUndefined();
   });
 });
+
+describe('the decimal mark of a locale', () => {
+  it('reads 0,015 as a decimal comma even without a stated mark', () => {
+    expect(parseLocaleNumber('0,015')).toBe(0.015);
+  });
+});
+
+describe('decimalMarkOf', () => {
+  it('follows Intl for common locales', async () => {
+    const { decimalMarkOf } = await import('./locale-number');
+    expect(decimalMarkOf('de-DE')).toBe(',');
+    expect(decimalMarkOf('en-US')).toBe('.');
+    expect(decimalMarkOf('fr-FR')).toBe(',');
+  });
+});

@@ -23,7 +23,8 @@ export function parseLocaleNumber(text: string, decimal: DecimalMark = 'auto'): 
   let mark: '.' | ',';
   if (decimal !== 'auto') mark = decimal;
   else if (lastDot >= 0 && lastComma >= 0) mark = lastDot > lastComma ? '.' : ',';
-  else if (lastComma >= 0) mark = /^-?\d{1,3}(,\d{3})+$/.test(s) ? '.' : ',';
+  // A leading 0 group (`0,015`) is never grouping; `1,234` stays ambiguous and is read as grouping.
+  else if (lastComma >= 0) mark = /^-?[1-9]\d{0,2}(,\d{3})+$/.test(s) ? '.' : ',';
   else mark = '.';
   const group = mark === '.' ? ',' : '.';
   if (s.includes(group)) {
@@ -36,4 +37,14 @@ export function parseLocaleNumber(text: string, decimal: DecimalMark = 'auto'): 
   if (!/^-?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(s)) return undefined;
   const v = Number(s);
   return Number.isFinite(v) ? v : undefined;
+}
+
+/** The decimal mark of a BCP 47 locale (de-DE → ',', en-US → '.'), from Intl's own formatting. */
+export function decimalMarkOf(locale: string | undefined): '.' | ',' {
+  try {
+    const part = new Intl.NumberFormat(locale).formatToParts(1.5).find((p) => p.type === 'decimal');
+    return part?.value === ',' ? ',' : '.';
+  } catch {
+    return '.';
+  }
 }

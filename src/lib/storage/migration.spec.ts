@@ -122,7 +122,13 @@ describe('schema upgrade v2 → v3', () => {
     expect(current.verno).toBe(3);
     expect(await current.studies.toArray()).toEqual([study]);
     expect(await current.entryDrafts.count()).toBe(0);
-    await current.studyRevisions.add({ id: 'r1', studyId: study.id, savedAt: '2026-02-01T00:00:00.000Z', reason: 'replaced', study: study as never });
+    await current.studyRevisions.add({
+      id: 'r1',
+      studyId: study.id,
+      savedAt: '2026-02-01T00:00:00.000Z',
+      reason: 'replaced',
+      study: study as never
+    });
     expect(await current.studyRevisions.where('studyId').equals(study.id).count()).toBe(1);
     current.close();
     await Dexie.delete(name);

@@ -14,9 +14,35 @@ beforeEach(async () => {
   n += 1;
   storage = await openStorage(`capstan-logging-${n}`);
   const site = await storage.sites.create({ name: 'Plant', region: '', timeZone: 'UTC' });
-  const process = await storage.processes.create({ siteId: site.id, name: 'Press', owner: '', contextId: 'vehicle-parts', monthlyVolume: 1, costPerDefective: 1, currency: 'EUR' });
-  charId = (await storage.characteristics.create({ processId: process.id, name: 'Width', unit: 'mm', dataKind: 'measured', lsl: 9, usl: 11, riskClass: 'standard' })).id;
-  countedId = (await storage.characteristics.create({ processId: process.id, name: 'Cracks', unit: '', dataKind: 'counted', riskClass: 'key' })).id;
+  const process = await storage.processes.create({
+    siteId: site.id,
+    name: 'Press',
+    owner: '',
+    contextId: 'vehicle-parts',
+    monthlyVolume: 1,
+    costPerDefective: 1,
+    currency: 'EUR'
+  });
+  charId = (
+    await storage.characteristics.create({
+      processId: process.id,
+      name: 'Width',
+      unit: 'mm',
+      dataKind: 'measured',
+      lsl: 9,
+      usl: 11,
+      riskClass: 'standard'
+    })
+  ).id;
+  countedId = (
+    await storage.characteristics.create({
+      processId: process.id,
+      name: 'Cracks',
+      unit: '',
+      dataKind: 'counted',
+      riskClass: 'key'
+    })
+  ).id;
 });
 
 afterEach(async () => {
@@ -24,12 +50,19 @@ afterEach(async () => {
   await storage.db.delete();
 });
 
-const summary = (mean: number, sd = 0.2, nn = 30) => ({ characteristicId: charId, period: '2026-05', data: { kind: 'summary', n: nn, mean, sd }, enteredBy: 'Ana' });
+const summary = (mean: number, sd = 0.2, nn = 30) => ({
+  characteristicId: charId,
+  period: '2026-05',
+  data: { kind: 'summary', n: nn, mean, sd },
+  enteredBy: 'Ana'
+});
 
 describe('logging a month', () => {
   it('creates, then refuses a second entry unless told to replace or combine', async () => {
     expect((await storage.studies.logOne(summary(10), 'new')).action).toBe('created');
-    await expect(storage.studies.logOne(summary(10.1), 'new')).rejects.toThrow(/already has a study for 2026-05; replace or combine/);
+    await expect(storage.studies.logOne(summary(10.1), 'new')).rejects.toThrow(
+      /already has a study for 2026-05; replace or combine/
+    );
   });
 
   it('replace keeps the earlier version as a revision that can be restored', async () => {
@@ -44,7 +77,10 @@ describe('logging a month', () => {
     const restored = await storage.studies.restoreRevision(revisions[0]!.id);
     expect((restored.data as SummaryData).mean).toBe(10);
     expect(restored.rev).toBe(3);
-    expect((await storage.studies.revisionsOf(first.study.id)).map((r) => r.reason).sort()).toEqual(['replaced', 'restored']);
+    expect((await storage.studies.revisionsOf(first.study.id)).map((r) => r.reason).sort()).toEqual([
+      'replaced',
+      'restored'
+    ]);
   });
 
   it('combine pools the two entries exactly', async () => {
@@ -60,7 +96,12 @@ describe('logging a month', () => {
     const before = await storage.db.studies.count();
     const batch = [
       summary(10),
-      { characteristicId: countedId, period: '2026-05', data: { kind: 'defectives', units: 10, defectives: 12 }, enteredBy: '' }
+      {
+        characteristicId: countedId,
+        period: '2026-05',
+        data: { kind: 'defectives', units: 10, defectives: 12 },
+        enteredBy: ''
+      }
     ];
     const error = await storage.studies.logMany(batch, 'new').catch((e: unknown) => e);
     expect(error).toBeInstanceOf(ValidationError);

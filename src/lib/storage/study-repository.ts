@@ -1,7 +1,19 @@
 import type { Characteristic } from '../domain/characteristic';
 import { combineStudyData } from '../domain/combine-study-data';
-import { isLive, stampNew, stampRestored, stampUpdate, type Editable, type WriteContext } from '../domain/record-meta';
-import { assertStudyFitsCharacteristic, parseStudyFields, type Study, type StudyFields } from '../domain/study';
+import {
+  isLive,
+  stampNew,
+  stampRestored,
+  stampUpdate,
+  type Editable,
+  type WriteContext
+} from '../domain/record-meta';
+import {
+  assertStudyFitsCharacteristic,
+  parseStudyFields,
+  type Study,
+  type StudyFields
+} from '../domain/study';
 import { ValidationError } from '../domain/validation-error';
 import type { CapstanDatabase, StudyRevision } from './database';
 import { RecordNotFoundError, RecordRepository, requireLive } from './record-repository';
@@ -63,7 +75,11 @@ export class StudyRepository extends RecordRepository<Study> {
     });
   }
 
-  private async liveForMonth(characteristicId: string, period: string, exceptId?: string): Promise<Study | undefined> {
+  private async liveForMonth(
+    characteristicId: string,
+    period: string,
+    exceptId?: string
+  ): Promise<Study | undefined> {
     return this.db.studies
       .where('[characteristicId+period]')
       .equals([characteristicId, period])
@@ -87,7 +103,10 @@ export class StudyRepository extends RecordRepository<Study> {
         return parseStudyFields(input);
       } catch (error) {
         if (error instanceof ValidationError && inputs.length > 1) {
-          throw new ValidationError('Study', error.problems.map((p) => ({ field: `[${i + 1}].${p.field}`, message: p.message })));
+          throw new ValidationError(
+            'Study',
+            error.problems.map((p) => ({ field: `[${i + 1}].${p.field}`, message: p.message }))
+          );
         }
         throw error;
       }
@@ -96,7 +115,13 @@ export class StudyRepository extends RecordRepository<Study> {
     return d.transaction('rw', [d.studies, d.characteristics, d.studyRevisions], async () => {
       const outcomes: LogOutcome[] = [];
       for (const fields of parsed) {
-        const characteristic = (await requireLive(d.characteristics, fields.characteristicId, 'Study', 'characteristicId', 'Characteristic')) as Characteristic;
+        const characteristic = (await requireLive(
+          d.characteristics,
+          fields.characteristicId,
+          'Study',
+          'characteristicId',
+          'Characteristic'
+        )) as Characteristic;
         assertStudyFitsCharacteristic(fields, characteristic);
         const existing = await this.liveForMonth(fields.characteristicId, fields.period);
         if (!existing) {
@@ -107,7 +132,10 @@ export class StudyRepository extends RecordRepository<Study> {
         }
         if (mode === 'new') {
           throw new ValidationError('Study', [
-            { field: 'period', message: `'${characteristic.name}' already has a study for ${fields.period}; replace or combine that one instead` }
+            {
+              field: 'period',
+              message: `'${characteristic.name}' already has a study for ${fields.period}; replace or combine that one instead`
+            }
           ]);
         }
         const data = mode === 'combine' ? combineStudyData(existing.data, fields.data) : fields.data;
@@ -126,7 +154,13 @@ export class StudyRepository extends RecordRepository<Study> {
   }
 
   private async keepRevision(study: Study, reason: StudyRevision['reason']): Promise<void> {
-    await this.db.studyRevisions.add({ id: this.ctx.newId(), studyId: study.id, savedAt: this.ctx.now().toISOString(), reason, study });
+    await this.db.studyRevisions.add({
+      id: this.ctx.newId(),
+      studyId: study.id,
+      savedAt: this.ctx.now().toISOString(),
+      reason,
+      study
+    });
   }
 
   /** Earlier versions of a study, newest first. */

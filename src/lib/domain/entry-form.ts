@@ -1,0 +1,153 @@
+import type { DataKind } from './characteristic';
+import type { FieldProblem } from './validation-error';
+import { parseLocaleNumber, type DecimalMark } from './locale-number';
+import { parsePastedValues } from './pasted-values';
+import type { StudyData } from './study';
+
+/**
+ * What an entry form holds: text as typed (so a draft restores exactly what the person saw), turned into study
+ * data by `studyDataFromForm`. Numbers are read in the person's locale (decimal comma or point).
+ */
+export interface EntryForm {
+  kind: StudyData['kind'];
+  n: string;
+  mean: string;
+  sd: string;
+  raw: string;
+  units: string;
+  defectives: string;
+  defects: string;
+  opportunities: string;
+  note: string;
+}
+
+export function emptyEntryForm(dataKind: DataKind): EntryForm {
+  return {
+    kind: dataKind === 'measured' ? 'summary' : 'defectives',
+    n: '',
+    mean: '',
+    sd: '',
+    raw: '',
+    units: '',
+    defectives: '',
+    defects: '',
+    opportunities: '1',
+    note: ''
+  };
+}
+
+export interface FormReading {
+  data?: StudyData;
+  problems: FieldProblem[];
+  /** A line about what was read from pasted values ("40 values in 8 subgroups; header skipped"). */
+  rawSummary?: string;
+}
+
+function readNumber(
+  form: EntryForm,
+  field: keyof EntryForm,
+  label: string,
+  decimal: DecimalMark,
+  problems: FieldProblem[],
+  whole = false
+): number | undefined {
+  const text = String(form[field]).trim();
+  if (text === '') {
+    problems.push({ field, message: `${label} is required` });
+    return undefined;
+  }
+  const v = parseLocaleNumber(text, decimal);
+  if (v === undefined) {
+    problems.push({ field, message: `${label}: '${text}' is not a number` });
+    return undefined;
+  }
+  if (whole && !Number.isInteger(v)) {
+    problems.push({ field, message: `${label} must be a whole number` });
+    return undefined;
+  }
+  return v;
+}
+
+/** Reads the form; problems name the field. The domain's study validation runs again when saving. */
+export function studyDataFromForm(form: EntryForm, decimal: DecimalMark = 'auto'): FormReading {
+  const problems: FieldProblem[] = [];
+  switch (form.kind) {
+    case 'summary': {
+      const n = readNumber(form, 'n', 'n', decimal, problems, true);
+      const mean = readNumber(form, 'mean', 'Mean', decimal, problems);
+      const sd = readNumber(form, 'sd', 'Standard deviation', decimal, problems);
+      if (n !== undefined && n < 2) problems.push({ field: 'n', message: 'n must be at least 2' });
+      if (sd !== undefined && sd < 0)
+        problems.push({ field: 'sd', message: 'Standard deviation must not be negative' });
+      if (problems.length || n === undefined || mean === undefined || sd === undefined) return { problems };
+      return { data: { kind: 'summary', n, mean, sd }, problems };
+    }
+    case 'raw': {
+      const pasted = parsePastedValues(form.raw, decimal);
+      for (const p of pasted.problems)
+        problems.push({ field: 'raw', message: `line ${p.line}: ${p.message}` });
+      if (pasted.values.length === 0 && problems.length === 0)
+        problems.push({ field: 'raw', message: 'Type or paste the measured values' });
+      const groups = pasted.subgroups ? new Set(pasted.subgroups).size : 0;
+      const rawSummary = `${pasted.values.length} value${pasted.values.length === 1 ? '' : 's'}${groups ? ` in ${groups} subgroups` : ''}${pasted.header ? `; header '${pasted.header.join(', ')}' skipped` : ''}`;
+      if (problems.length) return { problems, rawSummary };
+      return {
+        data: {
+          kind: 'raw',
+          values: pasted.values,
+          ...(pasted.subgroups ? { subgroups: pasted.subgroups } : {})
+        },
+        problems,
+        rawSummary
+      };
+    }
+    case 'defectives': {
+      const units = readNumber(form, 'units', 'Units inspected', decimal, problems, true);
+      const defectives = readNumber(form, 'defectives', 'Defectives', decimal, problems, true);
+      if (units !== undefined && units < 1)
+        problems.push({ field: 'units', message: 'Units inspected must be at least 1' });
+      if (defectives !== undefined && defectives < 0)
+        problems.push({ field: 'defectives', message: 'Defectives must not be negative' });
+      if (units !== undefined && defectives !== undefined && defectives > units) {
+        problems.push({
+          field: 'defectives',
+          message: `Defectives (${defectives}) cannot exceed units inspected (${units})`
+        });
+      }
+      if (problems.length || units === undefined || defectives === undefined) return { problems };
+      return { data: { kind: 'defectives', units, defectives }, problems };
+    }
+    case 'defects': {
+      const units = readNumber(form, 'units', 'Units inspected', decimal, problems, true);
+      const defects = readNumber(form, 'defects', 'Defects', decimal, problems, true);
+      const opportunities = readNumber(
+        form,
+        'opportunities',
+        'Opportunities per unit',
+        decimal,
+        problems,
+        true
+      );
+      if (units !== undefined && units < 1)
+        problems.push({ field: 'units', message: 'Units inspected must be at least 1' });
+      if (defects !== undefined && defects < 0)
+        problems.push({ field: 'defects', message: 'Defects must not be negative' });
+      if (opportunities !== undefined && opportunities < 1)
+        problems.push({ field: 'opportunities', message: 'Opportunities per unit must be at least 1' });
+      if (
+        units !== undefined &&
+        defects !== undefined &&
+        opportunities !== undefined &&
+        defects > units * opportunities
+      ) {
+        problems.push({
+          field: 'defects',
+          message: `Defects (${defects}) cannot exceed units × opportunities (${units * opportunities})`
+        });
+      }
+      if (problems.length || units === undefined || defects === undefined || opportunities === undefined)
+        return { problems };
+      return { data: { kind: 'defects', units, defects, opportunitiesPerUnit: opportunities }, problems };
+    }
+  }
+}
