@@ -9,6 +9,8 @@ const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 
 
 export default defineConfig({
   define: { __APP_VERSION__: JSON.stringify(pkg.version) },
+  // Workers are ES modules so that they can import the same code the page uses.
+  worker: { format: 'es' },
   plugins: [
     sveltekit(),
     SvelteKitPWA({
