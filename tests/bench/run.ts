@@ -1,4 +1,5 @@
 /** `npm run bench`: runs every benchmark and prints one table. Figures only; nothing here passes or fails. */
+import { runCsvImportBench } from './csv-import-bench';
 import { runEngineBench, type BenchRow } from './engine-bench';
 
 function print(rows: BenchRow[]): void {
@@ -20,4 +21,4 @@ function print(rows: BenchRow[]): void {
 }
 
 console.log(`Capstan benchmarks — Node ${process.version}, ${new Date().toISOString()}`);
-print(runEngineBench());
+print([...runEngineBench(), ...runCsvImportBench()]);

@@ -150,4 +150,13 @@ test('logging a month twice asks to replace or combine, and a replace can be und
 
   await page.getByTestId('saved-notice').getByRole('button', { name: 'Undo' }).click();
   await expect(page.getByText(`Undone: ${MONTH} is back as it was before.`)).toBeVisible();
+  await expect(row(page, 'Bars broken at packing').filter({ hasText: 'oven 1' })).toContainText('1.000');
+
+  // Every replaced version stays restorable from the entry panel.
+  await open();
+  const revisions = panel.getByTestId('revisions');
+  await revisions.locator('summary').click();
+  await expect(revisions.getByRole('listitem')).toHaveCount(2);
+  await revisions.getByRole('button', { name: 'Restore this version' }).first().click();
+  await expect(panel.getByText(/Restored the version of/)).toBeVisible();
 });
