@@ -1,5 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
-import { startStaticServer, type RunningServer } from './static-server';
+import { startStaticServer, waitForServiceWorker, type RunningServer } from './static-server';
 
 // A month with no demo data, so every characteristic starts "not yet logged" whatever today's date is.
 const MONTH = '2027-01';
@@ -23,14 +23,7 @@ async function openLog(page: Page, site: string) {
 
 async function loadDemo(page: Page) {
   await page.goto(server.url);
-  await page.evaluate(async () => {
-    await navigator.serviceWorker.ready;
-    if (!navigator.serviceWorker.controller) {
-      await new Promise((resolve) =>
-        navigator.serviceWorker.addEventListener('controllerchange', resolve, { once: true })
-      );
-    }
-  });
+  await waitForServiceWorker(page);
   await page.getByTestId('load-demo').click();
   await expect(page.getByTestId('portfolio-table')).toBeVisible();
 }

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { startStaticServer } from './static-server';
+import { startStaticServer, waitForServiceWorker } from './static-server';
 
 test('after one visit the app loads and works with the server gone and the network off', async ({
   page,
@@ -8,14 +8,7 @@ test('after one visit the app loads and works with the server gone and the netwo
   const server = await startStaticServer();
   await page.goto(server.url);
   // The worker precaches the whole app on its first install; wait until it controls the page.
-  await page.evaluate(async () => {
-    await navigator.serviceWorker.ready;
-    if (!navigator.serviceWorker.controller) {
-      await new Promise((resolve) =>
-        navigator.serviceWorker.addEventListener('controllerchange', resolve, { once: true })
-      );
-    }
-  });
+  await waitForServiceWorker(page);
   await page.getByTestId('load-demo').click();
   const rows = page.getByTestId('portfolio-table').locator('tbody tr');
   await expect(rows).not.toHaveCount(0);

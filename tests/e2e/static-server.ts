@@ -1,3 +1,4 @@
+import type { Page } from '@playwright/test';
 import { spawn, type ChildProcess } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 
@@ -37,4 +38,16 @@ export async function startStaticServer(dir: string = BUILD): Promise<RunningSer
         child.kill('SIGTERM');
       })
   };
+}
+
+/** Waits until the service worker has installed (precached the app) and controls the page. */
+export async function waitForServiceWorker(page: Page): Promise<void> {
+  await page.evaluate(async () => {
+    await navigator.serviceWorker.ready;
+    if (!navigator.serviceWorker.controller) {
+      await new Promise((resolve) =>
+        navigator.serviceWorker.addEventListener('controllerchange', resolve, { once: true })
+      );
+    }
+  });
 }

@@ -311,10 +311,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     Object.assign(
       result,
       defined({
-        pp: pct.pp,
-        ppl: pct.ppl,
-        ppu: pct.ppu,
-        ppk: pct.ppk,
+        ...pct,
         ...tailFigures(tails)
       })
     );
@@ -342,10 +339,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     Object.assign(
       result,
       defined({
-        pp: pct.pp,
-        ppl: pct.ppl,
-        ppu: pct.ppu,
-        ppk: pct.ppk,
+        ...pct,
         ppmTotal: ppmObserved,
         yield: 1 - outside / n,
         zLevel: outside === 0 ? normalUpperQuantile(upper) : normalUpperQuantile(outside / n)

@@ -28,6 +28,19 @@ export interface LogOutcome {
   action: 'created' | 'replaced' | 'combined';
 }
 
+/** The live characteristic a study names, refusing one that is missing or of the other data kind. */
+async function characteristicFor(d: CapstanDatabase, fields: StudyFields): Promise<Characteristic> {
+  const characteristic = (await requireLive(
+    d.characteristics,
+    fields.characteristicId,
+    'Study',
+    'characteristicId',
+    'Characteristic'
+  )) as Characteristic;
+  assertStudyFitsCharacteristic(fields, characteristic);
+  return characteristic;
+}
+
 function editable(fields: StudyFields): Editable<Study> {
   return {
     characteristicId: fields.characteristicId,
@@ -50,14 +63,7 @@ export class StudyRepository extends RecordRepository<Study> {
       parse: parseStudyFields,
       relatedTables: (d) => [d.characteristics],
       checkInTransaction: async (d, fields, existingId) => {
-        const characteristic = (await requireLive(
-          d.characteristics,
-          fields.characteristicId,
-          'Study',
-          'characteristicId',
-          'Characteristic'
-        )) as Characteristic;
-        assertStudyFitsCharacteristic(fields, characteristic);
+        const characteristic = await characteristicFor(d, fields);
         const sameMonth = await d.studies
           .where('[characteristicId+period]')
           .equals([fields.characteristicId, fields.period])
@@ -115,14 +121,7 @@ export class StudyRepository extends RecordRepository<Study> {
     return d.transaction('rw', [d.studies, d.characteristics, d.studyRevisions], async () => {
       const outcomes: LogOutcome[] = [];
       for (const fields of parsed) {
-        const characteristic = (await requireLive(
-          d.characteristics,
-          fields.characteristicId,
-          'Study',
-          'characteristicId',
-          'Characteristic'
-        )) as Characteristic;
-        assertStudyFitsCharacteristic(fields, characteristic);
+        const characteristic = await characteristicFor(d, fields);
         const existing = await this.liveForMonth(fields.characteristicId, fields.period);
         if (!existing) {
           const study = stampNew(editable(fields), this.ctx) as Study;
