@@ -1,6 +1,7 @@
 /** `npm run bench`: runs every benchmark and prints one table. Figures only; nothing here passes or fails. */
 import { runCsvImportBench } from './csv-import-bench';
 import { runEngineBench, type BenchRow } from './engine-bench';
+import { runRankingBench } from './ranking-bench';
 
 function print(rows: BenchRow[]): void {
   const line = (cells: string[]) => `| ${cells.join(' | ')} |`;
@@ -21,4 +22,4 @@ function print(rows: BenchRow[]): void {
 }
 
 console.log(`Capstan benchmarks — Node ${process.version}, ${new Date().toISOString()}`);
-print([...runEngineBench(), ...runCsvImportBench()]);
+print([...runEngineBench(), ...runCsvImportBench(), ...runRankingBench()]);

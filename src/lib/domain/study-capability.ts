@@ -8,6 +8,8 @@ import type { StudyFields } from './study';
 export interface StudyCapabilityOptions {
   model?: ModelChoice;
   confidence?: number;
+  /** For merged summaries: the pooled within-month sd (see window-study.ts). */
+  sdWithin?: number;
 }
 
 /**
@@ -38,7 +40,16 @@ export function capabilityOfStudy(
         ...confidence
       });
     case 'summary':
-      return analyzeSummary(data.n, data.mean, data.sd, { spec, ...confidence });
+      return analyzeSummary(data.n, data.mean, data.sd, {
+        spec,
+        ...confidence,
+        ...(options.sdWithin !== undefined
+          ? {
+              sdWithin: options.sdWithin,
+              sdWithinLabel: 'within sigma: pooled within-month sd of the merged months'
+            }
+          : {})
+      });
     case 'defectives':
       return analyzeDefectives(data.units, data.defectives, confidence);
     case 'defects':

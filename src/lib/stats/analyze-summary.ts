@@ -7,6 +7,9 @@ import { normalTailFractions } from './tail-fractions';
 
 export interface SummaryOptions {
   spec: Specification;
+  /** A within sigma known from the parts of a merged summary (pooled within-month sd); enables Cp/Cpk. */
+  sdWithin?: number;
+  sdWithinLabel?: string;
   confidence?: number;
   shortTermShift?: number;
   requiredIndex?: number;
@@ -84,6 +87,21 @@ export function analyzeSummary(n: number, mu: number, sd: number, options: Summa
   }
   if (n < 30)
     warnings.push(`Only ${n} values behind the summary: intervals are wide; 30 or more are advised`);
+  if (options.sdWithin !== undefined && options.sdWithin > 0) {
+    const within = indices(mu, options.sdWithin, spec);
+    result.sdWithin = options.sdWithin;
+    if (within.spread !== undefined) {
+      result.cp = within.spread;
+      result.intervals.cp = spreadIndexInterval(within.spread, n, level);
+    }
+    if (within.lower !== undefined) result.cpl = within.lower;
+    if (within.upper !== undefined) result.cpu = within.upper;
+    if (within.k !== undefined) {
+      result.cpk = within.k;
+      if (within.k > 0) result.intervals.cpk = bissellInterval(within.k, n, level);
+    }
+    assumptions[2] = `overall sigma from the merged summaries; ${options.sdWithinLabel ?? 'within sigma given'}`;
+  }
   if (options.shortTermShift !== undefined) {
     result.zLevelShortTerm = result.zLevel + options.shortTermShift;
     assumptions.push(

@@ -1,0 +1,213 @@
+import { describe, expect, it } from 'vitest';
+import { expectRelative } from '../../../tests/support/reference-data';
+import { normalUpperQuantile } from '../stats/normal-distribution';
+import type { Characteristic } from './characteristic';
+import { BUILT_IN_PROFILES, type ContextProfile } from './context-profile';
+import type { Process } from './process';
+import type { RecordMeta } from './record-meta';
+import { rankPortfolio, requiredZ, type PortfolioRecords } from './portfolio-ranking';
+import type { Site } from './site';
+import type { Study, StudyData } from './study';
+
+const meta = (id: string): RecordMeta => ({ id, createdAt: '', updatedAt: '', rev: 1, deviceId: 'd' });
+const site: Site = { ...meta('s'), name: 'Site', region: '', timeZone: 'UTC' };
+const proc = (id: string, contextId: string, name = id): Process => ({
+  ...meta(id),
+  siteId: 's',
+  name,
+  owner: '',
+  contextId,
+  monthlyVolume: 1000,
+  costPerDefective: 2,
+  currency: 'EUR'
+});
+const measured = (
+  id: string,
+  processId: string,
+  riskClass: Characteristic['riskClass'] = 'standard'
+): Characteristic => ({
+  ...meta(id),
+  processId,
+  name: id,
+  unit: '',
+  dataKind: 'measured',
+  lsl: 7,
+  usl: 13,
+  riskClass
+});
+const counted = (id: string, processId: string): Characteristic => ({
+  ...meta(id),
+  processId,
+  name: id,
+  unit: '',
+  dataKind: 'counted',
+  riskClass: 'standard'
+});
+const study = (id: string, characteristicId: string, period: string, data: StudyData): Study => ({
+  ...meta(id),
+  characteristicId,
+  period,
+  data,
+  enteredBy: ''
+});
+const summary = (mean: number, sd: number, n = 200): StudyData => ({ kind: 'summary', n, mean, sd });
+
+function records(over: Partial<PortfolioRecords>): PortfolioRecords {
+  return { sites: [site], processes: [], characteristics: [], studies: [], projects: [], ...over };
+}
+
+const vehicle = BUILT_IN_PROFILES.find((p) => p.id === 'vehicle-parts') as ContextProfile;
+const service = BUILT_IN_PROFILES.find((p) => p.id === 'transactional-service') as ContextProfile;
+
+describe('requirements per context and risk class', () => {
+  it('translates index, z-level and ppm requirements to one z scale, shifting only short-term contexts', () => {
+    expect(requiredZ(vehicle, 'standard')).toBeCloseTo(3.99, 12);
+    expect(requiredZ(vehicle, 'safety')).toBeCloseTo(5.01, 12);
+    expect(requiredZ(service, 'standard')).toBe(3.0);
+    const goods = BUILT_IN_PROFILES.find((p) => p.id === 'packaged-goods') as ContextProfile;
+    expectRelative(requiredZ(goods, 'standard'), normalUpperQuantile(0.025), 1e-12);
+  });
+
+  it('holds a safety characteristic to the stricter level', () => {
+    const r = rankPortfolio(
+      records({
+        processes: [proc('p1', 'vehicle-parts'), proc('p2', 'vehicle-parts')],
+        characteristics: [measured('c1', 'p1', 'standard'), measured('c2', 'p2', 'safety')],
+        studies: [
+          study('a', 'c1', '2026-06', summary(10, 0.7)),
+          study('b', 'c2', '2026-06', summary(10, 0.7))
+        ]
+      }),
+      BUILT_IN_PROFILES,
+      { endPeriod: '2026-06', windowMonths: 1 }
+    );
+    // Ppk = 3/(3·0.7) = 1.43: meets 1.33 for standard, short of 1.67 for safety.
+    expect(r.find((x) => x.process.id === 'p1')?.status).toMatch(/^meets/);
+    expect(r.find((x) => x.process.id === 'p2')?.status).toBe('short');
+  });
+});
+
+describe('status, combination and cost', () => {
+  it('distinguishes meeting with confidence from meeting by the estimate only', () => {
+    const shown = rankPortfolio(
+      records({
+        processes: [proc('p', 'vehicle-parts')],
+        characteristics: [measured('c', 'p')],
+        studies: [study('a', 'c', '2026-06', summary(10, 0.5, 500))]
+      }),
+      BUILT_IN_PROFILES,
+      { endPeriod: '2026-06', windowMonths: 1 }
+    );
+    expect(shown[0]?.status).toBe('meets, shown');
+    const notShown = rankPortfolio(
+      records({
+        processes: [proc('p', 'vehicle-parts')],
+        characteristics: [measured('c', 'p')],
+        studies: [study('a', 'c', '2026-06', summary(10, 0.72, 12))]
+      }),
+      BUILT_IN_PROFILES,
+      { endPeriod: '2026-06', windowMonths: 1 }
+    );
+    expect(notShown[0]?.status).toBe('meets, not shown');
+  });
+
+  it('combines characteristics by product of yields, names the weakest, and costs the defects', () => {
+    const r = rankPortfolio(
+      records({
+        processes: [proc('p', 'transactional-service')],
+        characteristics: [counted('a', 'p'), counted('b', 'p')],
+        studies: [
+          study('1', 'a', '2026-06', { kind: 'defectives', units: 1000, defectives: 10 }),
+          study('2', 'b', '2026-06', { kind: 'defectives', units: 1000, defectives: 40 })
+        ]
+      }),
+      BUILT_IN_PROFILES,
+      { endPeriod: '2026-06', windowMonths: 1 }
+    )[0]!;
+    expectRelative(r.yield, 0.99 * 0.96, 1e-12);
+    expect(r.weakest?.characteristic.id).toBe('b');
+    expectRelative(r.costPerYear, (1 - 0.99 * 0.96) * 1000 * 12 * 2, 1e-12);
+    // Short-term context: the shift is added once to the reported z-level.
+    expectRelative(r.zLevel, normalUpperQuantile(1 - 0.99 * 0.96) + 1.5, 1e-12);
+    expect(r.badges).toContain('shift convention');
+    expect(r.badges).toContain('counted data');
+  });
+
+  it('combines a window of months exactly and reports no recent data when the window is empty', () => {
+    const base = { processes: [proc('p', 'vehicle-parts')], characteristics: [measured('c', 'p')] };
+    const studies = [
+      study('1', 'c', '2026-04', summary(10, 0.5, 50)),
+      study('2', 'c', '2026-05', summary(10.4, 0.5, 50)),
+      study('3', 'c', '2026-06', summary(9.8, 0.5, 50))
+    ];
+    const q = rankPortfolio(records({ ...base, studies }), BUILT_IN_PROFILES, {
+      endPeriod: '2026-06',
+      windowMonths: 3
+    })[0]!;
+    const result = q.characteristics[0]!.result!;
+    expect(result.n).toBe(150);
+    expect(result.sdWithin).toBeCloseTo(0.5, 12);
+    expect(result.sdOverall!).toBeGreaterThan(0.5);
+    const stale = rankPortfolio(records({ ...base, studies }), BUILT_IN_PROFILES, {
+      endPeriod: '2026-12',
+      windowMonths: 3
+    })[0]!;
+    expect(stale.status).toBe('no recent data');
+    expect(rankPortfolio(records({}), BUILT_IN_PROFILES, { endPeriod: '2026-06', windowMonths: 1 })).toEqual(
+      []
+    );
+  });
+});
+
+describe('ranking', () => {
+  it('is deterministic: equal rows fall back to name and then id', () => {
+    const procs = ['b', 'a', 'c'].map((id) => proc(id, 'vehicle-parts', 'Same name'));
+    const r = rankPortfolio(records({ processes: procs }), BUILT_IN_PROFILES, {
+      endPeriod: '2026-06',
+      windowMonths: 1
+    });
+    expect(r.map((x) => x.process.id)).toEqual(['a', 'b', 'c']);
+  });
+
+  it('changes when a context target changes', () => {
+    const recs = records({
+      processes: [proc('x', 'vehicle-parts', 'X'), proc('y', 'semiconductors', 'Y')],
+      characteristics: [measured('cx', 'x'), measured('cy', 'y')],
+      studies: [
+        study('1', 'cx', '2026-06', summary(10, 0.8, 300)),
+        study('2', 'cy', '2026-06', summary(10, 0.62, 300))
+      ]
+    });
+    const before = rankPortfolio(recs, BUILT_IN_PROFILES, {
+      endPeriod: '2026-06',
+      windowMonths: 1,
+      order: 'gap'
+    }).map((r) => r.process.id);
+    const stricter = BUILT_IN_PROFILES.map((p) =>
+      p.id === 'semiconductors' ? { ...p, levels: { ...p.levels, standard: 2.5 } } : p
+    );
+    const after = rankPortfolio(recs, stricter, { endPeriod: '2026-06', windowMonths: 1, order: 'gap' }).map(
+      (r) => r.process.id
+    );
+    expect(before).toEqual(['x', 'y']);
+    expect(after).toEqual(['y', 'x']);
+  });
+
+  it('tells centering from spread', () => {
+    const r = rankPortfolio(
+      records({
+        processes: [proc('p', 'vehicle-parts')],
+        characteristics: [measured('c', 'p')],
+        studies: [study('1', 'c', '2026-06', summary(11.5, 0.5, 300))]
+      }),
+      BUILT_IN_PROFILES,
+      { endPeriod: '2026-06', windowMonths: 1 }
+    )[0]!;
+    const c = r.characteristics[0]!.centering!;
+    // Off-centre by 1.5 with sd 0.5: short now (Ppk 1.0), but centred it would reach Pp = 6/3 = 2.0.
+    expect(r.status).toBe('short');
+    expect(c.centringMeets).toBe(true);
+    expectRelative(c.centredIndex, 2, 1e-12);
+    expectRelative(c.sdNeeded, 6 / (6 * 1.33), 1e-12);
+  });
+});

@@ -1,0 +1,446 @@
+import { normalCdf, normalSf, normalUpperQuantile } from '../stats/normal-distribution';
+import type { CapabilityResult } from '../stats/capability-result';
+import type { Characteristic, RiskClass } from './characteristic';
+import { profileFor, SHIFT_FOR_SHORT_TERM, type ContextProfile } from './context-profile';
+import type { ImprovementProject } from './improvement-project';
+import { addMonths } from './period';
+import type { Process } from './process';
+import type { Site } from './site';
+import type { Study } from './study';
+import { capabilityOfStudy } from './study-capability';
+import { windowData } from './window-study';
+
+/**
+ * The portfolio: every process judged against the level its industry context requires, on one comparable
+ * scale, and ranked by a priority score whose formula is stated. Pure: the app, the command line and the
+ * benchmark all call this one function.
+ *
+ * Comparable scale: every requirement is translated to a z-level — an index requirement k to z = 3k (the
+ * nearer-limit distance, zMin = 3·Cpk), a ppm maximum to z = Q⁻¹(ppm/10⁶); a short-term context compares
+ * short-term levels (z + 1.5) with its short-term requirement. The gap is z(estimate) − z(required): negative
+ * means short. For counted data an index requirement is compared through the z-level (an index equivalent z/3).
+ */
+export type CharacteristicStatus = 'meets, shown' | 'meets, not shown' | 'short' | 'no recent data';
+
+export const STATUS_ORDER: CharacteristicStatus[] = [
+  'short',
+  'meets, not shown',
+  'meets, shown',
+  'no recent data'
+];
+
+export type Badge =
+  | 'non-normal model'
+  | 'summary only'
+  | 'counted data'
+  | 'not shown stable'
+  | 'small sample'
+  | 'shift convention'
+  | 'incomplete';
+
+export const BADGE_EXPLANATIONS: Record<Badge, string> = {
+  'non-normal model':
+    'A non-normal model was fitted because the data are not normal; its tails, not a normal curve, give the ppm.',
+  'summary only': 'Only n, mean and sd were reported, so normality and stability could not be checked.',
+  'counted data': 'The figures come from counts of defects or defectives, not from measurements.',
+  'not shown stable': 'The control chart shows signals: the process may not stay where these figures put it.',
+  'small sample': 'Fewer than 30 values or 100 units stand behind a figure, so its interval is wide.',
+  'shift convention':
+    'This context reports short-term levels: 1.5 is added to every long-term z-level, by convention.',
+  incomplete:
+    'Some characteristics of this process have no data in the window; they are left out of the combined figures.'
+};
+
+export interface CharacteristicRow {
+  characteristic: Characteristic;
+  status: CharacteristicStatus;
+  result?: CapabilityResult;
+  /** The estimate in the unit of the ruling measure (index, z-level as reported, or ppm). */
+  estimate?: number;
+  /** The one-sided confidence bound in the same unit, where one exists. */
+  bound?: number;
+  required: number;
+  /** z(estimate) − z(required), both as reported. */
+  zGap?: number;
+  /** Centering or spread (measured data): the index if centred today, and the sd that would meet the requirement if centred. */
+  centering?: { centredIndex: number; sdNow: number; sdNeeded: number; centringMeets: boolean };
+  badges: Badge[];
+  months: number;
+}
+
+export interface ProcessRow {
+  process: Process;
+  site: Site;
+  profile: ContextProfile | undefined;
+  characteristics: CharacteristicRow[];
+  status: CharacteristicStatus;
+  /** Product of the characteristics' yields (independence assumed). */
+  yield?: number;
+  ppm?: number;
+  /** z-level of the combined yield, as the context reports it (shift added for short-term contexts). */
+  zLevel?: number;
+  weakest?: CharacteristicRow;
+  zGap?: number;
+  /** Cost of poor quality per year: (1 − yield) × monthly volume × 12 × cost per defective, in the process currency. */
+  costPerYear?: number;
+  /** Reported z-level of each month in the trend span (undefined where no data), oldest first. */
+  trend: (number | undefined)[];
+  /** Least-squares slope of the trend, z per month. */
+  trendSlope?: number;
+  badges: Badge[];
+  projects: ImprovementProject[];
+  priority: number;
+  riskClass: RiskClass;
+}
+
+export interface RankingWeights {
+  gap: number;
+  cost: number;
+  risk: number;
+  confidence: number;
+}
+
+export const DEFAULT_WEIGHTS: RankingWeights = { gap: 1, cost: 0.5, risk: 0.5, confidence: 0.5 };
+
+export const PRIORITY_FORMULA =
+  'priority = w_gap × shortfall in z + w_cost × log10(1 + cost per year) + w_risk × risk (standard 0, key 1, safety 2) + w_confidence × (1 if meeting is not shown)';
+
+export type RankingOrder = 'priority' | 'gap' | 'cost' | 'risk' | 'confidence';
+
+export interface RankingOptions {
+  /** Last month of the window, YYYY-MM. */
+  endPeriod: string;
+  /** Months in the window: 1, 3, 12 … */
+  windowMonths: number;
+  /** Months in the trend. */
+  trendMonths?: number;
+  weights?: RankingWeights;
+  order?: RankingOrder;
+  cache?: FiguresCache;
+}
+
+/**
+ * A month's yield for the trend line, from the normal model of the month's mean and sd (counts exactly): the
+ * trend shows direction, so it skips the model search that the window figures get.
+ */
+export function quickYield(study: Study, c: Characteristic): number | undefined {
+  const d = study.data;
+  if (d.kind === 'defectives') return 1 - d.defectives / d.units;
+  if (d.kind === 'defects') return Math.exp(-d.defects / d.units);
+  let m: number;
+  let sd: number;
+  if (d.kind === 'summary') ({ mean: m, sd } = d);
+  else {
+    const n = d.values.length;
+    if (n < 2) return undefined;
+    m = d.values.reduce((a, b) => a + b, 0) / n;
+    sd = Math.sqrt(d.values.reduce((a, b) => a + (b - m) ** 2, 0) / (n - 1));
+  }
+  if (!(sd > 0)) return undefined;
+  const below = c.lsl !== undefined ? normalCdf((c.lsl - m) / sd) : 0;
+  const above = c.usl !== undefined ? normalSf((c.usl - m) / sd) : 0;
+  return 1 - below - above;
+}
+
+/**
+ * Window figures computed once per characteristic and kept while its studies do not change: re-judging after a
+ * target or weight change then costs only the comparison and the sort. Keyed by characteristic, window and the
+ * id@rev of every study in it.
+ */
+export type FiguresCache = Map<string, { result: CapabilityResult | undefined; months: number }>;
+
+export interface PortfolioRecords {
+  sites: readonly Site[];
+  processes: readonly Process[];
+  characteristics: readonly Characteristic[];
+  studies: readonly Study[];
+  projects: readonly ImprovementProject[];
+}
+
+const RISK_WEIGHT: Record<RiskClass, number> = { standard: 0, key: 1, safety: 2 };
+
+/** Required z (as reported) for a profile and risk class. */
+export function requiredZ(profile: ContextProfile, risk: RiskClass): number {
+  const level = profile.levels[risk];
+  const shift = profile.reporting === 'short-term' ? SHIFT_FOR_SHORT_TERM : 0;
+  switch (profile.measure) {
+    case 'index':
+      return 3 * level + shift;
+    case 'zLevel':
+      return level;
+    case 'ppm':
+      return normalUpperQuantile(Math.min(1, level / 1e6)) + shift;
+  }
+}
+
+function badgesOf(r: CapabilityResult, profile: ContextProfile | undefined): Badge[] {
+  const b: Badge[] = [];
+  if (r.kind === 'measured' && r.model !== 'normal') b.push('non-normal model');
+  if (r.kind === 'summary') b.push('summary only');
+  if (r.kind === 'defectives' || r.kind === 'defects') b.push('counted data');
+  if (r.stability && !r.stability.stable) b.push('not shown stable');
+  if (r.kind === 'measured' || r.kind === 'summary' ? r.n < 30 : r.n < 100) b.push('small sample');
+  if (profile?.reporting === 'short-term') b.push('shift convention');
+  return b;
+}
+
+/** Judges one characteristic's window result against its context's requirement. */
+export function judgeCharacteristic(
+  characteristic: Characteristic,
+  result: CapabilityResult | undefined,
+  profile: ContextProfile | undefined,
+  months: number
+): CharacteristicRow {
+  const risk = characteristic.riskClass;
+  const required = profile ? profile.levels[risk] : NaN;
+  if (!result || !profile)
+    return {
+      characteristic,
+      status: 'no recent data',
+      required,
+      badges: [],
+      months,
+      ...(result ? { result } : {})
+    };
+  const shift = profile.reporting === 'short-term' ? SHIFT_FOR_SHORT_TERM : 0;
+  const zReported = result.zLevel + shift;
+  const zBound =
+    result.intervals.zLevel?.lowerBound !== undefined
+      ? result.intervals.zLevel.lowerBound + shift
+      : undefined;
+  let estimate: number;
+  let bound: number | undefined;
+  let meets: (v: number) => boolean;
+  let zEstimate: number;
+  switch (profile.measure) {
+    case 'index': {
+      const idx = result.cpk ?? result.ppk;
+      const idxBound =
+        result.cpk !== undefined ? result.intervals.cpk?.lowerBound : result.intervals.ppk?.lowerBound;
+      // Counted data have no index: their z-level stands in as an index equivalent z/3.
+      estimate = idx ?? result.zLevel / 3;
+      bound = idx !== undefined ? idxBound : zBound !== undefined ? (zBound - shift) / 3 : undefined;
+      meets = (v) => v >= required;
+      zEstimate = 3 * estimate + shift;
+      break;
+    }
+    case 'zLevel':
+      estimate = zReported;
+      bound = zBound;
+      meets = (v) => v >= required;
+      zEstimate = zReported;
+      break;
+    case 'ppm': {
+      estimate = result.ppmTotal ?? (1 - result.yield) * 1e6;
+      const iv = result.intervals.ppmTotal ?? result.intervals.ppm ?? result.intervals.dpmo;
+      bound = iv?.upperBound;
+      meets = (v) => v <= required;
+      zEstimate = zReported;
+      break;
+    }
+  }
+  const status: CharacteristicStatus = !meets(estimate)
+    ? 'short'
+    : bound !== undefined && meets(bound)
+      ? 'meets, shown'
+      : 'meets, not shown';
+  const row: CharacteristicRow = {
+    characteristic,
+    status,
+    result,
+    estimate,
+    required,
+    zGap: zEstimate - requiredZ(profile, risk),
+    badges: badgesOf(result, profile),
+    months,
+    ...(bound !== undefined ? { bound } : {})
+  };
+  // Centering or spread, for measured data with both limits, judged against the requirement as an index.
+  const lsl = characteristic.lsl;
+  const usl = characteristic.usl;
+  const sdNow = result.sdWithin ?? result.sdOverall;
+  if (lsl !== undefined && usl !== undefined && sdNow !== undefined && sdNow > 0) {
+    const requiredIndex = (requiredZ(profile, risk) - shift) / 3;
+    const centredIndex = (usl - lsl) / (6 * sdNow);
+    row.centering = {
+      centredIndex,
+      sdNow,
+      sdNeeded: (usl - lsl) / (6 * requiredIndex),
+      centringMeets: centredIndex >= requiredIndex
+    };
+  }
+  return row;
+}
+
+function slope(values: (number | undefined)[]): number | undefined {
+  const pts = values
+    .map((v, i) => [i, v] as const)
+    .filter((p): p is readonly [number, number] => p[1] !== undefined && Number.isFinite(p[1]));
+  if (pts.length < 3) return undefined;
+  const mx = pts.reduce((a, p) => a + p[0], 0) / pts.length;
+  const my = pts.reduce((a, p) => a + p[1], 0) / pts.length;
+  const sxx = pts.reduce((a, p) => a + (p[0] - mx) ** 2, 0);
+  return pts.reduce((a, p) => a + (p[0] - mx) * (p[1] - my), 0) / sxx;
+}
+
+function statusRank(s: CharacteristicStatus): number {
+  return STATUS_ORDER.indexOf(s);
+}
+
+/** Ranks the portfolio; ties broken by zGap (lower first), cost (higher first), process name, then id. */
+export function rankPortfolio(
+  records: PortfolioRecords,
+  profiles: readonly ContextProfile[],
+  options: RankingOptions
+): ProcessRow[] {
+  const weights = options.weights ?? DEFAULT_WEIGHTS;
+  const first = addMonths(options.endPeriod, -(options.windowMonths - 1));
+  const trendMonths = options.trendMonths ?? 12;
+  const trendFirst = addMonths(options.endPeriod, -(trendMonths - 1));
+  const studiesByChar = new Map<string, Study[]>();
+  for (const s of records.studies) {
+    if (s.deletedAt || (s.period < trendFirst && s.period < first)) continue;
+    if (s.period > options.endPeriod) continue;
+    const list = studiesByChar.get(s.characteristicId);
+    if (list) list.push(s);
+    else studiesByChar.set(s.characteristicId, [s]);
+  }
+  const charsByProcess = new Map<string, Characteristic[]>();
+  for (const c of records.characteristics) {
+    if (c.deletedAt) continue;
+    const list = charsByProcess.get(c.processId);
+    if (list) list.push(c);
+    else charsByProcess.set(c.processId, [c]);
+  }
+  const siteById = new Map(records.sites.filter((s) => !s.deletedAt).map((s) => [s.id, s]));
+  const projectsByProcess = new Map<string, ImprovementProject[]>();
+  for (const p of records.projects) {
+    if (p.deletedAt) continue;
+    projectsByProcess.set(p.processId, [...(projectsByProcess.get(p.processId) ?? []), p]);
+  }
+
+  const rows: ProcessRow[] = [];
+  for (const process of records.processes) {
+    if (process.deletedAt) continue;
+    const site = siteById.get(process.siteId);
+    if (!site) continue;
+    const profile = profileFor(profiles, process.contextId);
+    const shift = profile?.reporting === 'short-term' ? SHIFT_FOR_SHORT_TERM : 0;
+    const chars = (charsByProcess.get(process.id) ?? [])
+      .slice()
+      .sort((a, b) => a.name.localeCompare(b.name) || a.id.localeCompare(b.id));
+    const monthly = new Map<string, number>(); // period → product of yields
+    const monthlyCount = new Map<string, number>();
+    const charRows = chars.map((c) => {
+      const all = studiesByChar.get(c.id) ?? [];
+      for (const s of all) {
+        if (s.period < trendFirst) continue;
+        const y = quickYield(s, c);
+        if (y === undefined) continue;
+        monthly.set(s.period, (monthly.get(s.period) ?? 1) * y);
+        monthlyCount.set(s.period, (monthlyCount.get(s.period) ?? 0) + 1);
+      }
+      const inWindow = all.filter((s) => s.period >= first);
+      const cacheKey = `${c.id}@${c.rev}|${first}|${inWindow.map((s) => `${s.id}@${s.rev}`).join(',')}`;
+      let cached = options.cache?.get(cacheKey);
+      if (!cached) {
+        const w = windowData(inWindow);
+        let result: CapabilityResult | undefined;
+        if (w) {
+          try {
+            result = capabilityOfStudy(
+              { data: w.data },
+              c,
+              w.sdWithin !== undefined ? { sdWithin: w.sdWithin } : {}
+            );
+          } catch {
+            result = undefined;
+          }
+        }
+        cached = { result, months: w?.months.length ?? 0 };
+        options.cache?.set(cacheKey, cached);
+      }
+      return judgeCharacteristic(c, cached.result, profile, cached.months);
+    });
+    const withData = charRows.filter((r) => r.result);
+    const badges = new Set<Badge>(withData.flatMap((r) => r.badges));
+    if (withData.length && withData.length < charRows.length) badges.add('incomplete');
+    const riskClass: RiskClass = chars.some((c) => c.riskClass === 'safety')
+      ? 'safety'
+      : chars.some((c) => c.riskClass === 'key')
+        ? 'key'
+        : 'standard';
+    const row: ProcessRow = {
+      process,
+      site,
+      profile,
+      characteristics: charRows,
+      status: charRows.length
+        ? charRows.reduce<CharacteristicStatus>(
+            (worst, r) =>
+              r.status !== 'no recent data' && statusRank(r.status) < statusRank(worst) ? r.status : worst,
+            'no recent data'
+          )
+        : 'no recent data',
+      trend: [],
+      badges: [...badges],
+      projects: projectsByProcess.get(process.id) ?? [],
+      priority: 0,
+      riskClass
+    };
+    if (withData.length) {
+      const y = withData.reduce((a, r) => a * (r.result as CapabilityResult).yield, 1);
+      row.yield = y;
+      row.ppm = (1 - y) * 1e6;
+      row.zLevel = normalUpperQuantile(Math.min(1, 1 - y)) + shift;
+      row.weakest = withData.reduce((a, b) => ((b.zGap ?? Infinity) < (a.zGap ?? Infinity) ? b : a));
+      row.zGap = row.weakest.zGap;
+      row.costPerYear = (1 - y) * process.monthlyVolume * 12 * process.costPerDefective;
+    }
+    for (let m = 0; m < trendMonths; m += 1) {
+      const period = addMonths(trendFirst, m);
+      const y = monthly.get(period);
+      row.trend.push(
+        y !== undefined && monthlyCount.get(period) === chars.length
+          ? normalUpperQuantile(Math.min(1, 1 - y)) + shift
+          : undefined
+      );
+    }
+    const sl = slope(row.trend);
+    if (sl !== undefined) row.trendSlope = sl;
+    const notShown = withData.some((r) => r.status !== 'meets, shown') ? 1 : 0;
+    row.priority =
+      weights.gap * Math.max(0, -(row.zGap ?? 0)) +
+      weights.cost * Math.log10(1 + (row.costPerYear ?? 0)) +
+      weights.risk * RISK_WEIGHT[riskClass] +
+      weights.confidence * notShown;
+    rows.push(row);
+  }
+  return sortRows(rows, options.order ?? 'priority');
+}
+
+/** Deterministic order: the chosen key, then zGap ascending, cost descending, process name, process id. */
+export function sortRows(rows: ProcessRow[], order: RankingOrder): ProcessRow[] {
+  const key = (r: ProcessRow): number => {
+    switch (order) {
+      case 'priority':
+        return -r.priority;
+      case 'gap':
+        return r.zGap ?? Infinity;
+      case 'cost':
+        return -(r.costPerYear ?? -Infinity);
+      case 'risk':
+        return -RISK_WEIGHT[r.riskClass];
+      case 'confidence':
+        return statusRank(r.status);
+    }
+  };
+  return [...rows].sort(
+    (a, b) =>
+      key(a) - key(b) ||
+      (a.zGap ?? Infinity) - (b.zGap ?? Infinity) ||
+      (b.costPerYear ?? 0) - (a.costPerYear ?? 0) ||
+      a.process.name.localeCompare(b.process.name) ||
+      a.process.id.localeCompare(b.process.id)
+  );
+}
