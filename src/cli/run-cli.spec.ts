@@ -179,3 +179,34 @@ describe('capstan counts and convert', () => {
     expect(bad.stderr).toMatch(/--units must be a number, got 'x'/);
   });
 });
+
+describe('capstan rank', () => {
+  const demoFile = new URL('../../seed-data/demo-portfolio.json', import.meta.url).pathname;
+
+  it('ranks the demo portfolio with the same rows and order as the ranking module', async () => {
+    const { rankPortfolio } = await import('../lib/domain/portfolio-ranking');
+    const { BUILT_IN_PROFILES } = await import('../lib/domain/context-profile');
+    const { parseDemoPortfolio } = await import('../lib/domain/demo-portfolio');
+    const { readFileSync } = await import('node:fs');
+    const r = await run('rank', demoFile, '--quarter', '2026-Q3', '--json');
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(j.endPeriod).toBe('2026-09');
+    expect(j.windowMonths).toBe(3);
+    const records = parseDemoPortfolio(JSON.parse(readFileSync(demoFile, 'utf8'))).records;
+    const direct = rankPortfolio(records, BUILT_IN_PROFILES, { endPeriod: '2026-09', windowMonths: 3 });
+    expect(j.rows.map((x: { process: string }) => x.process)).toEqual(direct.map((x) => x.process.name));
+  });
+
+  it.each([
+    [['rank'], /needs a portfolio file/],
+    [['rank', '/nonexistent.json'], /Cannot read/],
+    [['rank', furnaceCsv], /is not JSON/],
+    [['rank', file('other.json', '{"kind":"other"}')], /is not a portfolio file: kind/],
+    [['rank', furnaceCsv, '--quarter', '2026-Q9'], /--quarter must be written YYYY-Qn/]
+  ])('bad input %j: exit 2 with one line', async (argv, message) => {
+    const r = await run(...(argv as string[]));
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(message as RegExp);
+  });
+});

@@ -4,6 +4,7 @@ import { UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
 import { convertCommand } from './convert-command';
 import { countsCommand } from './counts-command';
+import { rankCommand } from './rank-command';
 
 export const USAGE = `Capstan command line — capability figures with their assumptions
 
@@ -14,6 +15,7 @@ export const USAGE = `Capstan command line — capability figures with their ass
           [--shift 1.5] [--min-index 1.33] [--json]
   counts  --units N (--defectives D | --defects D [--opportunities O]) [--confidence 0.95] [--shift 1.5] [--json]
   convert (--ppm X | --yield Y | --z Z) [--shift 1.5] [--json]
+  rank    FILE [--period YYYY-MM | --quarter YYYY-Qn] [--window months] [--json]
 
 Exit 0 on success; 2 on bad input, with one line on stderr saying what and where.`;
 
@@ -28,6 +30,8 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         return countsCommand(rest, io);
       case 'convert':
         return convertCommand(rest, io);
+      case 'rank':
+        return await rankCommand(rest, io);
       case undefined:
       case 'help':
       case '--help':
@@ -35,7 +39,7 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         return command === undefined ? 2 : 0;
       default:
         throw new UsageError(
-          `Unknown command '${command}'; use analyze, counts or convert (help lists them)`
+          `Unknown command '${command}'; use analyze, counts, convert or rank (help lists them)`
         );
     }
   } catch (error) {

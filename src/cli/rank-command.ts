@@ -1,0 +1,132 @@
+import { readFile } from 'node:fs/promises';
+import { BUILT_IN_PROFILES } from '../lib/domain/context-profile';
+import { parseDemoPortfolio } from '../lib/domain/demo-portfolio';
+import { isPeriod, periodsOfQuarter } from '../lib/domain/period';
+import { rankPortfolio, type ProcessRow } from '../lib/domain/portfolio-ranking';
+import { ValidationError } from '../lib/domain/validation-error';
+import { integerFlag, parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
+import type { CliIo } from './cli-io';
+
+const KNOWN = ['period', 'quarter', 'window', 'json'];
+
+/** The numbers of one row as the JSON output and the table show them (same figures, same order as the app). */
+function summarise(row: ProcessRow, rank: number) {
+  const weakest = row.weakest;
+  return {
+    rank,
+    process: row.process.name,
+    site: row.site.name,
+    context: row.profile?.label ?? row.process.contextId,
+    status: row.status,
+    yield: row.yield,
+    ppm: row.ppm,
+    zLevel: row.zLevel,
+    zGap: row.zGap,
+    weakest: weakest?.characteristic.name,
+    rulingEstimate: weakest?.estimate,
+    rulingBound: weakest?.bound,
+    required: weakest?.required,
+    measure: row.profile?.measure,
+    costPerYear: row.costPerYear,
+    currency: row.process.currency,
+    trendSlope: row.trendSlope,
+    badges: row.badges,
+    projects: row.projects.map((p) => `${p.phase}: ${p.title}`),
+    priority: row.priority
+  };
+}
+
+const f = (v: number | undefined, digits = 2) =>
+  v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
+
+export async function rankCommand(argv: readonly string[], io: CliIo): Promise<number> {
+  const args = parseArguments(argv, ['json']);
+  rejectUnknown(args, KNOWN, 'rank');
+  const file = args.positional[0];
+  if (!file)
+    throw new UsageError(
+      'rank needs a portfolio file: rank FILE [--period YYYY-MM | --quarter YYYY-Qn] [--window months]'
+    );
+  const period = stringFlag(args, 'period');
+  const quarter = stringFlag(args, 'quarter');
+  if (period !== undefined && quarter !== undefined)
+    throw new UsageError('Give --period or --quarter, not both');
+  if (period !== undefined && !isPeriod(period))
+    throw new UsageError(`--period must be a month written YYYY-MM, got '${period}'`);
+  let quarterMonths: string[] | undefined;
+  if (quarter !== undefined) {
+    try {
+      quarterMonths = periodsOfQuarter(quarter);
+    } catch {
+      throw new UsageError(`--quarter must be written YYYY-Qn, got '${quarter}'`);
+    }
+  }
+  const window = integerFlag(args, 'window') ?? (quarterMonths ? 3 : 1);
+  if (window < 1 || window > 120)
+    throw new UsageError(`--window must be between 1 and 120 months, got ${window}`);
+  let text: string;
+  try {
+    text = await readFile(file, 'utf8');
+  } catch {
+    throw new UsageError(`Cannot read '${file}': no such file or not readable`);
+  }
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (error) {
+    throw new UsageError(`'${file}' is not JSON: ${(error as Error).message}`);
+  }
+  let records;
+  try {
+    records = parseDemoPortfolio(json).records;
+  } catch (error) {
+    if (error instanceof ValidationError)
+      throw new UsageError(
+        `'${file}' is not a portfolio file: ${error.problems[0]?.field} — ${error.problems[0]?.message}`
+      );
+    throw error;
+  }
+  const latest = records.studies.reduce((a, s) => (s.period > a ? s.period : a), '');
+  const endPeriod = period ?? quarterMonths?.[2] ?? latest;
+  if (!endPeriod) throw new UsageError(`'${file}' holds no studies to rank`);
+  const rows = rankPortfolio(records, BUILT_IN_PROFILES, { endPeriod, windowMonths: window });
+  const out = rows.map((r, i) => summarise(r, i + 1));
+  if (args.flags.has('json')) {
+    io.stdout(
+      JSON.stringify(
+        { endPeriod, windowMonths: window, rows: out },
+        (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v),
+        2
+      )
+    );
+    return 0;
+  }
+  const lines = [
+    `Portfolio for the ${window} month${window === 1 ? '' : 's'} ending ${endPeriod} (${out.length} processes), highest priority first`,
+    ''
+  ];
+  lines.push(
+    ['#', 'priority', 'status', 'z-level', 'z gap', 'cost/yr', 'process', 'site', 'weakest'].join('\t')
+  );
+  for (const r of out) {
+    lines.push(
+      [
+        r.rank,
+        f(r.priority),
+        r.status,
+        f(r.zLevel),
+        f(r.zGap),
+        r.costPerYear === undefined ? '–' : `${Math.round(r.costPerYear)} ${r.currency}`,
+        r.process,
+        r.site,
+        r.weakest ?? '–'
+      ].join('\t')
+    );
+  }
+  lines.push(
+    '',
+    'Targets are the built-in context defaults; customer-specific and regulatory requirements prevail.'
+  );
+  io.stdout(lines.join('\n'));
+  return 0;
+}
