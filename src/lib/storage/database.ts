@@ -1,5 +1,6 @@
 import { Dexie, type DexieOptions, type Table } from 'dexie';
 import type { Characteristic } from '../domain/characteristic';
+import type { ContextProfileRecord } from '../domain/context-profile-record';
 import type { ImprovementProject } from '../domain/improvement-project';
 import type { Process } from '../domain/process';
 import type { Site } from '../domain/site';
@@ -46,6 +47,7 @@ export class CapstanDatabase extends Dexie {
   deviceSettings!: Table<DeviceSetting, string>;
   entryDrafts!: Table<EntryDraft, string>;
   studyRevisions!: Table<StudyRevision, string>;
+  contextProfiles!: Table<ContextProfileRecord, string>;
 
   constructor(name: string = DEFAULT_DATABASE_NAME, options?: DexieOptions) {
     super(name, options);

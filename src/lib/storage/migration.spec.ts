@@ -2,7 +2,7 @@ import 'fake-indexeddb/auto';
 import { Dexie } from 'dexie';
 import { describe, expect, it } from 'vitest';
 import { CapstanDatabase } from './database';
-import { SCHEMA_V1, SCHEMA_V2 } from './schema-versions';
+import { SCHEMA_V1, SCHEMA_V2, SCHEMA_V3 } from './schema-versions';
 
 /**
  * Opens a database as schema v1 shipped it, fills it with v1-shaped records, then reopens it with the
@@ -78,7 +78,7 @@ describe('schema upgrade v1 → v2', () => {
 
     const current = new CapstanDatabase(name);
     await current.open();
-    expect(current.verno).toBe(3);
+    expect(current.verno).toBe(4);
     expect(await current.sites.toArray()).toEqual([site]);
     expect(await current.processes.toArray()).toEqual([process]);
     const upgraded = await current.characteristics.orderBy('id').toArray();
@@ -119,7 +119,7 @@ describe('schema upgrade v2 → v3', () => {
     v2.close();
     const current = new CapstanDatabase(name);
     await current.open();
-    expect(current.verno).toBe(3);
+    expect(current.verno).toBe(4);
     expect(await current.studies.toArray()).toEqual([study]);
     expect(await current.entryDrafts.count()).toBe(0);
     await current.studyRevisions.add({
@@ -130,6 +130,28 @@ describe('schema upgrade v2 → v3', () => {
       study: study as never
     });
     expect(await current.studyRevisions.where('studyId').equals(study.id).count()).toBe(1);
+    current.close();
+    await Dexie.delete(name);
+  });
+});
+
+describe('schema upgrade v3 → v4', () => {
+  it('adds the context-profile table and keeps drafts and revisions', async () => {
+    const name = 'capstan-migration-v4';
+    const v3 = new Dexie(name);
+    v3.version(1).stores(SCHEMA_V1);
+    v3.version(2).stores(SCHEMA_V2);
+    v3.version(3).stores(SCHEMA_V3);
+    await v3.open();
+    await v3
+      .table('entryDrafts')
+      .put({ key: 'c|2026-01', form: { n: '5' }, updatedAt: '2026-01-02T00:00:00.000Z' });
+    v3.close();
+    const current = new CapstanDatabase(name);
+    await current.open();
+    expect(current.verno).toBe(4);
+    expect((await current.entryDrafts.get('c|2026-01'))?.form).toEqual({ n: '5' });
+    expect(await current.contextProfiles.count()).toBe(0);
     current.close();
     await Dexie.delete(name);
   });

@@ -150,3 +150,21 @@ export async function summariseDatabase(db: CapstanDatabase): Promise<DatabaseSu
       .sort((a, b) => b.lastWrite.localeCompare(a.lastWrite))
   };
 }
+
+/** Every live record the portfolio ranking needs, read in one go (studies with their values). */
+export async function loadPortfolioRecords(db: CapstanDatabase) {
+  const [sites, processes, characteristics, studies, projects] = await Promise.all([
+    db.sites.toArray(),
+    db.processes.toArray(),
+    db.characteristics.toArray(),
+    db.studies.toArray(),
+    db.projects.toArray()
+  ]);
+  return {
+    sites: sites.filter(isLive),
+    processes: processes.filter(isLive),
+    characteristics: characteristics.filter(isLive),
+    studies: studies.filter(isLive),
+    projects: projects.filter(isLive)
+  };
+}

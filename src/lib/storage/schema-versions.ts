@@ -46,11 +46,17 @@ export const SCHEMA_V3 = {
   studyRevisions: 'id, studyId, savedAt'
 } as const;
 
-export const CURRENT_SCHEMA_VERSION = 3;
+/** v4: the manager's edited (or own) industry-context profiles, synchronised records like the others. */
+export const SCHEMA_V4 = {
+  contextProfiles: 'id, contextId, updatedAt'
+} as const;
+
+export const CURRENT_SCHEMA_VERSION = 4;
 
 /** Declares all versions on a database instance, in order. */
 export function declareSchemaVersions(db: Dexie): void {
   db.version(1).stores(SCHEMA_V1);
   db.version(2).stores(SCHEMA_V2).upgrade(upgradeToV2);
   db.version(3).stores(SCHEMA_V3);
+  db.version(4).stores(SCHEMA_V4);
 }

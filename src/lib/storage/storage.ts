@@ -5,6 +5,7 @@ import type { Process } from '../domain/process';
 import { createCharacteristicRepository } from './characteristic-repository';
 import { CapstanDatabase, DEFAULT_DATABASE_NAME } from './database';
 import { loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
+import { ContextProfileRepository } from './context-profile-repository';
 import { EntryDraftRepository } from './entry-draft-repository';
 import { createImprovementProjectRepository } from './improvement-project-repository';
 import { createProcessRepository } from './process-repository';
@@ -15,6 +16,7 @@ import { isPortfolioEmpty, loadDemoPortfolio, type DemoLoadResult } from './demo
 import { loadMonthlyLogStatus, type MonthlyLogStatus } from './monthly-log-status';
 import {
   listProcessOverviews,
+  loadPortfolioRecords,
   loadProcessDetail,
   summariseDatabase,
   type DatabaseSummary,
@@ -33,9 +35,11 @@ export interface CapstanStorage {
   readonly studies: StudyRepository;
   readonly projects: RecordRepository<ImprovementProject>;
   readonly drafts: EntryDraftRepository;
+  readonly profiles: ContextProfileRepository;
   /** Read models for the pages; each is safe to run inside a live query. */
   readonly read: {
     processOverviews(): Promise<ProcessOverview[]>;
+    portfolioRecords(): ReturnType<typeof loadPortfolioRecords>;
     processDetail(processId: string): Promise<ProcessDetail | undefined>;
     monthlyLogStatus(siteId: string, period: string): Promise<MonthlyLogStatus>;
     quarterCoverage(quarter: string): Promise<QuarterCoverage>;
@@ -66,8 +70,10 @@ export async function openStorage(
     studies: new StudyRepository(db, ctx),
     projects: createImprovementProjectRepository(db, ctx),
     drafts: new EntryDraftRepository(db),
+    profiles: new ContextProfileRepository(db, ctx),
     read: {
       processOverviews: () => listProcessOverviews(db),
+      portfolioRecords: () => loadPortfolioRecords(db),
       processDetail: (processId) => loadProcessDetail(db, processId),
       monthlyLogStatus: (siteId, period) => loadMonthlyLogStatus(db, siteId, period),
       quarterCoverage: (quarter) => loadQuarterCoverage(db, quarter),

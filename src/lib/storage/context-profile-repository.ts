@@ -1,0 +1,46 @@
+import { BUILT_IN_PROFILES, type ContextProfile } from '../domain/context-profile';
+import {
+  effectiveProfiles,
+  parseContextProfileFields,
+  type ContextProfileRecord
+} from '../domain/context-profile-record';
+import { isLive, stampDeleted, stampNew, stampUpdate, type WriteContext } from '../domain/record-meta';
+import type { CapstanDatabase } from './database';
+
+/** Industry-context profiles: the built-ins, with the manager's edits stored as records over them. */
+export class ContextProfileRepository {
+  constructor(
+    private readonly db: CapstanDatabase,
+    private readonly ctx: WriteContext
+  ) {}
+
+  async effective(): Promise<ContextProfile[]> {
+    return effectiveProfiles(BUILT_IN_PROFILES, await this.db.contextProfiles.toArray());
+  }
+
+  /** Saves a profile for its context id: a new stored profile, or the next revision of the stored one. */
+  async save(input: unknown): Promise<ContextProfileRecord> {
+    const fields = parseContextProfileFields(input);
+    return this.db.transaction('rw', this.db.contextProfiles, async () => {
+      const existing = (
+        await this.db.contextProfiles.where('contextId').equals(fields.contextId).toArray()
+      ).find(isLive);
+      const record = existing
+        ? stampUpdate(existing, fields, this.ctx)
+        : (stampNew(fields, this.ctx) as ContextProfileRecord);
+      await this.db.contextProfiles.put(record);
+      return record;
+    });
+  }
+
+  /** Drops the stored edit of a context, so the built-in default applies again. */
+  async reset(contextId: string): Promise<void> {
+    await this.db.transaction('rw', this.db.contextProfiles, async () => {
+      for (const r of (await this.db.contextProfiles.where('contextId').equals(contextId).toArray()).filter(
+        isLive
+      )) {
+        await this.db.contextProfiles.put(stampDeleted(r, this.ctx));
+      }
+    });
+  }
+}
