@@ -16,11 +16,9 @@ export type ContextProfileRecord = ContextProfileFields & RecordMeta;
 const level = (label: string) => finiteNumber(label).positive({ error: `${label} must be above zero` });
 
 export const contextProfileFieldsSchema = z.object({
-  contextId: z
-    .string({ error: 'Context id is required' })
-    .regex(/^[a-z0-9][a-z0-9-]{1,59}$/, {
-      error: 'Context id must be 2–60 lowercase letters, digits or hyphens'
-    }),
+  contextId: z.string({ error: 'Context id is required' }).regex(/^[a-z0-9][a-z0-9-]{1,59}$/, {
+    error: 'Context id must be 2–60 lowercase letters, digits or hyphens'
+  }),
   label: requiredText('Context name', 120),
   measure: z.enum(['index', 'zLevel', 'ppm'], {
     error: "The ruling measure must be 'index', 'zLevel' or 'ppm'"

@@ -1,0 +1,67 @@
+import { expect, test } from '@playwright/test';
+import { startStaticServer, type RunningServer } from './static-server';
+
+let server: RunningServer;
+test.beforeEach(async () => {
+  server = await startStaticServer();
+});
+test.afterEach(async () => {
+  await server.stop();
+});
+
+test('the ranked portfolio follows a context target change, and a click leads to the process charts', async ({
+  page
+}) => {
+  await page.goto(server.url);
+  await page.getByTestId('load-demo').click();
+  const table = page.getByTestId('portfolio-table');
+  await expect(table.locator('tbody tr')).toHaveCount(32);
+  await page.getByTestId('portfolio-order').selectOption('gap');
+  const firstSite = () => table.locator('tbody tr').first().locator('th .small').textContent();
+  expect(await firstSite()).not.toContain('Eastgate Service Centre');
+
+  // A much stricter target for service work puts a service process at the top of the gap order.
+  await page.getByRole('link', { name: 'Settings' }).click();
+  await page.getByRole('button', { name: 'Edit targets of Transactional and service work' }).click();
+  await page.getByTestId('profile-form').locator('input[name="level-standard"]').fill('7');
+  await page.getByTestId('profile-form').locator('input[name="level-key"]').fill('7');
+  await page.getByRole('button', { name: 'Save targets' }).click();
+  await expect(page.getByText('Saved the targets of Transactional and service work')).toBeVisible();
+  await page.getByRole('link', { name: 'Portfolio', exact: true }).click();
+  await page.getByTestId('portfolio-order').selectOption('gap');
+  await expect(table.locator('tbody tr').first().locator('th .small')).toContainText(
+    'Eastgate Service Centre'
+  );
+
+  // Badges explain themselves in one sentence.
+  const badge = table.getByRole('button', { name: 'shift convention' }).first();
+  await badge.click();
+  await expect(page.getByRole('note').first()).toContainText('1.5 is added to every long-term z-level');
+
+  // A project in one action from a short row.
+  const shortRow = table.locator('tbody tr').filter({ hasText: 'none, short' }).first();
+  const name = (await shortRow.locator('th a').textContent())?.trim() as string;
+  await shortRow.getByRole('button', { name: `Details of ${name}` }).click();
+  await page.getByTestId('create-project').click();
+  await expect(page.getByText(`(Define phase) on ${name}`)).toBeVisible();
+  await expect(table.locator('tbody tr').filter({ hasText: name }).first()).toContainText('Define');
+
+  // The process page draws its charts.
+  await page.getByTestId('row-detail').getByRole('link', { name }).click();
+  await expect(page.getByRole('heading', { level: 1 })).toHaveText(name);
+  await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
+  expect(await page.getByTestId('chart').count()).toBeGreaterThanOrEqual(1);
+});
+
+test('a measured process page shows history, histogram, probability plot and control chart', async ({
+  page
+}) => {
+  await page.goto(server.url);
+  await page.getByTestId('load-demo').click();
+  await page.getByRole('link', { name: 'Camshaft journal grinding — line A', exact: true }).click();
+  await expect(page.getByText('Journal diameter: z-level by month, required')).toBeVisible();
+  await expect(page.getByText(/Journal diameter, \d{4}-\d{2}: values with the limits/)).toBeVisible();
+  await expect(page.getByText(/Journal diameter, \d{4}-\d{2}: normal probability plot/)).toBeVisible();
+  await expect(page.getByText(/Journal diameter, \d{4}-\d{2}: control chart/)).toBeVisible();
+  await expect(page.getByTestId('chart').nth(3).locator('svg')).toBeVisible();
+});
