@@ -128,7 +128,8 @@ export async function summariseDatabase(db: CapstanDatabase): Promise<DatabaseSu
     ['Processes', db.processes],
     ['Characteristics', db.characteristics],
     ['Studies', db.studies],
-    ['Improvement projects', db.projects]
+    ['Improvement projects', db.projects],
+    ['Context targets (edited)', db.contextProfiles]
   ] as const;
   for (const [name, table] of named) {
     let live = 0;
