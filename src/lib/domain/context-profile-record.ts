@@ -46,22 +46,14 @@ export function effectiveProfiles(
 ): ContextProfile[] {
   const live = stored.filter((s) => s.deletedAt === undefined);
   const byContext = new Map(live.map((s) => [s.contextId, s]));
-  const toProfile = ({
-    contextId,
-    label,
-    measure,
-    levels,
-    reporting,
-    confidence,
-    source
-  }: ContextProfileFields): ContextProfile => ({
-    id: contextId,
-    label,
-    measure,
-    levels,
-    reporting,
-    confidence,
-    source
+  const toProfile = (r: ContextProfileFields): ContextProfile => ({
+    id: r.contextId,
+    label: r.label,
+    measure: r.measure,
+    levels: r.levels,
+    reporting: r.reporting,
+    confidence: r.confidence,
+    source: r.source
   });
   const out = builtIn.map((p) => (byContext.has(p.id) ? toProfile(byContext.get(p.id)!) : p));
   for (const s of live) if (!builtIn.some((p) => p.id === s.contextId)) out.push(toProfile(s));
