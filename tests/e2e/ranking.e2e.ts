@@ -18,6 +18,17 @@ test('the ranked portfolio follows a context target change, and a click leads to
   await expect(table.locator('tbody tr')).toHaveCount(32);
   await page.getByTestId('portfolio-order').selectOption('gap');
   const firstSite = () => table.locator('tbody tr').first().locator('th .small').textContent();
+
+  // The table as a spreadsheet file, offline-capable (no server involved in the download).
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByTestId('portfolio-csv').click()
+  ]);
+  expect(download.suggestedFilename()).toMatch(/^capstan-portfolio-\d{4}-\d{2}-3m\.csv$/);
+  const csvText = await (await download.createReadStream()).toArray();
+  const csv = Buffer.concat(csvText).toString('utf8');
+  expect(csv.split('\r\n')[0]).toMatch(/^rank,process,site,context,status/);
+  expect(csv.trim().split('\r\n')).toHaveLength(33);
   expect(await firstSite()).not.toContain('Eastgate Service Centre');
 
   // A much stricter target for service work puts a service process at the top of the gap order.
