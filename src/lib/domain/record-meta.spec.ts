@@ -1,5 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { isLive, stampDeleted, stampNew, stampRestored, stampUpdate, type WriteContext } from './record-meta';
+import {
+  clockOf,
+  isLive,
+  stampDeleted,
+  stampNew,
+  stampRestored,
+  stampUpdate,
+  versionOf,
+  type WriteContext
+} from './record-meta';
 
 function clockAt(...times: string[]): WriteContext {
   let i = 0;
@@ -19,7 +28,9 @@ describe('record bookkeeping', () => {
       createdAt: '2026-01-01T00:00:00.000Z',
       updatedAt: '2026-01-01T00:00:00.000Z',
       rev: 1,
-      deviceId: 'dev-a'
+      deviceId: 'dev-a',
+      vv: { 'dev-a': 1 },
+      clock: '1767225600000-0000-dev-a'
     });
   });
 
@@ -36,7 +47,35 @@ describe('record bookkeeping', () => {
       createdAt: created.createdAt,
       rev: 2,
       deviceId: 'dev-b',
-      name: 'y'
+      name: 'y',
+      vv: { 'dev-a': 1, 'dev-b': 1 }
+    });
+  });
+
+  it('stamps an edit later than the edited version even when this device clock is behind', () => {
+    const created = stampNew({ name: 'x' }, clockAt('2026-06-01T00:00:00Z'));
+    const behind = stampUpdate(
+      created,
+      { name: 'y' },
+      { ...clockAt('2026-01-01T00:00:00Z'), deviceId: 'dev-b' }
+    );
+    expect(behind.clock! > created.clock!).toBe(true);
+    expect(behind.clock).toBe('1780272000000-0001-dev-b');
+  });
+
+  it('reads the version of a record written before vectors existed from its rev and writer', () => {
+    const old = {
+      id: 'a',
+      createdAt: '2026-01-01T00:00:00Z',
+      updatedAt: '2026-01-02T00:00:00Z',
+      rev: 3,
+      deviceId: 'd'
+    };
+    expect(versionOf(old)).toEqual({ d: 3 });
+    expect(clockOf(old)).toBe('1767312000000-0000-d');
+    expect(stampUpdate(old, {}, clockAt('2026-02-01T00:00:00Z'))).toMatchObject({
+      rev: 4,
+      vv: { d: 3, 'dev-a': 1 }
     });
   });
 

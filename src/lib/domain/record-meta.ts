@@ -1,11 +1,21 @@
+import { HybridClock, legacyStamp, nextStamp, type ClockStamp } from './hybrid-clock';
+import { bumpVersion, writeCount, type VersionVector } from './version-vector';
+
 /**
  * Bookkeeping every stored record carries, so that files from different devices can be merged later
  * without losing or resurrecting anything.
  *
  * - `id` is a UUID that never changes, whatever device created the record.
- * - `rev` starts at 1 and grows by one on every write, on whichever device makes it.
+ * - `rev` starts at 1 and grows by one on every write, on whichever device makes it (after a merge: the total
+ *   number of writes the merged version has seen).
  * - `deviceId` names the device of the last write; `createdAt`/`updatedAt` are ISO 8601 UTC times of that device.
  * - `deletedAt` set means the record is a tombstone: it stays stored so that the deletion travels to other devices.
+ * - `vv` is the record's version vector (device id → writes by that device), which tells the merge exactly
+ *   whether one version descends from another; `rev` is its total. `clock` is the hybrid-clock stamp of the
+ *   last write, used only to order edits that were made concurrently ("newer edit wins").
+ *   Both are optional in the type because records written before they existed (and the demo file) lack them;
+ *   `versionOf` and `clockOf` give the values such a record implies.
+ * - `localSeq` is device-local (never exported): this device's write sequence, for "changes since".
  */
 export interface RecordMeta {
   id: string;
@@ -14,6 +24,9 @@ export interface RecordMeta {
   rev: number;
   deviceId: string;
   deletedAt?: string;
+  vv?: VersionVector;
+  clock?: ClockStamp;
+  localSeq?: number;
 }
 
 /** What a writer needs to stamp a record: kept as an argument so the domain stays free of clocks and globals. */
@@ -21,9 +34,42 @@ export interface WriteContext {
   deviceId: string;
   now: () => Date;
   newId: () => string;
+  /** This device's hybrid clock; without one, stamps follow `now()` (still never behind the edited version). */
+  clock?: HybridClock;
 }
 
-export const META_KEYS = ['id', 'createdAt', 'updatedAt', 'rev', 'deviceId', 'deletedAt'] as const;
+export const META_KEYS = [
+  'id',
+  'createdAt',
+  'updatedAt',
+  'rev',
+  'deviceId',
+  'deletedAt',
+  'vv',
+  'clock',
+  'localSeq'
+] as const;
+
+/** The version vector a record carries, or for an older record the one its `rev` and writer imply. */
+export function versionOf(record: RecordMeta): VersionVector {
+  return record.vv ?? { [record.deviceId]: record.rev };
+}
+
+/** The record's clock stamp, or for an older record one made from its update time. */
+export function clockOf(record: RecordMeta): ClockStamp {
+  return record.clock ?? legacyStamp(record.updatedAt, record.deviceId);
+}
+
+function stampAfter(ctx: WriteContext, previous?: RecordMeta): ClockStamp {
+  const after = previous ? clockOf(previous) : undefined;
+  return ctx.clock ? ctx.clock.tick(after) : nextStamp(after, ctx.now().getTime(), ctx.deviceId);
+}
+
+/** Bookkeeping of the next write of `previous` by this device. */
+function nextWrite(previous: RecordMeta, ctx: WriteContext) {
+  const vv = bumpVersion(versionOf(previous), ctx.deviceId);
+  return { rev: writeCount(vv), vv, clock: stampAfter(ctx, previous), deviceId: ctx.deviceId };
+}
 
 /** The fields a caller edits: everything but the bookkeeping. */
 export type Editable<T extends RecordMeta> = Omit<T, keyof RecordMeta>;
@@ -31,7 +77,17 @@ export type Editable<T extends RecordMeta> = Omit<T, keyof RecordMeta>;
 /** Stamps a new record (rev 1). */
 export function stampNew<T extends object>(fields: T, ctx: WriteContext): T & RecordMeta {
   const at = ctx.now().toISOString();
-  return { ...fields, id: ctx.newId(), createdAt: at, updatedAt: at, rev: 1, deviceId: ctx.deviceId };
+  const vv = { [ctx.deviceId]: 1 };
+  return {
+    ...fields,
+    id: ctx.newId(),
+    createdAt: at,
+    updatedAt: at,
+    rev: 1,
+    deviceId: ctx.deviceId,
+    vv,
+    clock: stampAfter(ctx)
+  };
 }
 
 /** Stamps a change to an existing record: same id and creation time, next revision. */
@@ -42,15 +98,14 @@ export function stampUpdate<T extends RecordMeta>(previous: T, fields: Editable<
     id: previous.id,
     createdAt: previous.createdAt,
     updatedAt: ctx.now().toISOString(),
-    rev: previous.rev + 1,
-    deviceId: ctx.deviceId
+    ...nextWrite(previous, ctx)
   } as T;
 }
 
 /** Turns a record into a tombstone. Its fields stay so that a conflicting edit elsewhere can be shown beside it. */
 export function stampDeleted<T extends RecordMeta>(previous: T, ctx: WriteContext): T {
   const at = ctx.now().toISOString();
-  return { ...previous, updatedAt: at, deletedAt: at, rev: previous.rev + 1, deviceId: ctx.deviceId };
+  return { ...previous, updatedAt: at, deletedAt: at, ...nextWrite(previous, ctx) };
 }
 
 /** Undoes a deletion as a new revision (never by rewriting history). */
@@ -58,8 +113,7 @@ export function stampRestored<T extends RecordMeta>(previous: T, ctx: WriteConte
   const restored: T = {
     ...previous,
     updatedAt: ctx.now().toISOString(),
-    rev: previous.rev + 1,
-    deviceId: ctx.deviceId
+    ...nextWrite(previous, ctx)
   };
   delete restored.deletedAt;
   return restored;

@@ -5,6 +5,8 @@ import type { ImprovementProject } from '../domain/improvement-project';
 import type { Process } from '../domain/process';
 import type { Site } from '../domain/site';
 import type { Study } from '../domain/study';
+import { RECORD_KINDS } from '../domain/record-kinds';
+import { LocalSequence, localSequenceMiddleware } from './local-sequence';
 import { declareSchemaVersions } from './schema-versions';
 
 /** Settings that belong to this device only and never travel in an export. */
@@ -27,7 +29,7 @@ export interface StudyRevision {
   studyId: string;
   savedAt: string;
   /** Why it was kept: the change that followed it. */
-  reason: 'replaced' | 'combined' | 'restored';
+  reason: 'replaced' | 'combined' | 'restored' | 'imported';
   study: Study;
 }
 
@@ -49,9 +51,19 @@ export class CapstanDatabase extends Dexie {
   studyRevisions!: Table<StudyRevision, string>;
   contextProfiles!: Table<ContextProfileRecord, string>;
 
+  /** This device's write sequence (see local-sequence.ts); resumes above the highest stored value on open. */
+  readonly sequence = new LocalSequence();
+
   constructor(name: string = DEFAULT_DATABASE_NAME, options?: DexieOptions) {
     super(name, options);
     declareSchemaVersions(this);
+    this.use(localSequenceMiddleware(this.sequence));
+    this.on('ready', async () => {
+      for (const kind of RECORD_KINDS) {
+        const last = (await this.table(kind).orderBy('localSeq').last()) as { localSeq?: number } | undefined;
+        this.sequence.startAbove(last?.localSeq ?? 0);
+      }
+    });
   }
 }
 

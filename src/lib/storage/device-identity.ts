@@ -1,3 +1,4 @@
+import { HybridClock, isClockStamp } from '../domain/hybrid-clock';
 import type { WriteContext } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
 
@@ -30,6 +31,21 @@ export async function saveDeviceName(db: CapstanDatabase, name: string): Promise
   return trimmed;
 }
 
-export function writeContextFor(deviceId: string): WriteContext {
-  return { deviceId, now: () => new Date(), newId: () => crypto.randomUUID() };
+const CLOCK_KEY = 'clock';
+
+/**
+ * This device's hybrid clock, resumed from the latest stamp saved (on every import and export). Stamps issued
+ * between saves are not lost: each write is also stamped after the version it edits.
+ */
+export async function loadClock(db: CapstanDatabase, deviceId: string): Promise<HybridClock> {
+  const row = await db.deviceSettings.get(CLOCK_KEY);
+  return new HybridClock(deviceId, () => Date.now(), isClockStamp(row?.value) ? row.value : undefined);
+}
+
+export async function saveClock(db: CapstanDatabase, clock: HybridClock): Promise<void> {
+  if (clock.latest !== undefined) await db.deviceSettings.put({ key: CLOCK_KEY, value: clock.latest });
+}
+
+export function writeContextFor(deviceId: string, clock?: HybridClock): WriteContext {
+  return { deviceId, now: () => new Date(), newId: () => crypto.randomUUID(), clock };
 }

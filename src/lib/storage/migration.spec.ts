@@ -2,7 +2,7 @@ import 'fake-indexeddb/auto';
 import { Dexie } from 'dexie';
 import { describe, expect, it } from 'vitest';
 import { CapstanDatabase } from './database';
-import { SCHEMA_V1, SCHEMA_V2, SCHEMA_V3 } from './schema-versions';
+import { CURRENT_SCHEMA_VERSION, SCHEMA_V1, SCHEMA_V2, SCHEMA_V3, SCHEMA_V4 } from './schema-versions';
 
 /**
  * Opens a database as schema v1 shipped it, fills it with v1-shaped records, then reopens it with the
@@ -78,13 +78,13 @@ describe('schema upgrade v1 → v2', () => {
 
     const current = new CapstanDatabase(name);
     await current.open();
-    expect(current.verno).toBe(4);
-    expect(await current.sites.toArray()).toEqual([site]);
-    expect(await current.processes.toArray()).toEqual([process]);
+    expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
+    expect(await current.sites.toArray()).toMatchObject([site]);
+    expect(await current.processes.toArray()).toMatchObject([process]);
     const upgraded = await current.characteristics.orderBy('id').toArray();
-    expect(upgraded).toEqual(characteristics.map((c) => ({ ...c, riskClass: 'standard' })));
+    expect(upgraded).toMatchObject(characteristics.map((c) => ({ ...c, riskClass: 'standard' })));
     expect(await current.studies.count()).toBe(31);
-    expect(await current.studies.get(tombstone.id)).toEqual(tombstone);
+    expect(await current.studies.get(tombstone.id)).toMatchObject(tombstone);
     // The new compound index answers.
     const march = await current.studies
       .where('[characteristicId+period]')
@@ -119,8 +119,8 @@ describe('schema upgrade v2 → v3', () => {
     v2.close();
     const current = new CapstanDatabase(name);
     await current.open();
-    expect(current.verno).toBe(4);
-    expect(await current.studies.toArray()).toEqual([study]);
+    expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
+    expect(await current.studies.toArray()).toMatchObject([study]);
     expect(await current.entryDrafts.count()).toBe(0);
     await current.studyRevisions.add({
       id: 'r1',
@@ -149,9 +149,45 @@ describe('schema upgrade v3 → v4', () => {
     v3.close();
     const current = new CapstanDatabase(name);
     await current.open();
-    expect(current.verno).toBe(4);
+    expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
     expect((await current.entryDrafts.get('c|2026-01'))?.form).toEqual({ n: '5' });
     expect(await current.contextProfiles.count()).toBe(0);
+    current.close();
+    await Dexie.delete(name);
+  });
+});
+
+describe('schema upgrade v4 → v5', () => {
+  it('gives every record the version, clock and write sequence its v4 bookkeeping implies', async () => {
+    const name = 'capstan-migration-v5';
+    const v4 = new Dexie(name);
+    v4.version(1).stores(SCHEMA_V1);
+    v4.version(2).stores(SCHEMA_V2);
+    v4.version(3).stores(SCHEMA_V3);
+    v4.version(4).stores(SCHEMA_V4);
+    await v4.open();
+    const site = {
+      id: '88888888-8888-4888-8888-888888888888',
+      createdAt: '2026-01-05T00:00:00.000Z',
+      updatedAt: '2026-03-05T10:00:00.000Z',
+      rev: 3,
+      deviceId: 'dev-v4',
+      name: 'Plant',
+      region: '',
+      timeZone: 'UTC'
+    };
+    await v4.table('sites').add(site);
+    v4.close();
+    const current = new CapstanDatabase(name);
+    await current.open();
+    expect(current.verno).toBe(5);
+    const upgraded = await current.sites.get(site.id);
+    expect(upgraded).toMatchObject({ ...site, vv: { 'dev-v4': 3 }, clock: '1772704800000-0000-dev-v4' });
+    expect(typeof upgraded?.localSeq).toBe('number');
+    // The sequence index answers "changed since".
+    expect(await current.sites.where('localSeq').above(0).count()).toBe(1);
+    // New writes continue above every stored sequence value.
+    expect(current.sequence.latest).toBeGreaterThanOrEqual(upgraded!.localSeq!);
     current.close();
     await Dexie.delete(name);
   });

@@ -1,4 +1,5 @@
 import type { Dexie, Transaction } from 'dexie';
+import { legacyStamp } from '../domain/hybrid-clock';
 
 /**
  * Every schema version the app has shipped, oldest first. A version that has shipped is never edited:
@@ -51,7 +52,36 @@ export const SCHEMA_V4 = {
   contextProfiles: 'id, contextId, updatedAt'
 } as const;
 
-export const CURRENT_SCHEMA_VERSION = 4;
+/**
+ * v5: file exchange. Every synchronised record gets a version vector and a hybrid-clock stamp (records of
+ * v1–v4 get the ones their `rev`, writer and update time imply, so nothing they say changes), and an indexed,
+ * device-local write sequence `localSeq` so that "everything changed since the last file sent to X" is an
+ * index range, not a scan. Records of v1–v4 get their update time as sequence: all count as not yet sent.
+ */
+export const SCHEMA_V5 = {
+  sites: 'id, name, updatedAt, localSeq',
+  processes: 'id, siteId, contextId, updatedAt, localSeq',
+  characteristics: 'id, processId, updatedAt, localSeq',
+  studies: 'id, characteristicId, period, updatedAt, [characteristicId+period], localSeq',
+  projects: 'id, processId, updatedAt, localSeq',
+  contextProfiles: 'id, contextId, updatedAt, localSeq'
+} as const;
+
+export async function upgradeToV5(tx: Transaction): Promise<void> {
+  for (const name of Object.keys(SCHEMA_V5)) {
+    await tx
+      .table(name)
+      .toCollection()
+      .modify((r: Record<string, unknown>) => {
+        const deviceId = String(r.deviceId);
+        if (r.vv === undefined) r.vv = { [deviceId]: Number(r.rev) || 1 };
+        if (r.clock === undefined) r.clock = legacyStamp(String(r.updatedAt), deviceId);
+        if (r.localSeq === undefined) r.localSeq = Date.parse(String(r.updatedAt)) || 0;
+      });
+  }
+}
+
+export const CURRENT_SCHEMA_VERSION = 5;
 
 /** Declares all versions on a database instance, in order. */
 export function declareSchemaVersions(db: Dexie): void {
@@ -59,4 +89,5 @@ export function declareSchemaVersions(db: Dexie): void {
   db.version(2).stores(SCHEMA_V2).upgrade(upgradeToV2);
   db.version(3).stores(SCHEMA_V3);
   db.version(4).stores(SCHEMA_V4);
+  db.version(5).stores(SCHEMA_V5).upgrade(upgradeToV5);
 }

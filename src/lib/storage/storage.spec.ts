@@ -59,7 +59,7 @@ describe('repositories', () => {
     expect(site.id).toMatch(/^[0-9a-f-]{36}$/);
     expect(site.rev).toBe(1);
     expect(site.deviceId).toBe(storage.deviceId);
-    expect(await storage.sites.get(site.id)).toEqual(site);
+    expect(await storage.sites.get(site.id)).toMatchObject(site);
     expect((await storage.characteristics.list()).map((c) => c.name)).toEqual([characteristic.name]);
   });
 

@@ -4,7 +4,24 @@ import type { ImprovementProject } from '../domain/improvement-project';
 import type { Process } from '../domain/process';
 import { createCharacteristicRepository } from './characteristic-repository';
 import { CapstanDatabase, DEFAULT_DATABASE_NAME } from './database';
-import { loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
+import type { HybridClock } from '../domain/hybrid-clock';
+import type { RecordsByKind } from '../domain/record-kinds';
+import {
+  applyChangeSet,
+  collectChanges,
+  listPeers,
+  loadBackupStatus,
+  previewChangeSet,
+  recordExport,
+  type BackupStatus,
+  type CollectedChanges,
+  type ConflictChoices,
+  type ExportScope,
+  type ImportPlan,
+  type ImportResult,
+  type PeerRecord
+} from './change-set-store';
+import { loadClock, loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
 import { ContextProfileRepository } from './context-profile-repository';
 import { EntryDraftRepository } from './entry-draft-repository';
 import { createImprovementProjectRepository } from './improvement-project-repository';
@@ -46,11 +63,35 @@ export interface CapstanStorage {
     summary(): Promise<DatabaseSummary>;
     isEmpty(): Promise<boolean>;
   };
+  /** Change sets for file exchange (or any later transport). */
+  readonly exchange: {
+    collect(scope: ExportScope): Promise<CollectedChanges>;
+    recordExport(
+      at: string,
+      collected: CollectedChanges,
+      peer?: { deviceId: string; name: string }
+    ): Promise<void>;
+    preview(records: RecordsByKind): Promise<ImportPlan>;
+    apply(
+      plan: ImportPlan,
+      choices: ConflictChoices,
+      source: { deviceId: string; name: string; at: string }
+    ): Promise<ImportResult>;
+    peers(): Promise<PeerRecord[]>;
+    backupStatus(): Promise<BackupStatus>;
+    reminderDays(): Promise<number>;
+    setReminderDays(days: number): Promise<number>;
+  };
+  readonly clock: HybridClock;
   loadDemo(file: unknown): Promise<DemoLoadResult>;
   deviceName(): Promise<string>;
   setDeviceName(name: string): Promise<string>;
   close(): void;
 }
+
+const REMINDER_KEY = 'backupReminderDays';
+/** Nudge after a week of changes that are in no file: a month's logging is then at most a week at risk. */
+const DEFAULT_REMINDER_DAYS = 7;
 
 /** Opens (creating or upgrading) the database and binds the repositories to this device. */
 export async function openStorage(
@@ -60,10 +101,12 @@ export async function openStorage(
   const db = new CapstanDatabase(name, options);
   await db.open();
   const deviceId = await loadDeviceId(db);
-  const ctx = writeContextFor(deviceId);
+  const clock = await loadClock(db, deviceId);
+  const ctx = writeContextFor(deviceId, clock);
   return {
     db,
     deviceId,
+    clock,
     sites: new SiteRepository(db, ctx),
     processes: createProcessRepository(db, ctx),
     characteristics: createCharacteristicRepository(db, ctx),
@@ -79,6 +122,23 @@ export async function openStorage(
       quarterCoverage: (quarter) => loadQuarterCoverage(db, quarter),
       summary: () => summariseDatabase(db),
       isEmpty: () => isPortfolioEmpty(db)
+    },
+    exchange: {
+      collect: (scope) => collectChanges(db, scope),
+      recordExport: (at, collected, peer) => recordExport(db, clock, at, collected, peer),
+      preview: (records) => previewChangeSet(db, records),
+      apply: (plan, choices, source) => applyChangeSet(db, plan, choices, clock, source),
+      peers: () => listPeers(db),
+      backupStatus: () => loadBackupStatus(db),
+      reminderDays: async () => {
+        const v = (await db.deviceSettings.get(REMINDER_KEY))?.value;
+        return typeof v === 'number' && v >= 1 ? v : DEFAULT_REMINDER_DAYS;
+      },
+      setReminderDays: async (days) => {
+        const v = Math.min(365, Math.max(1, Math.round(days)));
+        await db.deviceSettings.put({ key: REMINDER_KEY, value: v });
+        return v;
+      }
     },
     loadDemo: (file) => loadDemoPortfolio(db, file),
     deviceName: () => loadDeviceName(db),

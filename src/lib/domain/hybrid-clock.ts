@@ -1,0 +1,93 @@
+/**
+ * Hybrid logical clock (Kulkarni, Demirbas et al., "Logical Physical Clocks and Consistent Snapshots in Globally
+ * Distributed Databases", 2014): a time stamp that follows the wall clock when it can but never runs backwards
+ * and always exceeds every stamp this device has already seen. A device whose clock is slow or was set back
+ * still stamps its edit of a record later than the version it edited, so "newer edit wins" never undoes an
+ * edit made on top of another.
+ *
+ * A stamp is written as fixed-width text, `<wall ms, 13 digits>-<counter, 4 digits>-<device id>`, so that plain
+ * string comparison is the clock's total order (ties between devices broken by device id).
+ */
+export type ClockStamp = string;
+
+const WALL_DIGITS = 13;
+const COUNTER_DIGITS = 4;
+const COUNTER_LIMIT = 10 ** COUNTER_DIGITS;
+const STAMP_PATTERN = /^(\d{13})-(\d{4})-(.+)$/;
+
+export interface ClockParts {
+  wallMs: number;
+  counter: number;
+  deviceId: string;
+}
+
+export function formatStamp({ wallMs, counter, deviceId }: ClockParts): ClockStamp {
+  return `${String(wallMs).padStart(WALL_DIGITS, '0')}-${String(counter).padStart(COUNTER_DIGITS, '0')}-${deviceId}`;
+}
+
+export function parseStamp(stamp: ClockStamp): ClockParts | undefined {
+  const m = STAMP_PATTERN.exec(stamp);
+  if (!m) return undefined;
+  return { wallMs: Number(m[1]), counter: Number(m[2]), deviceId: m[3] as string };
+}
+
+export function isClockStamp(value: unknown): value is ClockStamp {
+  return typeof value === 'string' && value.length <= 120 && STAMP_PATTERN.test(value);
+}
+
+/** The stamp a record written before clocks existed is given: its update time, counter 0, its writer. */
+export function legacyStamp(updatedAt: string, deviceId: string): ClockStamp {
+  const ms = Date.parse(updatedAt);
+  return formatStamp({ wallMs: Number.isFinite(ms) && ms > 0 ? ms : 0, counter: 0, deviceId });
+}
+
+/** Later of two stamps (either may be missing). */
+export function laterStamp(a: ClockStamp | undefined, b: ClockStamp | undefined): ClockStamp | undefined {
+  if (a === undefined) return b;
+  if (b === undefined) return a;
+  return a >= b ? a : b;
+}
+
+/**
+ * The next stamp after `last` (this device's latest, or the stamp of the version being edited) at wall time
+ * `nowMs`: the wall clock if it is ahead, otherwise the same wall time with the counter advanced.
+ */
+export function nextStamp(last: ClockStamp | undefined, nowMs: number, deviceId: string): ClockStamp {
+  const prev = last === undefined ? undefined : parseStamp(last);
+  if (!prev || nowMs > prev.wallMs)
+    return formatStamp({ wallMs: Math.max(0, Math.floor(nowMs)), counter: 0, deviceId });
+  const counter = prev.counter + 1;
+  return counter < COUNTER_LIMIT
+    ? formatStamp({ wallMs: prev.wallMs, counter, deviceId })
+    : formatStamp({ wallMs: prev.wallMs + 1, counter: 0, deviceId });
+}
+
+/**
+ * One device's clock. `observe` is called with every stamp that arrives from elsewhere (imports), `tick` for
+ * every write; `after` is the stamp of the version a write replaces, so a record's stamps always increase.
+ */
+export class HybridClock {
+  private last: ClockStamp | undefined;
+
+  constructor(
+    readonly deviceId: string,
+    private readonly wallMs: () => number = () => Date.now(),
+    initial?: ClockStamp
+  ) {
+    this.last = initial;
+  }
+
+  tick(after?: ClockStamp): ClockStamp {
+    const stamp = nextStamp(laterStamp(this.last, after), this.wallMs(), this.deviceId);
+    this.last = stamp;
+    return stamp;
+  }
+
+  observe(remote: ClockStamp | undefined): void {
+    if (remote !== undefined && isClockStamp(remote)) this.last = laterStamp(this.last, remote);
+  }
+
+  get latest(): ClockStamp | undefined {
+    return this.last;
+  }
+}

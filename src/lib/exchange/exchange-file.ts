@@ -1,0 +1,284 @@
+import { canonicalJson } from '../domain/canonical-json';
+import { laterStamp } from '../domain/hybrid-clock';
+import {
+  countRecords,
+  KIND_LABEL,
+  RECORD_KINDS,
+  type RecordKind,
+  type RecordsByKind
+} from '../domain/record-kinds';
+import type { RecordMeta } from '../domain/record-meta';
+import { markupProblem, pathText, structuralProblem } from './exchange-guards';
+import {
+  EXCHANGE_FORMAT,
+  EXCHANGE_FORMAT_VERSION,
+  exchangeFileSchema,
+  MAX_RECORDS_PER_KIND,
+  type ExchangeHeader
+} from './exchange-schema';
+
+/**
+ * The exchange file, format version 1 (README, "Exchange file format"): one JSON object
+ *
+ *   { "format": "capstan-exchange", "formatVersion": 1, "header": {…}, "records": {…}, "sha256": "…" }
+ *
+ * written as canonical JSON (keys sorted, no white space, records of each kind in id order), optionally
+ * gzip-compressed. `sha256` is the SHA-256 of the canonical text of everything else, so any change in transit is
+ * detected — also after someone re-indents the file, since the reader recomputes the canonical text.
+ */
+
+/** What a file carries: the change set and who sent it. */
+export interface ChangeSet {
+  header: ExchangeHeader;
+  records: RecordsByKind;
+}
+
+/** Refusal of a file, with one line that says what is wrong and where. Nothing has been written. */
+export class ExchangeFileError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'ExchangeFileError';
+  }
+}
+
+/** Largest file (and, for a compressed file, largest unpacked text) Capstan reads: 160 MiB. */
+export const MAX_EXCHANGE_BYTES = 160 * 1024 * 1024;
+
+const GZIP_MAGIC = [0x1f, 0x8b];
+
+const mb = (bytes: number) => `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
+
+export function sizeProblem(bytes: number): string | undefined {
+  if (bytes === 0) return 'The file is empty (0 bytes): nothing to import';
+  if (bytes > MAX_EXCHANGE_BYTES) {
+    return `The file is ${mb(bytes)}; Capstan reads exchange files up to ${mb(MAX_EXCHANGE_BYTES)} — export per site or as changes since the last file instead`;
+  }
+  return undefined;
+}
+
+async function sha256Hex(text: string): Promise<string> {
+  const digest = await crypto.subtle.digest('SHA-256', new TextEncoder().encode(text));
+  return Array.from(new Uint8Array(digest), (b) => b.toString(16).padStart(2, '0')).join('');
+}
+
+/** Header fields the exporter supplies; counts and latest clock are filled in from the records. */
+export type HeaderInput = Omit<ExchangeHeader, 'counts' | 'latestClock'>;
+
+/** Builds a change set with counts and latest clock taken from its records. */
+export function changeSetOf(header: HeaderInput, records: RecordsByKind): ChangeSet {
+  let latestClock: string | undefined;
+  for (const kind of RECORD_KINDS)
+    for (const r of records[kind] as RecordMeta[]) latestClock = laterStamp(latestClock, r.clock);
+  return {
+    header: { ...header, counts: countRecords(records), ...(latestClock ? { latestClock } : {}) },
+    records
+  };
+}
+
+/** Canonical text of a change set, hash included: the same change set always gives the same bytes. */
+export async function exchangeText(changeSet: ChangeSet): Promise<string> {
+  const body = canonicalJson({
+    format: EXCHANGE_FORMAT,
+    formatVersion: EXCHANGE_FORMAT_VERSION,
+    header: changeSet.header,
+    records: changeSet.records
+  });
+  const hash = await sha256Hex(body);
+  // "sha256" sorts after every other top-level key, so this is still the canonical form of the whole object.
+  return `${body.slice(0, -1)},"sha256":"${hash}"}`;
+}
+
+async function pipeBytes(
+  bytes: Uint8Array,
+  transform: CompressionStream | DecompressionStream,
+  limit: number
+) {
+  const stream = new Blob([bytes as BlobPart]).stream().pipeThrough(transform);
+  const reader = stream.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > limit) {
+      await reader.cancel();
+      throw new ExchangeFileError(
+        `The compressed file unpacks to more than ${mb(limit)}; Capstan reads exchange files up to that size`
+      );
+    }
+    chunks.push(value);
+  }
+  const out = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.byteLength;
+  }
+  return out;
+}
+
+/** The file's bytes: UTF-8 canonical JSON, gzip-compressed when asked. */
+export async function encodeExchangeFile(
+  changeSet: ChangeSet,
+  options: { gzip?: boolean } = {}
+): Promise<Uint8Array> {
+  const bytes = new TextEncoder().encode(await exchangeText(changeSet));
+  return options.gzip ? pipeBytes(bytes, new CompressionStream('gzip'), Number.MAX_SAFE_INTEGER) : bytes;
+}
+
+function looksLikeCsv(text: string): boolean {
+  const firstLine = text.slice(0, 2000).split(/\r?\n/, 1)[0] ?? '';
+  return /[,;\t]/.test(firstLine) && !/^\s*[[{]/.test(firstLine);
+}
+
+function jsonProblem(text: string, error: unknown): string {
+  const detail = error instanceof Error ? error.message : String(error);
+  if (/end of (JSON )?input|Unterminated string|Unexpected end/i.test(detail)) {
+    return `The file ends early — it was probably cut off in transit (${detail})`;
+  }
+  if (/NaN|Infinity/.test(detail) || /:\s*-?(NaN|Infinity)\b/.test(text.slice(0, 1_000_000))) {
+    return `The file is not valid JSON: it holds NaN or Infinity, which JSON cannot carry (${detail})`;
+  }
+  return `The file is not valid JSON (${detail})`;
+}
+
+/**
+ * Reads and checks a whole file, in this order: size, compression, text encoding, JSON, structure (depth,
+ * forbidden keys, list lengths), format and version, content hash, schema, duplicate ids, counts, markup.
+ * Returns the change set or throws an ExchangeFileError with one line. Never writes anything.
+ */
+export async function decodeExchangeFile(input: Uint8Array): Promise<ChangeSet> {
+  const tooBig = sizeProblem(input.byteLength);
+  if (tooBig) throw new ExchangeFileError(tooBig);
+  let bytes = input;
+  if (bytes[0] === GZIP_MAGIC[0] && bytes[1] === GZIP_MAGIC[1]) {
+    try {
+      bytes = await pipeBytes(bytes, new DecompressionStream('gzip'), MAX_EXCHANGE_BYTES);
+    } catch (e) {
+      if (e instanceof ExchangeFileError) throw e;
+      throw new ExchangeFileError(
+        'The file is gzip-compressed but damaged or cut off: it cannot be unpacked'
+      );
+    }
+  }
+  let text: string;
+  try {
+    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    throw new ExchangeFileError(
+      'The file is not UTF-8 text: it is not a Capstan exchange file (or it is damaged)'
+    );
+  }
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  if (text.trim() === '') throw new ExchangeFileError('The file holds only white space: nothing to import');
+  if (!text.trimStart().startsWith('{')) {
+    throw new ExchangeFileError(
+      looksLikeCsv(text)
+        ? 'This looks like a CSV table, not a Capstan exchange file — measurements from a spreadsheet are imported on the Log page'
+        : 'The file is not a Capstan exchange file: it does not start with a JSON object'
+    );
+  }
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(text);
+  } catch (e) {
+    throw new ExchangeFileError(jsonProblem(text, e));
+  }
+  return checkParsed(parsed);
+}
+
+async function checkParsed(parsed: unknown): Promise<ChangeSet> {
+  const structural = structuralProblem(parsed, MAX_RECORDS_PER_KIND);
+  if (structural) throw new ExchangeFileError(structural);
+  const top = parsed as Record<string, unknown>;
+  if (top.kind === 'capstan-demo-portfolio') {
+    throw new ExchangeFileError(
+      'This is the demo portfolio file, not an exchange file — load the demo from the start page'
+    );
+  }
+  if (top.format !== EXCHANGE_FORMAT) {
+    throw new ExchangeFileError(
+      `The file is JSON but not a Capstan exchange file ("format" is not "${EXCHANGE_FORMAT}")`
+    );
+  }
+  if (typeof top.formatVersion !== 'number' || !Number.isInteger(top.formatVersion)) {
+    throw new ExchangeFileError(
+      'formatVersion must be a whole number: the file is damaged or was edited by hand'
+    );
+  }
+  if (top.formatVersion > EXCHANGE_FORMAT_VERSION) {
+    throw new ExchangeFileError(
+      `The file has format version ${top.formatVersion}, made by a newer Capstan; this app reads version ${EXCHANGE_FORMAT_VERSION} — update the app, then import it`
+    );
+  }
+  if (top.formatVersion !== EXCHANGE_FORMAT_VERSION) {
+    throw new ExchangeFileError(
+      `Format version ${top.formatVersion} is not one Capstan ever wrote (expected ${EXCHANGE_FORMAT_VERSION})`
+    );
+  }
+  if (typeof top.sha256 !== 'string' || !/^[0-9a-f]{64}$/.test(top.sha256)) {
+    throw new ExchangeFileError(
+      'The file has no valid content hash (sha256): it is damaged or was edited by hand'
+    );
+  }
+  const { sha256, ...rest } = top;
+  let body: string;
+  try {
+    body = canonicalJson(rest, 64);
+  } catch (e) {
+    throw new ExchangeFileError(e instanceof Error ? e.message : String(e));
+  }
+  if ((await sha256Hex(body)) !== sha256) {
+    throw new ExchangeFileError(
+      'The content hash does not match: the file was changed or damaged after it was exported'
+    );
+  }
+  const result = exchangeFileSchema.safeParse(parsed);
+  if (!result.success) {
+    const issues = result.error.issues;
+    const first = issues[0]!;
+    const more =
+      issues.length > 1 ? ` (and ${issues.length - 1} more problem${issues.length > 2 ? 's' : ''})` : '';
+    throw new ExchangeFileError(`${pathText(first.path as (string | number)[])}: ${first.message}${more}`);
+  }
+  const { header, records } = result.data as unknown as ChangeSet;
+  const seen = new Map<string, RecordKind>();
+  for (const kind of RECORD_KINDS) {
+    const list = records[kind] as RecordMeta[];
+    for (let i = 0; i < list.length; i++) {
+      const id = list[i]!.id;
+      const before = seen.get(id);
+      if (before !== undefined) {
+        throw new ExchangeFileError(
+          before === kind
+            ? `records.${kind}[${i}]: id ${id} appears twice among the ${kind}`
+            : `records.${kind}[${i}]: id ${id} is used by a ${KIND_LABEL[before]} and a ${KIND_LABEL[kind]}`
+        );
+      }
+      seen.set(id, kind);
+    }
+    if (header.counts[kind] !== list.length) {
+      throw new ExchangeFileError(
+        `header.counts.${kind} says ${header.counts[kind]} but the file holds ${list.length}`
+      );
+    }
+  }
+  const markup = markupProblem({ header, records });
+  if (markup) throw new ExchangeFileError(markup);
+  return { header, records };
+}
+
+/** Suggested file name: who, what and when, safe on every file system. */
+export function exchangeFileName(header: ExchangeHeader, gzip: boolean): string {
+  const who =
+    (header.exportedBy.deviceName || 'device').replace(/[^A-Za-z0-9-]+/g, '-').slice(0, 40) || 'device';
+  const what =
+    header.scope.kind === 'site'
+      ? `site-${header.scope.siteName.replace(/[^A-Za-z0-9-]+/g, '-').slice(0, 40)}`
+      : header.scope.kind === 'changes'
+        ? `changes-for-${header.scope.recipient.name.replace(/[^A-Za-z0-9-]+/g, '-').slice(0, 40)}`
+        : header.scope.kind;
+  const when = header.exportedAt.slice(0, 19).replace(/[:T]/g, '-');
+  return `capstan-${who}-${what}-${when}.capstan.json${gzip ? '.gz' : ''}`;
+}

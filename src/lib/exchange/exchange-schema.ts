@@ -1,0 +1,114 @@
+import { z } from 'zod';
+import { characteristicFieldsSchema } from '../domain/characteristic';
+import { contextProfileFieldsSchema } from '../domain/context-profile-record';
+import { isClockStamp } from '../domain/hybrid-clock';
+import { improvementProjectFieldsSchema } from '../domain/improvement-project';
+import { processFieldsSchema } from '../domain/process';
+import { RECORD_KINDS } from '../domain/record-kinds';
+import { recordMetaSchema } from '../domain/record-meta-schema';
+import { siteFieldsSchema } from '../domain/site';
+import { studyFieldsSchema } from '../domain/study';
+
+/**
+ * Schema of an exchange file (format version 1), checked with zod after the envelope and the hash. Record
+ * schemas are the ones every save uses, plus complete bookkeeping (version vector and clock stamp), so a file
+ * can only carry records this app could have written itself.
+ */
+export const EXCHANGE_FORMAT = 'capstan-exchange';
+export const EXCHANGE_FORMAT_VERSION = 1;
+
+/** Per kind; a file holding more is refused before validation so that it cannot exhaust memory. */
+export const MAX_RECORDS_PER_KIND = 1_000_000;
+
+const isoTime = (label: string) =>
+  z
+    .string({ error: `${label} must be a date-time` })
+    .max(40)
+    .refine((s) => /^\d{4}-\d{2}-\d{2}T/.test(s) && !Number.isNaN(Date.parse(s)), {
+      error: `${label} must be an ISO 8601 date-time`
+    });
+
+const deviceId = z
+  .string({ error: 'device id must be text' })
+  .min(1, { error: 'device id is empty' })
+  .max(80);
+
+const exchangeMeta = recordMetaSchema.extend({
+  vv: z
+    .record(
+      deviceId,
+      z.number({ error: 'write counts must be numbers' }).int().min(1).max(Number.MAX_SAFE_INTEGER),
+      {
+        error: 'vv (version vector) must map device ids to write counts'
+      }
+    )
+    .refine((v) => Object.keys(v).length >= 1 && Object.keys(v).length <= 1000, {
+      error: 'vv (version vector) must name between 1 and 1000 devices'
+    }),
+  clock: z
+    .string({ error: 'clock is required' })
+    .refine(isClockStamp, { error: 'clock is not a clock stamp' })
+});
+
+const withMeta = <S extends z.ZodObject>(schema: S) => schema.extend(exchangeMeta.shape);
+
+export const exchangeRecordSchemas = {
+  contextProfiles: withMeta(contextProfileFieldsSchema),
+  sites: withMeta(siteFieldsSchema),
+  processes: withMeta(processFieldsSchema),
+  // Characteristic and project schemas carry cross-field checks, which zod keeps through `.and`.
+  characteristics: characteristicFieldsSchema.and(exchangeMeta),
+  studies: withMeta(studyFieldsSchema),
+  projects: improvementProjectFieldsSchema.and(exchangeMeta)
+} as const;
+
+const countsSchema = z.strictObject(
+  Object.fromEntries(RECORD_KINDS.map((k) => [k, z.number().int().min(0)])) as Record<
+    (typeof RECORD_KINDS)[number],
+    z.ZodNumber
+  >,
+  { error: 'header.counts must give a count for each record kind' }
+);
+
+const peer = z.strictObject({ deviceId, name: z.string().max(120) });
+
+export const scopeSchema = z.discriminatedUnion(
+  'kind',
+  [
+    z.strictObject({ kind: z.literal('everything') }),
+    z.strictObject({ kind: z.literal('site'), siteId: z.string().uuid(), siteName: z.string().max(200) }),
+    z.strictObject({ kind: z.literal('changes'), recipient: peer, since: isoTime('since').optional() }),
+    z.strictObject({ kind: z.literal('merged'), sources: z.array(z.string().max(300)).max(10) })
+  ],
+  { error: "header.scope.kind must be 'everything', 'site', 'changes' or 'merged'" }
+);
+
+export const headerSchema = z.strictObject({
+  appVersion: z.string({ error: 'appVersion must be text' }).max(40),
+  exportedBy: z.strictObject({ deviceId, deviceName: z.string().max(120) }),
+  exportedAt: isoTime('exportedAt'),
+  scope: scopeSchema,
+  counts: countsSchema,
+  latestClock: z.string().refine(isClockStamp, { error: 'latestClock is not a clock stamp' }).optional()
+});
+
+export const recordsSchema = z.strictObject(
+  Object.fromEntries(
+    RECORD_KINDS.map((k) => [
+      k,
+      z.array(exchangeRecordSchemas[k], { error: `records.${k} must be a list` }).max(MAX_RECORDS_PER_KIND)
+    ])
+  ) as { [K in (typeof RECORD_KINDS)[number]]: z.ZodArray<(typeof exchangeRecordSchemas)[K]> },
+  { error: 'records must hold a list for each record kind' }
+);
+
+export const exchangeFileSchema = z.strictObject({
+  format: z.literal(EXCHANGE_FORMAT),
+  formatVersion: z.literal(EXCHANGE_FORMAT_VERSION),
+  header: headerSchema,
+  records: recordsSchema,
+  sha256: z.string().regex(/^[0-9a-f]{64}$/)
+});
+
+export type ExchangeHeader = z.output<typeof headerSchema>;
+export type ExportScopeHeader = z.output<typeof scopeSchema>;

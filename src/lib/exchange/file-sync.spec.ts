@@ -1,0 +1,196 @@
+import 'fake-indexeddb/auto';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import demo from '../../../seed-data/demo-portfolio.json';
+import {
+  canonicalExport,
+  closeDevice,
+  exportBytes,
+  importBytes,
+  openDevice
+} from '../../../tests/support/exchange-harness';
+import type { CapstanStorage } from '../storage/storage';
+import { decodeExchangeFile, encodeExchangeFile, ExchangeFileError } from './exchange-file';
+
+const open: CapstanStorage[] = [];
+async function device(label: string) {
+  const s = await openDevice(label);
+  open.push(s);
+  return s;
+}
+afterEach(async () => {
+  vi.restoreAllMocks();
+  while (open.length) await closeDevice(open.pop()!);
+});
+
+describe('exchange files between devices', () => {
+  it('round-trips the demo portfolio: export, import into an empty database, export again gives the same bytes', async () => {
+    const a = await device('a');
+    await a.loadDemo(demo);
+    const file = await exportBytes(a);
+    const b = await device('b');
+    const { plan } = await importBytes(b, file);
+    expect(plan.counts.new).toBe(demo.records.studies.length + 42 + 32 + 5 + 8 - plan.counts.deleted);
+    expect(await canonicalExport(b)).toBe(await canonicalExport(a));
+    // Importing the same file again changes nothing.
+    const again = await importBytes(b, file);
+    expect(again.plan.counts).toMatchObject({ new: 0, updated: 0, deleted: 0, conflict: 0 });
+    expect(again.result.written).toBe(0);
+  });
+
+  it('reads its own gzip-compressed files', async () => {
+    const a = await device('a');
+    await a.loadDemo(demo);
+    const plain = await exportBytes(a);
+    const changeSet = await decodeExchangeFile(plain);
+    const packed = await encodeExchangeFile(changeSet, { gzip: true });
+    expect(packed[0]).toBe(0x1f);
+    expect(packed.byteLength).toBeLessThan(plain.byteLength / 3);
+    expect(await decodeExchangeFile(packed)).toEqual(changeSet);
+  });
+
+  it('plays a site and the manager: results go up, a target comes back, and a crossing edit is a conflict', async () => {
+    const site = await device('site');
+    const hq = await device('hq');
+    const plant = await site.sites.create({ name: 'Plant North', region: '', timeZone: 'UTC' });
+    const process = await site.processes.create({
+      siteId: plant.id,
+      name: 'Sealing',
+      owner: 'R. Imre',
+      contextId: 'general-manufacturing',
+      monthlyVolume: 1000,
+      costPerDefective: 5,
+      currency: 'EUR'
+    });
+    const ch = await site.characteristics.create({
+      processId: process.id,
+      name: 'Seal force',
+      unit: 'N',
+      dataKind: 'measured',
+      lsl: 10,
+      usl: 20,
+      riskClass: 'standard'
+    });
+    await site.studies.logOne({
+      characteristicId: ch.id,
+      period: '2026-11',
+      data: { kind: 'summary', n: 50, mean: 15, sd: 1 },
+      enteredBy: 'R. Imre'
+    });
+    const up = await importBytes(hq, await exportBytes(site, { kind: 'changes', peerId: hq.deviceId }));
+    expect(up.plan.counts.new).toBe(4);
+
+    // The manager tightens the limits and sends everything for that site back.
+    await hq.characteristics.update(ch.id, { ...stripMeta(ch), usl: 19 });
+    const down = await importBytes(site, await exportBytes(hq, { kind: 'site', siteId: plant.id }));
+    expect(down.plan.counts).toMatchObject({ updated: 1, conflict: 0 });
+    expect((await site.characteristics.get(ch.id))?.usl).toBe(19);
+    expect(await canonicalExport(site)).toBe(await canonicalExport(hq));
+
+    // Both now edit the same characteristic before meeting again.
+    const hqCopy = (await hq.characteristics.get(ch.id))!;
+    await hq.characteristics.update(ch.id, { ...stripMeta(hqCopy), name: 'Seal force (HQ)' });
+    await site.characteristics.update(ch.id, { ...stripMeta(hqCopy), name: 'Seal force (site)' });
+    const file = await exportBytes(site, { kind: 'changes', peerId: hq.deviceId });
+    const changeSet = await decodeExchangeFile(file);
+    const plan = await hq.exchange.preview(changeSet.records);
+    expect(plan.conflicts).toHaveLength(1);
+    expect(plan.conflicts[0]!.decision).toMatchObject({ nature: 'both-edited', fields: ['name'] });
+    // Unsettled conflicts stop the import; nothing is written.
+    const before = await canonicalExport(hq);
+    await expect(
+      hq.exchange.apply(plan, {}, { deviceId: site.deviceId, name: 'site', at: '2026-12-01T00:00:00Z' })
+    ).rejects.toThrow(/not settled/);
+    expect(await canonicalExport(hq)).toBe(before);
+    // The manager keeps the site's name; sending back settles it on the site too.
+    await hq.exchange.apply(
+      plan,
+      { perRecord: { [ch.id]: 'incoming' } },
+      { deviceId: site.deviceId, name: 'site', at: '2026-12-01T00:00:00Z' }
+    );
+    expect((await hq.characteristics.get(ch.id))?.name).toBe('Seal force (site)');
+    const back = await importBytes(site, await exportBytes(hq, { kind: 'changes', peerId: site.deviceId }));
+    expect(back.plan.counts.conflict).toBe(0);
+    expect(await canonicalExport(site)).toBe(await canonicalExport(hq));
+  });
+
+  it('a deletion on one side against an edit on the other is a conflict, not a loss or a resurrection', async () => {
+    const a = await device('a');
+    const b = await device('b');
+    const s = await a.sites.create({ name: 'Plant West', region: '', timeZone: 'UTC' });
+    await importBytes(b, await exportBytes(a));
+    await a.sites.remove(s.id);
+    await b.sites.update(s.id, { name: 'Plant West 2', region: '', timeZone: 'UTC' });
+    const { plan } = await importBytes(b, await exportBytes(a), 'local');
+    expect(plan.conflicts[0]!.decision.nature).toBe('deleted-there');
+    expect((await b.sites.get(s.id))?.name).toBe('Plant West 2');
+    // Sending the settled record back restores it on the deleting side, as an explicit outcome.
+    await importBytes(a, await exportBytes(b));
+    expect((await a.sites.get(s.id))?.name).toBe('Plant West 2');
+  });
+
+  it('sends only what changed since the last file to that peer (plus a one-minute margin)', async () => {
+    const a = await device('a');
+    const start = Date.now();
+    const clock = vi.spyOn(Date, 'now').mockReturnValue(start - 10 * 60_000); // the demo was loaded 10 min ago
+    await a.loadDemo(demo);
+    clock.mockReturnValue(start);
+    const first = await decodeExchangeFile(await exportBytes(a, { kind: 'changes', peerId: 'peer-1' }));
+    expect(first.header.counts.studies).toBe(demo.records.studies.length);
+    clock.mockReturnValue(start + 5 * 60_000);
+    const site = (await a.sites.list())[0]!;
+    await a.sites.update(site.id, {
+      name: `${site.name} (renamed)`,
+      region: site.region,
+      timeZone: site.timeZone
+    });
+    const second = await decodeExchangeFile(await exportBytes(a, { kind: 'changes', peerId: 'peer-1' }));
+    expect(second.header.counts).toEqual({
+      contextProfiles: 0,
+      sites: 1,
+      processes: 0,
+      characteristics: 0,
+      studies: 0,
+      projects: 0
+    });
+    expect(second.header.scope).toMatchObject({ kind: 'changes', recipient: { deviceId: 'peer-1' } });
+    // Another peer has had nothing yet, so it gets everything.
+    const other = await decodeExchangeFile(await exportBytes(a, { kind: 'changes', peerId: 'peer-2' }));
+    expect(other.header.counts.studies).toBe(demo.records.studies.length);
+  });
+
+  it('refuses an id that this device holds as another kind of record, writing nothing', async () => {
+    const a = await device('a');
+    const b = await device('b');
+    const s = await a.sites.create({ name: 'Plant', region: '', timeZone: 'UTC' });
+    await b.loadDemo(demo);
+    const changeSet = await decodeExchangeFile(await exportBytes(a));
+    const processId = demo.records.processes[0]!.id;
+    changeSet.records.sites[0] = { ...changeSet.records.sites[0]!, id: processId };
+    await expect(b.exchange.preview(changeSet.records)).rejects.toThrow(
+      `site ${processId} in the file is a process on this device`
+    );
+    expect(s.id).not.toBe(processId);
+    expect(ExchangeFileError).toBeDefined();
+  });
+
+  it('shows how long changes have gone without an export', async () => {
+    const a = await device('a');
+    expect((await a.exchange.backupStatus()).unexported).toBe(0);
+    await a.sites.create({ name: 'Plant', region: '', timeZone: 'UTC' });
+    const status = await a.exchange.backupStatus();
+    expect(status).toMatchObject({ unexported: 1, lastExportAt: undefined });
+    expect(Date.parse(status.oldestUnexportedAt!)).toBeLessThanOrEqual(Date.now());
+    await exportBytes(a);
+    expect(await a.exchange.backupStatus()).toMatchObject({
+      unexported: 0,
+      lastExportAt: '2026-12-01T00:00:00.000Z'
+    });
+  });
+});
+
+function stripMeta<T extends object>(r: T) {
+  const out = { ...r } as Record<string, unknown>;
+  for (const k of ['id', 'createdAt', 'updatedAt', 'rev', 'deviceId', 'deletedAt', 'vv', 'clock', 'localSeq'])
+    delete out[k];
+  return out;
+}
