@@ -7,7 +7,9 @@ import { z } from 'zod';
 
 export const requiredText = (label: string, max = 200) =>
   z
-    .string({ error: `${label} must be text` })
+    .string({
+      error: (issue) => (issue.input === undefined ? `${label} is required` : `${label} must be text`)
+    })
     .trim()
     .min(1, { error: `${label} is required` })
     .max(max, { error: `${label} must be at most ${max} characters` });

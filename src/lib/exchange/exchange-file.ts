@@ -127,9 +127,18 @@ export async function encodeExchangeFile(
   return options.gzip ? pipeBytes(bytes, new CompressionStream('gzip'), Number.MAX_SAFE_INTEGER) : bytes;
 }
 
+/** Two lines that split into the same number (> 1) of cells by one separator: a delimited table. */
 function looksLikeCsv(text: string): boolean {
-  const firstLine = text.slice(0, 2000).split(/\r?\n/, 1)[0] ?? '';
-  return /[,;\t]/.test(firstLine) && !/^\s*[[{]/.test(firstLine);
+  const lines = text
+    .slice(0, 4000)
+    .split(/\r?\n/)
+    .filter((l) => l.trim() !== '')
+    .slice(0, 2);
+  if (lines.length < 2) return false;
+  return [',', ';', '\t'].some((sep) => {
+    const cells = lines.map((l) => l.split(sep).length);
+    return cells[0]! > 1 && cells[0] === cells[1];
+  });
 }
 
 function jsonProblem(text: string, error: unknown): string {
@@ -137,7 +146,7 @@ function jsonProblem(text: string, error: unknown): string {
   if (/end of (JSON )?input|Unterminated string|Unexpected end/i.test(detail)) {
     return `The file ends early — it was probably cut off in transit (${detail})`;
   }
-  if (/NaN|Infinity/.test(detail) || /:\s*-?(NaN|Infinity)\b/.test(text.slice(0, 1_000_000))) {
+  if (/NaN|Infinity/.test(detail) || /[:,[]\s*-?(NaN|Infinity)\b/.test(text.slice(0, 1_000_000))) {
     return `The file is not valid JSON: it holds NaN or Infinity, which JSON cannot carry (${detail})`;
   }
   return `The file is not valid JSON (${detail})`;

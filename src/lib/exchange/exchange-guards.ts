@@ -24,7 +24,7 @@ export function activeMarkupIn(text: string): string | undefined {
 export function pathText(path: readonly (string | number)[]): string {
   let out = '';
   for (const part of path) out += typeof part === 'number' ? `[${part}]` : out === '' ? part : `.${part}`;
-  return out || '(file)';
+  return out || 'top level of the file';
 }
 
 /** First structural problem of a parsed value, or undefined. Iterative, so depth cannot overflow the stack. */

@@ -63,10 +63,9 @@ export const exchangeRecordSchemas = {
 } as const;
 
 const countsSchema = z.strictObject(
-  Object.fromEntries(RECORD_KINDS.map((k) => [k, z.number().int().min(0)])) as Record<
-    (typeof RECORD_KINDS)[number],
-    z.ZodNumber
-  >,
+  Object.fromEntries(
+    RECORD_KINDS.map((k) => [k, z.number({ error: 'must be a whole number of records' }).int().min(0)])
+  ) as Record<(typeof RECORD_KINDS)[number], z.ZodNumber>,
   { error: 'header.counts must give a count for each record kind' }
 );
 
@@ -83,20 +82,23 @@ export const scopeSchema = z.discriminatedUnion(
   { error: "header.scope.kind must be 'everything', 'site', 'changes' or 'merged'" }
 );
 
-export const headerSchema = z.strictObject({
-  appVersion: z.string({ error: 'appVersion must be text' }).max(40),
-  exportedBy: z.strictObject({ deviceId, deviceName: z.string().max(120) }),
-  exportedAt: isoTime('exportedAt'),
-  scope: scopeSchema,
-  counts: countsSchema,
-  latestClock: z.string().refine(isClockStamp, { error: 'latestClock is not a clock stamp' }).optional()
-});
+export const headerSchema = z.strictObject(
+  {
+    appVersion: z.string({ error: 'appVersion must be text' }).max(40),
+    exportedBy: z.strictObject({ deviceId, deviceName: z.string().max(120) }),
+    exportedAt: isoTime('exportedAt'),
+    scope: scopeSchema,
+    counts: countsSchema,
+    latestClock: z.string().refine(isClockStamp, { error: 'latestClock is not a clock stamp' }).optional()
+  },
+  { error: 'the header is missing or is not an object' }
+);
 
 export const recordsSchema = z.strictObject(
   Object.fromEntries(
     RECORD_KINDS.map((k) => [
       k,
-      z.array(exchangeRecordSchemas[k], { error: `records.${k} must be a list` }).max(MAX_RECORDS_PER_KIND)
+      z.array(exchangeRecordSchemas[k], { error: 'must be a list of records' }).max(MAX_RECORDS_PER_KIND)
     ])
   ) as { [K in (typeof RECORD_KINDS)[number]]: z.ZodArray<(typeof exchangeRecordSchemas)[K]> },
   { error: 'records must hold a list for each record kind' }
