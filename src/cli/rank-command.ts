@@ -1,4 +1,8 @@
 import { readFile } from 'node:fs/promises';
+import { effectiveProfiles } from '../lib/domain/context-profile-record';
+import { isLive } from '../lib/domain/record-meta';
+import { EXCHANGE_FORMAT } from '../lib/exchange/exchange-schema';
+import { readExchangeFile } from './exchange-file-input';
 import { BUILT_IN_PROFILES } from '../lib/domain/context-profile';
 import { parseDemoPortfolio } from '../lib/domain/demo-portfolio';
 import { isPeriod, periodsOfQuarter } from '../lib/domain/period';
@@ -64,32 +68,11 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
   const window = integerFlag(args, 'window') ?? (quarterMonths ? 3 : 1);
   if (window < 1 || window > 120)
     throw new UsageError(`--window must be between 1 and 120 months, got ${window}`);
-  let text: string;
-  try {
-    text = await readFile(file, 'utf8');
-  } catch {
-    throw new UsageError(`Cannot read '${file}': no such file or not readable`);
-  }
-  let json: unknown;
-  try {
-    json = JSON.parse(text);
-  } catch (error) {
-    throw new UsageError(`'${file}' is not JSON: ${(error as Error).message}`);
-  }
-  let records;
-  try {
-    records = parseDemoPortfolio(json).records;
-  } catch (error) {
-    if (error instanceof ValidationError)
-      throw new UsageError(
-        `'${file}' is not a portfolio file: ${error.problems[0]?.field} — ${error.problems[0]?.message}`
-      );
-    throw error;
-  }
+  const { records, profiles } = await readPortfolio(file);
   const latest = records.studies.reduce((a, s) => (s.period > a ? s.period : a), '');
   const endPeriod = period ?? quarterMonths?.[2] ?? latest;
   if (!endPeriod) throw new UsageError(`'${file}' holds no studies to rank`);
-  const rows = rankPortfolio(records, BUILT_IN_PROFILES, { endPeriod, windowMonths: window });
+  const rows = rankPortfolio(records, profiles, { endPeriod, windowMonths: window });
   const out = rows.map((r, i) => summarise(r, i + 1));
   if (args.flags.has('json')) {
     io.stdout(
@@ -125,8 +108,57 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
   }
   lines.push(
     '',
-    'Targets are the built-in context defaults; customer-specific and regulatory requirements prevail.'
+    profiles === BUILT_IN_PROFILES
+      ? 'Targets are the built-in context defaults; customer-specific and regulatory requirements prevail.'
+      : "Targets are the file's context profiles over the built-in defaults; customer-specific and regulatory requirements prevail."
   );
   io.stdout(lines.join('\n'));
   return 0;
+}
+
+/**
+ * Reads an exchange file (gzip or not; tombstones left out, its context profiles laid over the built-in ones)
+ * or the demo portfolio file.
+ */
+async function readPortfolio(file: string) {
+  let bytes: Buffer;
+  try {
+    bytes = await readFile(file);
+  } catch {
+    throw new UsageError(`Cannot read '${file}': no such file or not readable`);
+  }
+  const gzip = bytes[0] === 0x1f && bytes[1] === 0x8b;
+  let json: unknown;
+  if (!gzip) {
+    try {
+      json = JSON.parse(bytes.toString('utf8'));
+    } catch (error) {
+      throw new UsageError(`'${file}' is not JSON: ${(error as Error).message}`);
+    }
+  }
+  if (gzip || (json as { format?: unknown } | null)?.format === EXCHANGE_FORMAT) {
+    const { records } = await readExchangeFile(file);
+    return {
+      records: {
+        sites: records.sites.filter(isLive),
+        processes: records.processes.filter(isLive),
+        characteristics: records.characteristics.filter(isLive),
+        studies: records.studies.filter(isLive),
+        projects: records.projects.filter(isLive)
+      },
+      profiles:
+        records.contextProfiles.length > 0
+          ? effectiveProfiles(BUILT_IN_PROFILES, records.contextProfiles)
+          : BUILT_IN_PROFILES
+    };
+  }
+  try {
+    return { records: parseDemoPortfolio(json).records, profiles: BUILT_IN_PROFILES };
+  } catch (error) {
+    if (error instanceof ValidationError)
+      throw new UsageError(
+        `'${file}' is not a portfolio file: ${error.problems[0]?.field} — ${error.problems[0]?.message}`
+      );
+    throw error;
+  }
 }

@@ -210,3 +210,159 @@ describe('capstan rank', () => {
     expect(r.err).toMatch(message as RegExp);
   });
 });
+
+describe('capstan check and merge', async () => {
+  const { readFileSync, existsSync } = await import('node:fs');
+  const { changeSetOf, encodeExchangeFile, decodeExchangeFile } =
+    await import('../lib/exchange/exchange-file');
+  const { travelling } = await import('../lib/storage/change-set-store');
+  const { stampUpdate } = await import('../lib/domain/record-meta');
+  const { parseDemoPortfolio } = await import('../lib/domain/demo-portfolio');
+  const demoJson = JSON.parse(
+    readFileSync(new URL('../../seed-data/demo-portfolio.json', import.meta.url), 'utf8')
+  );
+  const demoRecords = parseDemoPortfolio(demoJson).records;
+  const base = {
+    contextProfiles: [],
+    sites: demoRecords.sites.map(travelling),
+    processes: demoRecords.processes.map(travelling),
+    characteristics: demoRecords.characteristics.map(travelling),
+    studies: demoRecords.studies.map(travelling),
+    projects: demoRecords.projects.map(travelling)
+  };
+  const header = (name: string) => ({
+    appVersion: 'test',
+    exportedBy: { deviceId: `${name}-device`, deviceName: name },
+    exportedAt: '2026-12-01T00:00:00.000Z',
+    scope: { kind: 'everything' as const }
+  });
+  const writeSet = async (name: string, records: typeof base, gzip = false) => {
+    const path = join(dir, name);
+    writeFileSync(path, await encodeExchangeFile(changeSetOf(header(name), records), { gzip }));
+    return path;
+  };
+  const renamed = (deviceId: string, at: string, name: string) => {
+    const site = base.sites[0]!;
+    const {
+      id: _i,
+      createdAt: _c,
+      updatedAt: _u,
+      rev: _r,
+      deviceId: _d,
+      vv: _v,
+      clock: _k,
+      ...fields
+    } = site;
+    const ctx = { deviceId, now: () => new Date(at), newId: () => 'unused' };
+    return { ...base, sites: [stampUpdate(site, { ...fields, name }, ctx), ...base.sites.slice(1)] };
+  };
+  const basePath = await writeSet('base.capstan.json', base);
+  const hqPath = await writeSet(
+    'hq.capstan.json.gz',
+    renamed('hq', '2026-11-02T00:00:00Z', 'Renamed at HQ'),
+    true
+  );
+  const sitePath = await writeSet(
+    'site.capstan.json',
+    renamed('site', '2026-11-03T00:00:00Z', 'Renamed at the site')
+  );
+
+  it('check prints the header and counts of a valid file, compressed or not', async () => {
+    const r = await run('check', hqPath);
+    expect(r.code).toBe(0);
+    expect(r.out).toContain('valid Capstan exchange file (format version 1, content hash verified)');
+    expect(r.out).toMatch(new RegExp(`studies\\s+${demoRecords.studies.length}\\s+\\(0 deleted\\)`));
+    const j = JSON.parse((await run('check', basePath, '--json')).out);
+    expect(j.header.exportedBy.deviceName).toBe('base.capstan.json');
+    expect(j.counts.sites).toEqual({ records: 5, deleted: 0 });
+  });
+
+  it.each([
+    ['hash-mismatch.capstan.json', /content hash does not match/],
+    ['future-version.capstan.json', /newer Capstan/],
+    ['csv-renamed.capstan.json', /CSV table/]
+  ])('check refuses %s with exit 2 and one line', async (name, message) => {
+    const path = new URL(`../../tests/fixtures/bad-exchange-files/${name}`, import.meta.url).pathname;
+    const r = await run('check', path);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(message);
+    expect(r.err.trim().split('\n')).toHaveLength(1);
+  });
+
+  it('merge takes a descendant without asking and counts it', async () => {
+    const out = join(dir, 'merged-1.capstan.json');
+    const r = await run('merge', basePath, hqPath, '-o', out);
+    expect(r.code).toBe(0);
+    expect(r.out).toContain(
+      `1 updated, ${demoRecords.studies.length + 42 + 32 + 4 + 8} unchanged, 0 deleted, 0 conflicting`
+    );
+    const merged = await decodeExchangeFile(new Uint8Array(readFileSync(out)));
+    expect(merged.records.sites.find((s) => s.id === base.sites[0]!.id)?.name).toBe('Renamed at HQ');
+    expect(merged.header.scope).toEqual({
+      kind: 'merged',
+      sources: ['base.capstan.json', 'hq.capstan.json.gz']
+    });
+  });
+
+  it('merge stops at a conflict with exit 3 and writes nothing, unless told which side to prefer', async () => {
+    const out = join(dir, 'merged-2.capstan.json');
+    const r = await run('merge', sitePath, hqPath, '-o', out, '--json');
+    expect(r.code).toBe(3);
+    const j = JSON.parse(r.out);
+    expect(j.written).toBe(false);
+    expect(j.conflicts).toEqual([
+      { kind: 'sites', id: base.sites[0]!.id, nature: 'both-edited', fields: ['name'] }
+    ]);
+    expect(existsSync(out)).toBe(false);
+    for (const [prefer, name] of [
+      ['newer', 'Renamed at the site'],
+      ['base', 'Renamed at the site'],
+      ['incoming', 'Renamed at HQ']
+    ]) {
+      const ok = await run('merge', sitePath, hqPath, '-o', out, '--prefer', prefer!);
+      expect(ok.code).toBe(0);
+      expect(ok.out).toContain(`1 conflicting (settled: ${prefer})`);
+      const merged = await decodeExchangeFile(new Uint8Array(readFileSync(out)));
+      expect(merged.records.sites.find((s) => s.id === base.sites[0]!.id)?.name).toBe(name);
+    }
+    expect((await run('merge', sitePath, hqPath, '-o', out, '--prefer', 'mine')).err).toMatch(
+      /--prefer must be newer, base or incoming/
+    );
+  });
+
+  it('rank reads an exchange file and ranks it as the demo file', async () => {
+    const fromExchange = JSON.parse((await run('rank', basePath, '--quarter', '2026-Q3', '--json')).out);
+    const fromDemo = JSON.parse((await run('rank', demoFile(), '--quarter', '2026-Q3', '--json')).out);
+    expect(fromExchange.rows).toEqual(fromDemo.rows);
+  });
+
+  it('runs check and merge as `npm run -s cli` with exit codes 2 and 3', () => {
+    const bad = spawnSync(
+      'npm',
+      [
+        'run',
+        '-s',
+        'cli',
+        '--',
+        'check',
+        new URL('../../tests/fixtures/bad-exchange-files/truncated.capstan.json', import.meta.url).pathname
+      ],
+      { encoding: 'utf8' }
+    );
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/ends early/);
+    const conflict = spawnSync(
+      'npm',
+      ['run', '-s', 'cli', '--', 'merge', sitePath, hqPath, '-o', join(dir, 'x.json')],
+      {
+        encoding: 'utf8'
+      }
+    );
+    expect(conflict.status).toBe(3);
+    expect(conflict.stdout).toMatch(/1 conflict\(s\)/);
+  });
+});
+
+function demoFile() {
+  return new URL('../../seed-data/demo-portfolio.json', import.meta.url).pathname;
+}

@@ -1,5 +1,7 @@
 import { CsvInputError } from '../lib/exchange/measurement-csv';
 import { analyzeCommand } from './analyze-command';
+import { checkCommand } from './check-command';
+import { mergeCommand } from './merge-command';
 import { UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
 import { convertCommand } from './convert-command';
@@ -16,8 +18,12 @@ export const USAGE = `Capstan command line — capability figures with their ass
   counts  --units N (--defectives D | --defects D [--opportunities O]) [--confidence 0.95] [--shift 1.5] [--json]
   convert (--ppm X | --yield Y | --z Z) [--shift 1.5] [--json]
   rank    FILE [--period YYYY-MM | --quarter YYYY-Qn] [--window months] [--json]
+          (FILE: an exchange file or the demo portfolio file)
+  check   FILE [--json]                      validate an exchange file; print its header and counts
+  merge   BASE INCOMING -o OUT [--prefer newer|base|incoming] [--json]
 
-Exit 0 on success; 2 on bad input, with one line on stderr saying what and where.`;
+Exit 0 on success; 2 on bad input, with one line on stderr saying what and where;
+3 when merge finds conflicts and no --prefer was given (nothing written).`;
 
 /** Runs one command; returns the exit code. Bad input never throws out of here. */
 export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
@@ -32,6 +38,10 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         return convertCommand(rest, io);
       case 'rank':
         return await rankCommand(rest, io);
+      case 'check':
+        return await checkCommand(rest, io);
+      case 'merge':
+        return await mergeCommand(rest, io);
       case undefined:
       case 'help':
       case '--help':
@@ -39,7 +49,7 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         return command === undefined ? 2 : 0;
       default:
         throw new UsageError(
-          `Unknown command '${command}'; use analyze, counts, convert or rank (help lists them)`
+          `Unknown command '${command}'; use analyze, counts, convert, rank, check or merge (help lists them)`
         );
     }
   } catch (error) {

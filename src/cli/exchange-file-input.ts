@@ -1,0 +1,29 @@
+import { readFile, stat } from 'node:fs/promises';
+import {
+  decodeExchangeFile,
+  ExchangeFileError,
+  sizeProblem,
+  type ChangeSet
+} from '../lib/exchange/exchange-file';
+import { UsageError } from './cli-arguments';
+
+/**
+ * Reads and checks an exchange file from disk with the app's own checks; the size is looked at before a byte
+ * is read. Every refusal becomes one UsageError line naming the file (exit 2).
+ */
+export async function readExchangeFile(path: string): Promise<ChangeSet> {
+  let size: number;
+  try {
+    size = (await stat(path)).size;
+  } catch {
+    throw new UsageError(`Cannot read '${path}': no such file or not readable`);
+  }
+  const tooBig = sizeProblem(size);
+  if (tooBig) throw new UsageError(`'${path}': ${tooBig}`);
+  try {
+    return await decodeExchangeFile(new Uint8Array(await readFile(path)));
+  } catch (error) {
+    if (error instanceof ExchangeFileError) throw new UsageError(`'${path}': ${error.message}`);
+    throw error;
+  }
+}

@@ -1,0 +1,88 @@
+import { writeFile } from 'node:fs/promises';
+import { basename } from 'node:path';
+import { KIND_LABEL } from '../lib/domain/record-kinds';
+import type { ConflictRule } from '../lib/domain/record-merge';
+import { mergeRecordSets } from '../lib/domain/record-set-merge';
+import { changeSetOf, encodeExchangeFile } from '../lib/exchange/exchange-file';
+import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
+import type { CliIo } from './cli-io';
+import { readExchangeFile } from './exchange-file-input';
+
+declare const __APP_VERSION__: string | undefined;
+
+const PREFER: Record<string, ConflictRule> = { newer: 'newer', base: 'local', incoming: 'incoming' };
+
+/** Exit code when conflicts stop a merge (no `--prefer`): distinct from bad input (2). */
+export const CONFLICT_EXIT = 3;
+
+/**
+ * `merge BASE INCOMING -o OUT [--prefer newer|base|incoming] [--json]`: the app's merge rules applied to two
+ * files. Without `--prefer`, a conflict stops the merge (exit 3, nothing written) and is listed.
+ */
+export async function mergeCommand(argv: readonly string[], io: CliIo): Promise<number> {
+  const normalised = argv.map((a) => (a === '-o' ? '--out' : a));
+  const args = parseArguments(normalised, ['json']);
+  rejectUnknown(args, ['out', 'prefer', 'json'], 'merge');
+  const [basePath, incomingPath, extra] = args.positional;
+  const out = stringFlag(args, 'out');
+  if (!basePath || !incomingPath || extra !== undefined || !out) {
+    throw new UsageError(
+      'merge needs two files and an output: merge BASE INCOMING -o OUT [--prefer newer|base|incoming]'
+    );
+  }
+  const preferText = stringFlag(args, 'prefer');
+  if (preferText !== undefined && !(preferText in PREFER)) {
+    throw new UsageError(`--prefer must be newer, base or incoming, got '${preferText}'`);
+  }
+  const rule = preferText === undefined ? undefined : PREFER[preferText];
+  const [base, incoming] = [await readExchangeFile(basePath), await readExchangeFile(incomingPath)];
+  const merged = mergeRecordSets(base.records, incoming.records, rule);
+  const conflicts = merged.conflicts.map(({ kind, decision }) => ({
+    kind,
+    id: decision.incoming.id,
+    nature: decision.nature,
+    fields: decision.fields
+  }));
+  const json = args.flags.has('json');
+  if (conflicts.length > 0 && !rule) {
+    if (json) io.stdout(JSON.stringify({ written: false, counts: merged.counts, conflicts }, null, 2));
+    else {
+      io.stdout(
+        [
+          `${conflicts.length} conflict(s): records changed in both files since they last met. Nothing was written.`,
+          ...conflicts.map(
+            (c) => `  ${KIND_LABEL[c.kind]} ${c.id}: ${c.nature}, fields ${c.fields?.join(', ')}`
+          ),
+          'Choose with --prefer newer (later edit wins), base or incoming.'
+        ].join('\n')
+      );
+    }
+    return CONFLICT_EXIT;
+  }
+  const changeSet = changeSetOf(
+    {
+      appVersion: typeof __APP_VERSION__ === 'string' ? __APP_VERSION__ : 'command-line',
+      exportedBy: { deviceId: 'command-line', deviceName: 'capstan merge' },
+      exportedAt: new Date().toISOString(),
+      scope: { kind: 'merged', sources: [basename(basePath), basename(incomingPath)] }
+    },
+    merged.records
+  );
+  try {
+    await writeFile(out, await encodeExchangeFile(changeSet, { gzip: out.endsWith('.gz') }));
+  } catch {
+    throw new UsageError(`Cannot write '${out}'`);
+  }
+  const c = merged.counts;
+  if (json)
+    io.stdout(
+      JSON.stringify({ written: true, out, counts: c, conflicts, prefer: preferText ?? null }, null, 2)
+    );
+  else {
+    io.stdout(
+      `${out}: ${c.new} new, ${c.updated} updated, ${c.unchanged} unchanged, ${c.deleted} deleted, ${c.conflict} conflicting` +
+        (c.conflict > 0 ? ` (settled: ${preferText})` : '')
+    );
+  }
+  return 0;
+}
