@@ -135,18 +135,16 @@ const historyArb = fc.record({
   skewB: fc.integer({ min: -86_400_000, max: 86_400_000 })
 });
 
-function histories(
-  h: fc.RecordValue<typeof historyArb> extends never
-    ? never
-    : {
-        sites: number;
-        perSite: number;
-        a: Op[];
-        b: Op[];
-        skewA: number;
-        skewB: number;
-      }
-) {
+interface History {
+  sites: number;
+  perSite: number;
+  a: Op[];
+  b: Op[];
+  skewA: number;
+  skewB: number;
+}
+
+function histories(h: History) {
   const base = baseRecords(h.sites, h.perSite);
   return { base, A: play(base, h.a, device('A', h.skewA)), B: play(base, h.b, device('B', h.skewB)) };
 }

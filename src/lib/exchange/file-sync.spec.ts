@@ -70,12 +70,15 @@ describe('exchange files between devices', () => {
       usl: 20,
       riskClass: 'standard'
     });
-    await site.studies.logOne({
-      characteristicId: ch.id,
-      period: '2026-11',
-      data: { kind: 'summary', n: 50, mean: 15, sd: 1 },
-      enteredBy: 'R. Imre'
-    });
+    await site.studies.logOne(
+      {
+        characteristicId: ch.id,
+        period: '2026-11',
+        data: { kind: 'summary', n: 50, mean: 15, sd: 1 },
+        enteredBy: 'R. Imre'
+      },
+      'new'
+    );
     const up = await importBytes(hq, await exportBytes(site, { kind: 'changes', peerId: hq.deviceId }));
     expect(up.plan.counts.new).toBe(4);
 
