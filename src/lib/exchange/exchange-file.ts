@@ -157,11 +157,17 @@ function jsonProblem(text: string, error: unknown): string {
  * forbidden keys, list lengths), format and version, content hash, schema, duplicate ids, counts, markup.
  * Returns the change set or throws an ExchangeFileError with one line. Never writes anything.
  */
-export async function decodeExchangeFile(input: Uint8Array): Promise<ChangeSet> {
+export type DecodeStage = 'unpacking' | 'parsing' | 'verifying';
+
+export async function decodeExchangeFile(
+  input: Uint8Array,
+  onStage: (stage: DecodeStage) => void = () => undefined
+): Promise<ChangeSet> {
   const tooBig = sizeProblem(input.byteLength);
   if (tooBig) throw new ExchangeFileError(tooBig);
   let bytes = input;
   if (bytes[0] === GZIP_MAGIC[0] && bytes[1] === GZIP_MAGIC[1]) {
+    onStage('unpacking');
     try {
       bytes = await pipeBytes(bytes, new DecompressionStream('gzip'), MAX_EXCHANGE_BYTES);
     } catch (e) {
@@ -188,12 +194,14 @@ export async function decodeExchangeFile(input: Uint8Array): Promise<ChangeSet> 
         : 'The file is not a Capstan exchange file: it does not start with a JSON object'
     );
   }
+  onStage('parsing');
   let parsed: unknown;
   try {
     parsed = JSON.parse(text);
   } catch (e) {
     throw new ExchangeFileError(jsonProblem(text, e));
   }
+  onStage('verifying');
   return checkParsed(parsed);
 }
 

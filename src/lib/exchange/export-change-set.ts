@@ -17,16 +17,26 @@ export interface ExportIdentity {
 }
 
 /**
- * Collects a scope into a change set and its file bytes, and remembers the export (the peer's checkpoint and
- * this device's last export time). Reading and writing the checkpoint go through storage; this module only
- * turns the change set into a file.
+ * Exports: a scope collected into a change set and its file bytes, and the export remembered (the peer's
+ * checkpoint and this device's last export time). Reading and writing the checkpoint go through storage; this
+ * module only turns the change set into a file.
  */
-export async function prepareExport(
+export interface ExportOptions {
+  gzip?: boolean;
+  peerName?: string;
+  siteName?: string;
+}
+
+/**
+ * The change set a scope covers, and `remember`, to be called once the file has been handed over: it moves
+ * the peer's checkpoint and this device's last-export time. (The page encodes in a worker in between.)
+ */
+export async function buildExport(
   storage: CapstanStorage,
   scope: ExportScope,
   identity: ExportIdentity,
-  options: { gzip?: boolean; peerName?: string; siteName?: string } = {}
-): Promise<PreparedExport> {
+  options: ExportOptions = {}
+): Promise<{ changeSet: ChangeSet; fileName: string; remember: () => Promise<void> }> {
   const collected = await storage.exchange.collect(scope);
   let scopeHeader: ExportScopeHeader;
   if (scope.kind === 'site')
@@ -47,9 +57,24 @@ export async function prepareExport(
     },
     collected.records
   );
-  const bytes = await encodeExchangeFile(changeSet, { gzip: options.gzip });
   const peer =
     scope.kind === 'changes' ? { deviceId: scope.peerId, name: options.peerName ?? '' } : undefined;
-  await storage.exchange.recordExport(identity.exportedAt, collected, peer);
-  return { changeSet, bytes, fileName: exchangeFileName(changeSet.header, options.gzip ?? false) };
+  return {
+    changeSet,
+    fileName: exchangeFileName(changeSet.header, options.gzip ?? false),
+    remember: () => storage.exchange.recordExport(identity.exportedAt, collected, peer)
+  };
+}
+
+/** Collects, encodes and remembers in one go (command line, tests). */
+export async function prepareExport(
+  storage: CapstanStorage,
+  scope: ExportScope,
+  identity: ExportIdentity,
+  options: ExportOptions = {}
+): Promise<PreparedExport> {
+  const built = await buildExport(storage, scope, identity, options);
+  const bytes = await encodeExchangeFile(built.changeSet, { gzip: options.gzip });
+  await built.remember();
+  return { changeSet: built.changeSet, bytes, fileName: built.fileName };
 }
