@@ -1,0 +1,237 @@
+import { chromium, expect, test, type BrowserContext, type Page } from '@playwright/test';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { canonicalJson } from '../../src/lib/domain/canonical-json';
+import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../support/chromium.mjs';
+import { startStaticServer, waitForServiceWorker, type RunningServer } from './static-server';
+
+/**
+ * Two devices in two separate Chromium profiles (own user-data directories, so own IndexedDB): the quality
+ * office and a site lead, meeting only through files.
+ */
+const MONTH = '2027-01';
+let server: RunningServer;
+const work = mkdtempSync(join(tmpdir(), 'capstan-exchange-e2e-'));
+const profiles: { context: BrowserContext; dir: string }[] = [];
+
+test.beforeEach(async () => {
+  server = await startStaticServer();
+});
+test.afterEach(async () => {
+  for (const p of profiles.splice(0)) {
+    await p.context.close();
+    rmSync(p.dir, { recursive: true, force: true });
+  }
+  await server.stop();
+});
+test.afterAll(() => rmSync(work, { recursive: true, force: true }));
+
+async function device(label: string, name: string): Promise<{ page: Page; context: BrowserContext }> {
+  const dir = mkdtempSync(join(tmpdir(), `capstan-profile-${label}-`));
+  const context = await chromium.launchPersistentContext(dir, {
+    executablePath: CHROMIUM_PATH,
+    args: CHROMIUM_ARGS,
+    acceptDownloads: true,
+    locale: 'en-GB'
+  });
+  profiles.push({ context, dir });
+  const page = context.pages()[0] ?? (await context.newPage());
+  await page.goto(server.url);
+  await waitForServiceWorker(page);
+  await nav(page, 'Settings').click();
+  await page.getByLabel('Your name, recorded on every study entered here').fill(name);
+  await page.getByRole('button', { name: 'Save name' }).click();
+  await expect(page.getByText('Saved.').first()).toBeVisible();
+  return { page, context };
+}
+
+function nav(page: Page, name: string) {
+  return page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name });
+}
+
+async function toExchange(page: Page) {
+  await nav(page, 'File exchange').click();
+  await expect(page.getByRole('heading', { name: 'Send a file' })).toBeVisible();
+}
+
+/** Saves a file from the exchange page and returns its path on disk. */
+async function saveFile(
+  page: Page,
+  scope: { site?: string; recipient?: string; everything?: true },
+  fileLabel: string
+): Promise<string> {
+  await toExchange(page);
+  if (scope.site) {
+    await page.getByRole('radio', { name: /One site/ }).check();
+    await page.getByTestId('export-site').selectOption({ label: scope.site });
+  } else if (scope.recipient) {
+    await page.getByRole('radio', { name: /What changed here since the last file/ }).check();
+    const option = page.getByTestId('export-peer').locator('option', { hasText: scope.recipient }).first();
+    await page.getByTestId('export-peer').selectOption((await option.getAttribute('value'))!);
+  } else {
+    await page.getByRole('radio', { name: /Everything on this device/ }).check();
+  }
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByRole('button', { name: 'Save the file' }).click()
+  ]);
+  expect(download.suggestedFilename()).toMatch(/^capstan-.+\.capstan\.json\.gz$/);
+  const path = join(work, `${fileLabel}.capstan.json.gz`);
+  await download.saveAs(path);
+  await expect(page.getByText(/^Saved capstan-/)).toBeVisible();
+  return path;
+}
+
+/** Opens a file on the exchange page and returns the preview table's text. */
+async function openFile(page: Page, path: string) {
+  await toExchange(page);
+  await page.getByTestId('exchange-file-input').setInputFiles(path);
+  await expect(page.getByTestId('import-preview')).toBeVisible();
+}
+
+async function confirmMerge(page: Page) {
+  await page.getByTestId('confirm-merge').click();
+  await expect(page.getByTestId('exchange-done')).toContainText('Merged');
+}
+
+function previewCell(page: Page, kind: string, column: number) {
+  return page
+    .getByTestId('import-preview')
+    .locator('tbody tr')
+    .filter({ hasText: kind })
+    .locator('td')
+    .nth(column);
+}
+
+async function recordsOf(path: string) {
+  return (await decodeExchangeFile(new Uint8Array(readFileSync(path)))).records;
+}
+
+/** Same records, kind by kind (a per-kind comparison says where they differ if they do). */
+async function expectSameRecords(a: string, b: string) {
+  const [x, y] = [await recordsOf(a), await recordsOf(b)];
+  for (const kind of Object.keys(x) as (keyof typeof x)[]) {
+    expect(canonicalJson(x[kind]), kind).toBe(canonicalJson(y[kind]));
+  }
+}
+
+async function editVehicleKeyTarget(page: Page, value: string) {
+  await nav(page, 'Settings').click();
+  await page.getByRole('button', { name: 'Edit targets of Vehicle parts' }).click();
+  await page.getByTestId('profile-form').locator('input[name="level-key"]').fill(value);
+  await page.getByRole('button', { name: 'Save targets' }).click();
+  await expect(page.getByText('Saved the targets of Vehicle parts')).toBeVisible();
+}
+
+test('a site lead and the quality office stay in step through files, and a crossing edit is shown and settled', async () => {
+  test.setTimeout(180_000);
+  const office = await device('office', 'Quality office');
+  await nav(office.page, 'Portfolio').click();
+  await office.page.getByTestId('load-demo').click();
+  await expect(office.page.getByTestId('portfolio-table')).toBeVisible();
+  const setup = await saveFile(office.page, { site: 'North Ridge Machining' }, '1-setup');
+
+  // The site lead receives the site's setup, then works offline.
+  const site = await device('site', 'North Ridge lead');
+  await openFile(site.page, setup);
+  await expect(previewCell(site.page, 'site', 0)).toHaveText('1');
+  await confirmMerge(site.page);
+  await site.context.setOffline(true);
+  await nav(site.page, 'Monthly log').click();
+  await site.page.getByTestId('log-site').selectOption({ label: 'North Ridge Machining' });
+  await site.page.getByLabel('Reporting month').fill(MONTH);
+  await site.page
+    .getByRole('button', { name: 'Log Leak rate (Gearbox housing leak test — test bench 1)' })
+    .click();
+  const panel = site.page.getByTestId('entry-panel');
+  await panel.getByRole('textbox', { name: 'n', exact: true }).fill('80');
+  await panel.getByRole('textbox', { name: 'Mean', exact: true }).fill('2.31');
+  await panel.getByRole('textbox', { name: 'Standard deviation', exact: true }).fill('0.45');
+  await panel.getByRole('button', { name: 'Save study' }).click();
+  await expect(site.page.getByTestId('saved-notice')).toContainText(`Saved ${MONTH}`);
+  const results = await saveFile(site.page, { recipient: 'Quality office' }, '2-results');
+
+  // The office takes the month's result in, tightens a target and sends the site's file back.
+  await openFile(office.page, results);
+  await expect(previewCell(office.page, 'study', 0)).toHaveText('1');
+  await expect(previewCell(office.page, 'study', 4)).toHaveText('0');
+  await confirmMerge(office.page);
+  await editVehicleKeyTarget(office.page, '1.9');
+  const targets = await saveFile(office.page, { site: 'North Ridge Machining' }, '3-targets');
+
+  await openFile(site.page, targets);
+  await expect(previewCell(site.page, 'context profile', 0)).toHaveText('1');
+  await confirmMerge(site.page);
+
+  // Same data on both: the site's whole database equals the office's file for that site.
+  const siteAll = await saveFile(site.page, { everything: true }, '4-site-all');
+  const officeSite = await saveFile(office.page, { site: 'North Ridge Machining' }, '4-office-site');
+  await expectSameRecords(siteAll, officeSite);
+  const profiles = (await recordsOf(siteAll)).contextProfiles;
+  expect(profiles.map((p) => p.levels.key)).toEqual([1.9]);
+
+  // Both change the same target before meeting again.
+  await editVehicleKeyTarget(office.page, '2');
+  await editVehicleKeyTarget(site.page, '1.5');
+  const crossing = await saveFile(site.page, { recipient: 'Quality office' }, '5-crossing');
+  await openFile(office.page, crossing);
+  const conflict = office.page.getByTestId('conflict');
+  await expect(conflict).toHaveCount(1);
+  await expect(conflict).toContainText('edited on both sides');
+  await expect(conflict.locator('tr').filter({ hasText: 'levels' })).toContainText('"key":2');
+  await expect(conflict.locator('tr').filter({ hasText: 'levels' })).toContainText('"key":1.5');
+  await expect(office.page.getByTestId('confirm-merge')).toBeDisabled();
+  await conflict.getByRole('radio', { name: "Take the file's" }).check();
+  await confirmMerge(office.page);
+  const settled = await saveFile(office.page, { site: 'North Ridge Machining' }, '6-settled');
+  await openFile(site.page, settled);
+  await expect(site.page.getByTestId('conflict')).toHaveCount(0);
+  await confirmMerge(site.page);
+
+  const siteEnd = await saveFile(site.page, { everything: true }, '7-site-all');
+  const officeEnd = await saveFile(office.page, { site: 'North Ridge Machining' }, '7-office-site');
+  await expectSameRecords(siteEnd, officeEnd);
+  expect((await recordsOf(siteEnd)).contextProfiles.map((p) => p.levels.key)).toEqual([1.5]);
+
+  // A bad file is refused with one line and nothing changes.
+  const bad = join(work, 'bad.capstan.json');
+  writeFileSync(bad, readFileSync(siteEnd).subarray(0, 200));
+  await toExchange(site.page);
+  await site.page.getByTestId('exchange-file-input').setInputFiles(bad);
+  await expect(site.page.getByTestId('exchange-error')).toContainText('Nothing was imported');
+  await expect(site.page.getByTestId('backup-status')).toContainText('Last file saved from this device');
+});
+
+test('text from an imported file is shown as text everywhere, never as markup', async () => {
+  test.setTimeout(120_000);
+  const { buildMarkupFile } = await import('./markup-file');
+  const path = join(work, 'markup.capstan.json');
+  writeFileSync(path, await buildMarkupFile());
+  const office = await device('markup', 'Office');
+  await openFile(office.page, path);
+  await confirmMerge(office.page);
+  const injected = '#x-site, #x-img, #x-proc, #x-ch, #x-proj, #x-unit, #x-note, #x-device, img[src="x"]';
+  const page = office.page;
+  await nav(page, 'Portfolio').click();
+  await expect(page.getByTestId('portfolio-table')).toContainText('<b id="x-site">Bold</b> Works');
+  await expect(page.locator(injected)).toHaveCount(0);
+  await page.getByTestId('portfolio-table').getByText('"><b id="x-proc">Casting').first().click();
+  await expect(page.getByRole('heading', { level: 1 })).toContainText('"><b id="x-proc">Casting');
+  await expect(page.getByText('<i id="x-ch">Bore</i>').first()).toBeVisible();
+  // Hover every chart so that tooltips are drawn, then look again.
+  const charts = page.getByTestId('chart');
+  await expect(charts.first().locator('svg')).toBeVisible();
+  for (let i = 0; i < (await charts.count()); i++) {
+    const box = await charts.nth(i).boundingBox();
+    if (box) await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await page.waitForTimeout(150);
+    await expect(page.locator(injected)).toHaveCount(0);
+  }
+  for (const link of ['Monthly log', 'Quarterly review', 'File exchange', 'Settings']) {
+    await nav(page, link).click();
+    await page.waitForTimeout(300);
+    await expect(page.locator(injected)).toHaveCount(0);
+  }
+});
