@@ -18,6 +18,7 @@ import {
 import { clockOf, versionOf, type RecordMeta } from '../domain/record-meta';
 import type { Study } from '../domain/study';
 import type { CapstanDatabase } from './database';
+import { LAST_EXPORT_KEY } from './backup-status';
 import { saveClock } from './device-identity';
 
 /**
@@ -48,7 +49,6 @@ export interface PeerRecord {
 const CHECKPOINT_MARGIN_MS = 60_000;
 
 const PEER_PREFIX = 'peer:';
-const LAST_EXPORT_KEY = 'lastExport';
 
 type AnyTable = Table<RecordMeta, string>;
 const tableOf = (db: CapstanDatabase, kind: RecordKind) => db.table(kind) as unknown as AnyTable;
@@ -343,34 +343,4 @@ export async function applyChangeSet(
     await savePeer(db, { ...known, name: source.name || known.name, lastReceivedAt: source.at });
     return { counts: { ...plan.counts }, written };
   });
-}
-
-/** When this device last exported, and what has been written here since, for the backup reminder. */
-export interface BackupStatus {
-  lastExportAt?: string;
-  /** Records written (typed or imported) on this device after its last export. */
-  unexported: number;
-  /** Write time (from the sequence) of the oldest of them. */
-  oldestUnexportedAt?: string;
-}
-
-export async function loadBackupStatus(db: CapstanDatabase): Promise<BackupStatus> {
-  const row = (await db.deviceSettings.get(LAST_EXPORT_KEY))?.value as
-    { at: string; highWater: number } | undefined;
-  const after = row?.highWater ?? 0;
-  let unexported = 0;
-  let oldest: number | undefined;
-  for (const kind of RECORD_KINDS) {
-    const range = tableOf(db, kind).where('localSeq').above(after);
-    unexported += await range.count();
-    const first = await range.first();
-    if (first?.localSeq !== undefined && (oldest === undefined || first.localSeq < oldest))
-      oldest = first.localSeq;
-  }
-  return {
-    lastExportAt: row?.at,
-    unexported,
-    oldestUnexportedAt:
-      oldest === undefined ? undefined : new Date(Math.min(oldest, Date.now())).toISOString()
-  };
 }

@@ -6,20 +6,14 @@ import { createCharacteristicRepository } from './characteristic-repository';
 import { CapstanDatabase, DEFAULT_DATABASE_NAME } from './database';
 import type { HybridClock } from '../domain/hybrid-clock';
 import type { RecordsByKind } from '../domain/record-kinds';
-import {
-  applyChangeSet,
-  collectChanges,
-  listPeers,
-  loadBackupStatus,
-  previewChangeSet,
-  recordExport,
-  type BackupStatus,
-  type CollectedChanges,
-  type ConflictChoices,
-  type ExportScope,
-  type ImportPlan,
-  type ImportResult,
-  type PeerRecord
+import { loadBackupStatus, type BackupStatus } from './backup-status';
+import type {
+  CollectedChanges,
+  ConflictChoices,
+  ExportScope,
+  ImportPlan,
+  ImportResult,
+  PeerRecord
 } from './change-set-store';
 import { loadClock, loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
 import { ContextProfileRepository } from './context-profile-repository';
@@ -89,6 +83,8 @@ export interface CapstanStorage {
   close(): void;
 }
 
+const changeSets = () => import('./change-set-store');
+
 const REMINDER_KEY = 'backupReminderDays';
 /** Nudge after a week of changes that are in no file: a month's logging is then at most a week at risk. */
 const DEFAULT_REMINDER_DAYS = 7;
@@ -124,11 +120,14 @@ export async function openStorage(
       isEmpty: () => isPortfolioEmpty(db)
     },
     exchange: {
-      collect: (scope) => collectChanges(db, scope),
-      recordExport: (at, collected, peer) => recordExport(db, clock, at, collected, peer),
-      preview: (records) => previewChangeSet(db, records),
-      apply: (plan, choices, source) => applyChangeSet(db, plan, choices, clock, source),
-      peers: () => listPeers(db),
+      // Loaded on first use: merging is not needed to show the first page.
+      collect: async (scope) => (await changeSets()).collectChanges(db, scope),
+      recordExport: async (at, collected, peer) =>
+        (await changeSets()).recordExport(db, clock, at, collected, peer),
+      preview: async (records) => (await changeSets()).previewChangeSet(db, records),
+      apply: async (plan, choices, source) =>
+        (await changeSets()).applyChangeSet(db, plan, choices, clock, source),
+      peers: async () => (await changeSets()).listPeers(db),
       backupStatus: () => loadBackupStatus(db),
       reminderDays: async () => {
         const v = (await db.deviceSettings.get(REMINDER_KEY))?.value;
