@@ -1,5 +1,6 @@
 /** `npm run bench`: runs every benchmark and prints one table. Figures only; nothing here passes or fails. */
 import { runCsvImportBench } from './csv-import-bench';
+import { runExchangeFileBench } from './exchange-file-bench';
 import { runEngineBench, type BenchRow } from './engine-bench';
 import { runRankingBench } from './ranking-bench';
 
@@ -22,4 +23,4 @@ function print(rows: BenchRow[]): void {
 }
 
 console.log(`Capstan benchmarks — Node ${process.version}, ${new Date().toISOString()}`);
-print([...runEngineBench(), ...runCsvImportBench(), ...runRankingBench()]);
+print([...runEngineBench(), ...runCsvImportBench(), ...runRankingBench(), ...(await runExchangeFileBench())]);

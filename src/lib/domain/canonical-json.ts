@@ -8,48 +8,96 @@
  * the value nests deeper than `maxDepth`, so a hostile file cannot exhaust the stack.
  */
 export function canonicalJson(value: unknown, maxDepth = 64): string {
-  const parts: string[] = [];
-  write(value, parts, 0, maxDepth, '');
-  return parts.join('');
+  try {
+    return write(value, 0, maxDepth);
+  } catch (error) {
+    // Paths are only worked out when something is wrong: building them for every value costs more than the rest.
+    const path = problemPath(value, 0, maxDepth, '');
+    if (error instanceof RangeError && path !== undefined) throw new RangeError(`${path.path} ${path.what}`);
+    throw error;
+  }
 }
 
-function write(value: unknown, out: string[], depth: number, maxDepth: number, path: string): void {
-  if (value === null || typeof value === 'boolean' || typeof value === 'string') {
-    out.push(JSON.stringify(value));
-    return;
-  }
-  if (typeof value === 'number') {
-    if (!Number.isFinite(value)) throw new RangeError(`${path || 'value'} is not a finite number`);
-    out.push(JSON.stringify(value));
-    return;
-  }
-  if (depth >= maxDepth)
-    throw new RangeError(`${path || 'value'} is nested more than ${maxDepth} levels deep`);
+function problemPath(
+  value: unknown,
+  depth: number,
+  maxDepth: number,
+  path: string
+): { path: string; what: string } | undefined {
+  const here = path || 'value';
+  if (typeof value === 'number')
+    return Number.isFinite(value) ? undefined : { path: here, what: 'is not a finite number' };
+  if (value === null || typeof value !== 'object') return undefined;
+  if (depth >= maxDepth) return { path: here, what: `is nested more than ${maxDepth} levels deep` };
   if (Array.isArray(value)) {
-    out.push('[');
     for (let i = 0; i < value.length; i++) {
-      if (i > 0) out.push(',');
-      const item: unknown = value[i];
-      write(item === undefined ? null : item, out, depth + 1, maxDepth, `${path}[${i}]`);
+      const found = problemPath(value[i], depth + 1, maxDepth, `${path}[${i}]`);
+      if (found) return found;
     }
-    out.push(']');
-    return;
+    return undefined;
+  }
+  for (const key of Object.keys(value).sort()) {
+    const found = problemPath(
+      (value as Record<string, unknown>)[key],
+      depth + 1,
+      maxDepth,
+      path ? `${path}.${key}` : key
+    );
+    if (found) return found;
+  }
+  return undefined;
+}
+
+/** Keys are few and repeat in every record: their quoted form is computed once. */
+const quotedKeys = new Map<string, string>();
+function quoted(key: string): string {
+  let q = quotedKeys.get(key);
+  if (q === undefined) {
+    q = JSON.stringify(key);
+    if (quotedKeys.size < 10_000) quotedKeys.set(key, q);
+  }
+  return q;
+}
+
+function write(value: unknown, depth: number, maxDepth: number): string {
+  if (value === null || typeof value === 'boolean' || typeof value === 'string') return JSON.stringify(value);
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new RangeError('value is not a finite number');
+    return JSON.stringify(value);
+  }
+  if (depth >= maxDepth) throw new RangeError(`value is nested more than ${maxDepth} levels deep`);
+  if (Array.isArray(value)) {
+    // Measurement lists are most of a file: a list of finite numbers is written by the engine in one call.
+    let numbers = true;
+    for (let i = 0; i < value.length; i++) {
+      const v: unknown = value[i];
+      if (typeof v !== 'number' || !Number.isFinite(v)) {
+        numbers = false;
+        break;
+      }
+    }
+    if (numbers) return JSON.stringify(value);
+    let out = '[';
+    for (let i = 0; i < value.length; i++) {
+      if (i > 0) out += ',';
+      const item: unknown = value[i];
+      out += write(item === undefined ? null : item, depth + 1, maxDepth);
+    }
+    return out + ']';
   }
   if (typeof value === 'object') {
     const obj = value as Record<string, unknown>;
     const keys = Object.keys(obj).sort();
-    out.push('{');
+    let out = '{';
     let first = true;
     for (const key of keys) {
       const item = obj[key];
       if (item === undefined) continue;
-      if (!first) out.push(',');
+      if (!first) out += ',';
       first = false;
-      out.push(JSON.stringify(key), ':');
-      write(item, out, depth + 1, maxDepth, path ? `${path}.${key}` : key);
+      out += quoted(key) + ':' + write(item, depth + 1, maxDepth);
     }
-    out.push('}');
-    return;
+    return out + '}';
   }
-  throw new TypeError(`${path || 'value'} cannot be written as JSON (${typeof value})`);
+  throw new TypeError(`a value cannot be written as JSON (${typeof value})`);
 }

@@ -129,3 +129,33 @@ describe('merging one record', () => {
     expect(mergeRecord(a, b)).toMatchObject({ kind: 'conflict', nature: 'diverged' });
   });
 });
+
+describe('same content', () => {
+  it('agrees with comparing canonical text, bookkeeping left out (property)', async () => {
+    const { contentOf, sameContent } = await import('./record-merge');
+    const value = fc.oneof(
+      fc.integer(),
+      fc.double({ noNaN: true, noDefaultInfinity: true }),
+      fc.string(),
+      fc.constant(undefined)
+    );
+    const record = fc.record({
+      name: fc.constantFrom('a', 'b'),
+      extra: value,
+      data: fc.record({ values: fc.array(fc.integer({ min: 0, max: 3 }), { maxLength: 3 }), note: value }),
+      rev: fc.integer({ min: 1, max: 3 }),
+      deletedAt: fc.constantFrom(undefined, '2026-01-01T00:00:00Z')
+    });
+    fc.assert(
+      fc.property(record, record, (a, b) => {
+        const x = { ...a, id: 'x', createdAt: '', updatedAt: '', deviceId: 'd' } as RecordMeta;
+        const y = { ...b, id: 'x', createdAt: '', updatedAt: '', deviceId: 'e' } as RecordMeta;
+        const byText =
+          contentOf(x) === contentOf(y) && (x.deletedAt === undefined) === (y.deletedAt === undefined);
+        expect(sameContent(x, y)).toBe(byText);
+        expect(sameContent(x, { ...x, rev: 9 })).toBe(true);
+      }),
+      { numRuns: 500 }
+    );
+  });
+});

@@ -42,6 +42,44 @@ export function contentOf(record: RecordMeta): string {
 
 const isTombstone = (r: RecordMeta) => r.deletedAt !== undefined;
 
+/** Deep equality of JSON-like values, keys with `undefined` counting as absent (as in canonical JSON). */
+function sameValue(a: unknown, b: unknown): boolean {
+  if (a === b) return true;
+  if (typeof a !== 'object' || typeof b !== 'object' || a === null || b === null) return false;
+  if (Array.isArray(a) !== Array.isArray(b)) return false;
+  if (Array.isArray(a)) {
+    const y = b as unknown[];
+    if (a.length !== y.length) return false;
+    for (let i = 0; i < a.length; i++) if (!sameValue(a[i], y[i])) return false;
+    return true;
+  }
+  return sameFieldsExcept(a as Record<string, unknown>, b as Record<string, unknown>, undefined);
+}
+
+function sameFieldsExcept(
+  a: Record<string, unknown>,
+  b: Record<string, unknown>,
+  skip: Set<string> | undefined
+) {
+  for (const key of Object.keys(a)) {
+    if (skip?.has(key)) continue;
+    if (!sameValue(a[key], b[key])) return false;
+  }
+  for (const key of Object.keys(b)) {
+    if (skip?.has(key)) continue;
+    if (a[key] === undefined && b[key] !== undefined) return false;
+  }
+  return true;
+}
+
+/** Same content (bookkeeping left out) and same deletion state: `contentOf` equality without writing text. */
+export function sameContent(a: RecordMeta, b: RecordMeta): boolean {
+  return (
+    isTombstone(a) === isTombstone(b) &&
+    sameFieldsExcept(a as unknown as Record<string, unknown>, b as unknown as Record<string, unknown>, META)
+  );
+}
+
 /** Top-level fields whose values differ (bookkeeping left out; a deletion shows as `deleted`). */
 export function differingFields(a: RecordMeta, b: RecordMeta): string[] {
   const out: string[] = [];
@@ -84,11 +122,9 @@ export function mergeRecord<T extends RecordMeta>(local: T | undefined, incoming
     return { kind: isTombstone(incoming) ? 'deleted' : 'new', incoming, write: normalised(incoming) };
   }
   const order = compareVersions(versionOf(incoming), versionOf(local));
-  const sameContent =
-    contentOf(local) === contentOf(incoming) && isTombstone(local) === isTombstone(incoming);
   switch (order) {
     case 'equal':
-      if (sameContent) return { kind: 'unchanged', incoming, local };
+      if (sameContent(local, incoming)) return { kind: 'unchanged', incoming, local };
       return conflict(local, incoming, 'diverged');
     case 'before':
       return { kind: 'unchanged', incoming, local };
@@ -100,7 +136,7 @@ export function mergeRecord<T extends RecordMeta>(local: T | undefined, incoming
         write: normalised(incoming)
       };
     case 'concurrent': {
-      if (sameContent || (isTombstone(local) && isTombstone(incoming))) {
+      if (sameContent(local, incoming) || (isTombstone(local) && isTombstone(incoming))) {
         const winner = newerOf(local, incoming);
         return {
           kind: 'updated',

@@ -202,10 +202,21 @@ export async function decodeExchangeFile(
     throw new ExchangeFileError(jsonProblem(text, e));
   }
   onStage('verifying');
-  return checkParsed(parsed);
+  return checkParsed(parsed, text);
 }
 
-async function checkParsed(parsed: unknown): Promise<ChangeSet> {
+/**
+ * The text the writer hashed, when the file is exactly as written: everything before the final
+ * `,"sha256":"…"}`. Hashing it directly spares re-serialising a large file; a file that was re-indented or
+ * otherwise rewritten falls back to the canonical form.
+ */
+function asWritten(text: string, sha256: string): string | undefined {
+  const tail = `,"sha256":"${sha256}"}`;
+  const trimmed = text.trimEnd();
+  return trimmed.endsWith(tail) ? `${trimmed.slice(0, -tail.length)}}` : undefined;
+}
+
+async function checkParsed(parsed: unknown, text: string): Promise<ChangeSet> {
   const structural = structuralProblem(parsed, MAX_RECORDS_PER_KIND);
   if (structural) throw new ExchangeFileError(structural);
   const top = parsed as Record<string, unknown>;
@@ -240,13 +251,18 @@ async function checkParsed(parsed: unknown): Promise<ChangeSet> {
     );
   }
   const { sha256, ...rest } = top;
-  let body: string;
-  try {
-    body = canonicalJson(rest, 64);
-  } catch (e) {
-    throw new ExchangeFileError(e instanceof Error ? e.message : String(e));
+  const written = asWritten(text, sha256);
+  let matches = written !== undefined && (await sha256Hex(written)) === sha256;
+  if (!matches) {
+    let body: string;
+    try {
+      body = canonicalJson(rest, 64);
+    } catch (e) {
+      throw new ExchangeFileError(e instanceof Error ? e.message : String(e));
+    }
+    matches = (await sha256Hex(body)) === sha256;
   }
-  if ((await sha256Hex(body)) !== sha256) {
+  if (!matches) {
     throw new ExchangeFileError(
       'The content hash does not match: the file was changed or damaged after it was exported'
     );

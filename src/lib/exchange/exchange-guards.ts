@@ -27,32 +27,56 @@ export function pathText(path: readonly (string | number)[]): string {
   return out || 'top level of the file';
 }
 
+/** A node of the walk: its value and how to name its path if a problem is found there (built only then). */
+interface Node {
+  value: unknown;
+  parent: Node | undefined;
+  key: string | number;
+  depth: number;
+}
+
+function pathOf(node: Node): string {
+  const parts: (string | number)[] = [];
+  for (let n: Node | undefined = node; n && n.parent; n = n.parent) parts.push(n.key);
+  return pathText(parts.reverse());
+}
+
+const isNumberList = (key: string | number) => key === 'values' || key === 'subgroups';
+
 /** First structural problem of a parsed value, or undefined. Iterative, so depth cannot overflow the stack. */
 export function structuralProblem(root: unknown, maxArray: number): string | undefined {
-  const stack: { value: unknown; path: (string | number)[] }[] = [{ value: root, path: [] }];
+  const stack: Node[] = [{ value: root, parent: undefined, key: '', depth: 0 }];
   while (stack.length > 0) {
-    const { value, path } = stack.pop()!;
+    const node = stack.pop()!;
+    const value = node.value;
     if (value === null || typeof value !== 'object') continue;
-    if (path.length >= MAX_NESTING) return `${pathText(path)} is nested more than ${MAX_NESTING} levels deep`;
+    if (node.depth >= MAX_NESTING) return `${pathOf(node)} is nested more than ${MAX_NESTING} levels deep`;
     if (Array.isArray(value)) {
       // Measurement lists are the one place long lists belong; the study schema caps them itself.
-      const isValues = path[path.length - 1] === 'values' || path[path.length - 1] === 'subgroups';
-      if (!isValues && value.length > maxArray) {
-        return `${pathText(path)} holds ${value.length.toLocaleString('en')} entries, more than the ${maxArray.toLocaleString('en')} allowed`;
-      }
-      if (isValues) {
-        // Values are numbers or strings: nothing below them to walk, but a nested object there is refused.
+      if (isNumberList(node.key)) {
         const nested = value.findIndex((v) => v !== null && typeof v === 'object');
-        if (nested >= 0) return `${pathText([...path, nested])} must be a number, not a list or object`;
+        if (nested >= 0) {
+          return `${pathOf({ value: undefined, parent: node, key: nested, depth: 0 })} must be a number, not a list or object`;
+        }
         continue;
       }
-      for (let i = value.length - 1; i >= 0; i--) stack.push({ value: value[i], path: [...path, i] });
+      if (value.length > maxArray) {
+        return `${pathOf(node)} holds ${value.length.toLocaleString('en')} entries, more than the ${maxArray.toLocaleString('en')} allowed`;
+      }
+      for (let i = value.length - 1; i >= 0; i--) {
+        const v: unknown = value[i];
+        if (v !== null && typeof v === 'object')
+          stack.push({ value: v, parent: node, key: i, depth: node.depth + 1 });
+      }
       continue;
     }
     for (const key of Object.keys(value)) {
-      if (FORBIDDEN_KEYS.has(key))
-        return `${pathText([...path, key])}: the key "${key}" is not allowed in a Capstan file`;
-      stack.push({ value: (value as Record<string, unknown>)[key], path: [...path, key] });
+      if (FORBIDDEN_KEYS.has(key)) {
+        return `${pathOf({ value: undefined, parent: node, key, depth: 0 })}: the key "${key}" is not allowed in a Capstan file`;
+      }
+      const v = (value as Record<string, unknown>)[key];
+      if (v !== null && typeof v === 'object')
+        stack.push({ value: v, parent: node, key, depth: node.depth + 1 });
     }
   }
   return undefined;
@@ -60,25 +84,32 @@ export function structuralProblem(root: unknown, maxArray: number): string | und
 
 /** First text value holding active markup, as `path: what`. */
 export function markupProblem(root: unknown): string | undefined {
-  const stack: { value: unknown; path: (string | number)[] }[] = [{ value: root, path: [] }];
+  const stack: Node[] = [{ value: root, parent: undefined, key: '', depth: 0 }];
   while (stack.length > 0) {
-    const { value, path } = stack.pop()!;
+    const node = stack.pop()!;
+    const value = node.value;
     if (typeof value === 'string') {
       const hit = activeMarkupIn(value);
-      if (hit)
-        return `${pathText(path)} holds markup that could run as code ("${hit}…"); Capstan does not accept it — remove it where the file was made`;
+      if (hit) {
+        return `${pathOf(node)} holds markup that could run as code ("${hit}…"); Capstan does not accept it — remove it where the file was made`;
+      }
       continue;
     }
     if (value === null || typeof value !== 'object') continue;
     if (Array.isArray(value)) {
       for (let i = value.length - 1; i >= 0; i--) {
         const v: unknown = value[i];
-        if (typeof v === 'number') continue;
-        stack.push({ value: v, path: [...path, i] });
+        if (typeof v === 'string' || (v !== null && typeof v === 'object'))
+          stack.push({ value: v, parent: node, key: i, depth: 0 });
       }
     } else {
-      for (const key of Object.keys(value).reverse())
-        stack.push({ value: (value as Record<string, unknown>)[key], path: [...path, key] });
+      const keys = Object.keys(value);
+      for (let i = keys.length - 1; i >= 0; i--) {
+        const key = keys[i]!;
+        const v = (value as Record<string, unknown>)[key];
+        if (typeof v === 'string' || (v !== null && typeof v === 'object'))
+          stack.push({ value: v, parent: node, key, depth: 0 });
+      }
     }
   }
   return undefined;

@@ -37,6 +37,19 @@ describe('exchange files between devices', () => {
     expect(again.result.written).toBe(0);
   });
 
+  it('verifies a re-indented file by its canonical form, and still catches a changed value in it', async () => {
+    const a = await device('a');
+    await a.sites.create({ name: 'Plant', region: 'North', timeZone: 'UTC' });
+    const text = new TextDecoder().decode(await exportBytes(a));
+    const pretty = JSON.stringify(JSON.parse(text), null, 2);
+    expect(pretty).not.toBe(text);
+    const reread = await decodeExchangeFile(new TextEncoder().encode(pretty));
+    expect(reread).toEqual(await decodeExchangeFile(new TextEncoder().encode(text)));
+    await expect(
+      decodeExchangeFile(new TextEncoder().encode(pretty.replace('"North"', '"South"')))
+    ).rejects.toThrow('content hash does not match');
+  });
+
   it('reads its own gzip-compressed files', async () => {
     const a = await device('a');
     await a.loadDemo(demo);
