@@ -13,7 +13,8 @@ export function canonicalJson(value: unknown, maxDepth = 64): string {
   } catch (error) {
     // Paths are only worked out when something is wrong: building them for every value costs more than the rest.
     const path = problemPath(value, 0, maxDepth, '');
-    if (error instanceof RangeError && path !== undefined) throw new RangeError(`${path.path} ${path.what}`);
+    if (error instanceof RangeError && path !== undefined)
+      throw new RangeError(`${path.path} ${path.what}`, { cause: error });
     throw error;
   }
 }
