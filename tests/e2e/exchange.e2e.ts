@@ -235,3 +235,30 @@ test('text from an imported file is shown as text everywhere, never as markup', 
     await expect(page.locator(injected)).toHaveCount(0);
   }
 });
+
+test('changes in no saved file for longer than the set days bring a reminder, which a saved file clears', async ({
+  page
+}) => {
+  await page.clock.install({ time: new Date('2026-12-01T09:00:00Z') });
+  await page.goto(server.url);
+  await page.getByTestId('load-demo').click();
+  await expect(page.getByTestId('portfolio-table')).toBeVisible();
+  await expect(page.getByTestId('backup-nudge')).toHaveCount(0);
+  await nav(page, 'Settings').click();
+  await page.getByTestId('reminder-days').fill('3');
+  await page.getByRole('button', { name: 'Save reminder' }).click();
+  await page.clock.setSystemTime(new Date('2026-12-05T12:00:00Z'));
+  await nav(page, 'Portfolio').click();
+  await page.reload();
+  await expect(page.getByTestId('backup-nudge')).toContainText('the oldest from 4 days ago');
+  await nav(page, 'File exchange').click();
+  await expect(page.getByTestId('backup-nudge')).toBeVisible();
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByRole('button', { name: 'Save the file' }).click()
+  ]);
+  expect(download.suggestedFilename()).toMatch(/\.capstan\.json\.gz$/);
+  await expect(page.getByTestId('backup-status')).toContainText('Every change is in a saved file');
+  await nav(page, 'Portfolio').click();
+  await expect(page.getByTestId('backup-nudge')).toHaveCount(0);
+});
