@@ -2,6 +2,7 @@ import 'fake-indexeddb/auto';
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { canonicalJson } from '../../src/lib/domain/canonical-json';
+import type { Process } from '../../src/lib/domain/process';
 import { emptyRecords, RECORD_KINDS, type RecordsByKind } from '../../src/lib/domain/record-kinds';
 import { contentOf } from '../../src/lib/domain/record-merge';
 import {
@@ -32,15 +33,7 @@ import { closeDevice, openDevice } from '../support/exchange-harness';
 const RUNS = 300;
 
 type SiteRec = RecordMeta & { name: string; region: string; timeZone: string };
-type ProcRec = RecordMeta & {
-  siteId: string;
-  name: string;
-  owner: string;
-  contextId: string;
-  monthlyVolume: number;
-  costPerDefective: number;
-  currency: string;
-};
+type ProcRec = Process;
 
 function device(deviceId: string, skewMs: number): WriteContext & { step: () => void } {
   let t = Date.parse('2026-06-01T00:00:00Z') + skewMs;

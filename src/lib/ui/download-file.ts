@@ -1,6 +1,6 @@
-/** Offers text as a file download; works offline (an object URL, no network). */
-export function downloadText(filename: string, text: string, type = 'text/csv;charset=utf-8'): void {
-  const url = URL.createObjectURL(new Blob([text], { type }));
+/** Offers a blob as a file download; works offline (an object URL, no network). */
+function downloadBlob(filename: string, blob: Blob): void {
+  const url = URL.createObjectURL(blob);
   const a = document.createElement('a');
   a.href = url;
   a.download = filename;
@@ -10,14 +10,12 @@ export function downloadText(filename: string, text: string, type = 'text/csv;ch
   setTimeout(() => URL.revokeObjectURL(url), 1000);
 }
 
-/** Offers bytes (an exchange file) as a download; works offline. */
+/** Text (a CSV table) as a download. */
+export function downloadText(filename: string, text: string, type = 'text/csv;charset=utf-8'): void {
+  downloadBlob(filename, new Blob([text], { type }));
+}
+
+/** Bytes (an exchange file) as a download. */
 export function downloadBytes(filename: string, bytes: Uint8Array, type: string): void {
-  const url = URL.createObjectURL(new Blob([bytes as BlobPart], { type }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = filename;
-  document.body.append(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
+  downloadBlob(filename, new Blob([bytes as BlobPart], { type }));
 }
