@@ -228,7 +228,8 @@ describe('capstan check and merge', async () => {
     processes: demoRecords.processes.map(travelling),
     characteristics: demoRecords.characteristics.map(travelling),
     studies: demoRecords.studies.map(travelling),
-    projects: demoRecords.projects.map(travelling)
+    projects: demoRecords.projects.map(travelling),
+    reviews: []
   };
   const header = (name: string) => ({
     appVersion: 'test',

@@ -63,7 +63,15 @@ export async function runExchangeFileBench(): Promise<BenchRow[]> {
       ctx
     )
   );
-  const records = { contextProfiles: [], sites: [site], processes, characteristics, studies, projects: [] };
+  const records = {
+    contextProfiles: [],
+    sites: [site],
+    processes,
+    characteristics,
+    studies,
+    projects: [],
+    reviews: []
+  };
   const header = {
     appVersion: 'bench',
     exportedBy: { deviceId: 'bench-device', deviceName: 'bench' },

@@ -82,7 +82,8 @@ export async function buildMarkupFile(): Promise<Uint8Array> {
       processes: [process],
       characteristics: [characteristic],
       studies,
-      projects: [project]
+      projects: [project],
+      reviews: []
     }
   );
   return encodeExchangeFile(changeSet);

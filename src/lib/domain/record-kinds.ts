@@ -1,6 +1,7 @@
 import type { Characteristic } from './characteristic';
 import type { ContextProfileRecord } from './context-profile-record';
 import type { ImprovementProject } from './improvement-project';
+import type { QuarterReviewRecord } from './quarter-review-record';
 import type { Process } from './process';
 import type { Site } from './site';
 import type { Study } from './study';
@@ -15,7 +16,8 @@ export const RECORD_KINDS = [
   'processes',
   'characteristics',
   'studies',
-  'projects'
+  'projects',
+  'reviews'
 ] as const;
 export type RecordKind = (typeof RECORD_KINDS)[number];
 
@@ -26,6 +28,7 @@ export interface RecordsByKind {
   characteristics: Characteristic[];
   studies: Study[];
   projects: ImprovementProject[];
+  reviews: QuarterReviewRecord[];
 }
 
 /** Singular names for messages ("study 3f…"). */
@@ -35,11 +38,20 @@ export const KIND_LABEL: Record<RecordKind, string> = {
   processes: 'process',
   characteristics: 'characteristic',
   studies: 'study',
-  projects: 'improvement project'
+  projects: 'improvement project',
+  reviews: 'quarterly review'
 };
 
 export function emptyRecords(): RecordsByKind {
-  return { contextProfiles: [], sites: [], processes: [], characteristics: [], studies: [], projects: [] };
+  return {
+    contextProfiles: [],
+    sites: [],
+    processes: [],
+    characteristics: [],
+    studies: [],
+    projects: [],
+    reviews: []
+  };
 }
 
 export function countRecords(records: RecordsByKind): Record<RecordKind, number> {

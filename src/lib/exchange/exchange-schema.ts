@@ -4,6 +4,7 @@ import { contextProfileFieldsSchema } from '../domain/context-profile-record';
 import { isClockStamp } from '../domain/hybrid-clock';
 import { improvementProjectFieldsSchema } from '../domain/improvement-project';
 import { processFieldsSchema } from '../domain/process';
+import { quarterReviewFieldsSchema } from '../domain/quarter-review-record';
 import { RECORD_KINDS } from '../domain/record-kinds';
 import { recordMetaSchema } from '../domain/record-meta-schema';
 import { siteFieldsSchema } from '../domain/site';
@@ -59,7 +60,8 @@ export const exchangeRecordSchemas = {
   // Characteristic and project schemas carry cross-field checks, which zod keeps through `.and`.
   characteristics: characteristicFieldsSchema.and(exchangeMeta),
   studies: withMeta(studyFieldsSchema),
-  projects: improvementProjectFieldsSchema.and(exchangeMeta)
+  projects: improvementProjectFieldsSchema.and(exchangeMeta),
+  reviews: withMeta(quarterReviewFieldsSchema)
 } as const;
 
 const countsSchema = z.strictObject(

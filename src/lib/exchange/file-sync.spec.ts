@@ -166,7 +166,8 @@ describe('exchange files between devices', () => {
       processes: 0,
       characteristics: 0,
       studies: 0,
-      projects: 0
+      projects: 0,
+      reviews: 0
     });
     expect(second.header.scope).toMatchObject({ kind: 'changes', recipient: { deviceId: 'peer-1' } });
     // Another peer has had nothing yet, so it gets everything.

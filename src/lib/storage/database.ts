@@ -3,6 +3,7 @@ import type { Characteristic } from '../domain/characteristic';
 import type { ContextProfileRecord } from '../domain/context-profile-record';
 import type { ImprovementProject } from '../domain/improvement-project';
 import type { Process } from '../domain/process';
+import type { QuarterReviewRecord } from '../domain/quarter-review-record';
 import type { Site } from '../domain/site';
 import type { Study } from '../domain/study';
 import { RECORD_KINDS } from '../domain/record-kinds';
@@ -50,6 +51,7 @@ export class CapstanDatabase extends Dexie {
   entryDrafts!: Table<EntryDraft, string>;
   studyRevisions!: Table<StudyRevision, string>;
   contextProfiles!: Table<ContextProfileRecord, string>;
+  reviews!: Table<QuarterReviewRecord, string>;
 
   /** This device's write sequence (see local-sequence.ts); resumes above the highest stored value on open. */
   readonly sequence = new LocalSequence();

@@ -2,7 +2,14 @@ import 'fake-indexeddb/auto';
 import { Dexie } from 'dexie';
 import { describe, expect, it } from 'vitest';
 import { CapstanDatabase } from './database';
-import { CURRENT_SCHEMA_VERSION, SCHEMA_V1, SCHEMA_V2, SCHEMA_V3, SCHEMA_V4 } from './schema-versions';
+import {
+  CURRENT_SCHEMA_VERSION,
+  SCHEMA_V1,
+  SCHEMA_V2,
+  SCHEMA_V3,
+  SCHEMA_V4,
+  SCHEMA_V5
+} from './schema-versions';
 
 /**
  * Opens a database as schema v1 shipped it, fills it with v1-shaped records, then reopens it with the
@@ -180,7 +187,7 @@ describe('schema upgrade v4 → v5', () => {
     v4.close();
     const current = new CapstanDatabase(name);
     await current.open();
-    expect(current.verno).toBe(5);
+    expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
     const upgraded = await current.sites.get(site.id);
     expect(upgraded).toMatchObject({ ...site, vv: { 'dev-v4': 3 }, clock: '1772704800000-0000-dev-v4' });
     expect(typeof upgraded?.localSeq).toBe('number');
@@ -188,6 +195,41 @@ describe('schema upgrade v4 → v5', () => {
     expect(await current.sites.where('localSeq').above(0).count()).toBe(1);
     // New writes continue above every stored sequence value.
     expect(current.sequence.latest).toBeGreaterThanOrEqual(upgraded!.localSeq!);
+    current.close();
+    await Dexie.delete(name);
+  });
+});
+
+describe('schema upgrade v5 → v6', () => {
+  it('adds the quarterly-review table and keeps every record', async () => {
+    const name = 'capstan-migration-v6';
+    const v5 = new Dexie(name);
+    v5.version(1).stores(SCHEMA_V1);
+    v5.version(2).stores(SCHEMA_V2);
+    v5.version(3).stores(SCHEMA_V3);
+    v5.version(4).stores(SCHEMA_V4);
+    v5.version(5).stores(SCHEMA_V5);
+    await v5.open();
+    const site = {
+      id: '99999999-9999-4999-8999-999999999999',
+      createdAt: '2026-01-05T00:00:00.000Z',
+      updatedAt: '2026-01-05T00:00:00.000Z',
+      rev: 1,
+      deviceId: 'dev-v5',
+      vv: { 'dev-v5': 1 },
+      clock: '1767571200000-0000-dev-v5',
+      localSeq: 5,
+      name: 'Plant',
+      region: '',
+      timeZone: 'UTC'
+    };
+    await v5.table('sites').add(site);
+    v5.close();
+    const current = new CapstanDatabase(name);
+    await current.open();
+    expect(current.verno).toBe(6);
+    expect(await current.sites.get(site.id)).toEqual(site);
+    expect(await current.reviews.count()).toBe(0);
     current.close();
     await Dexie.delete(name);
   });

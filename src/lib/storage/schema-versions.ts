@@ -81,7 +81,12 @@ export async function upgradeToV5(tx: Transaction): Promise<void> {
   }
 }
 
-export const CURRENT_SCHEMA_VERSION = 5;
+/** v6: quarterly reviews (section notes and frozen figures), synchronised records like the others. */
+export const SCHEMA_V6 = {
+  reviews: 'id, quarter, updatedAt, localSeq'
+} as const;
+
+export const CURRENT_SCHEMA_VERSION = 6;
 
 /** Declares all versions on a database instance, in order. */
 export function declareSchemaVersions(db: Dexie): void {
@@ -90,4 +95,5 @@ export function declareSchemaVersions(db: Dexie): void {
   db.version(3).stores(SCHEMA_V3);
   db.version(4).stores(SCHEMA_V4);
   db.version(5).stores(SCHEMA_V5).upgrade(upgradeToV5);
+  db.version(6).stores(SCHEMA_V6);
 }

@@ -21,6 +21,7 @@ import { EntryDraftRepository } from './entry-draft-repository';
 import { createImprovementProjectRepository } from './improvement-project-repository';
 import { createProcessRepository } from './process-repository';
 import type { RecordRepository } from './record-repository';
+import { QuarterReviewRepository } from './quarter-review-repository';
 import { SiteRepository } from './site-repository';
 import { StudyRepository } from './study-repository';
 import { isPortfolioEmpty, loadDemoPortfolio, type DemoLoadResult } from './demo-portfolio-loader';
@@ -47,6 +48,7 @@ export interface CapstanStorage {
   readonly projects: RecordRepository<ImprovementProject>;
   readonly drafts: EntryDraftRepository;
   readonly profiles: ContextProfileRepository;
+  readonly reviews: QuarterReviewRepository;
   /** Read models for the pages; each is safe to run inside a live query. */
   readonly read: {
     processOverviews(): Promise<ProcessOverview[]>;
@@ -110,6 +112,7 @@ export async function openStorage(
     projects: createImprovementProjectRepository(db, ctx),
     drafts: new EntryDraftRepository(db),
     profiles: new ContextProfileRepository(db, ctx),
+    reviews: new QuarterReviewRepository(db, ctx),
     read: {
       processOverviews: () => listProcessOverviews(db),
       portfolioRecords: () => loadPortfolioRecords(db),

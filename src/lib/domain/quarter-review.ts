@@ -1,0 +1,301 @@
+import { zChangeTest, type ZEstimate } from '../stats/z-change-test';
+import type { ContextProfile } from './context-profile';
+import { PROJECT_PHASES } from './improvement-project';
+import { addMonths, periodsOfQuarter, quarterOf } from './period';
+import {
+  BADGE_EXPLANATIONS,
+  rankPortfolio,
+  type Badge,
+  type CharacteristicRow,
+  type FiguresCache,
+  type PortfolioRecords,
+  type ProcessRow
+} from './portfolio-ranking';
+import type {
+  ReviewControlProject,
+  ReviewFigures,
+  ReviewHeadline,
+  ReviewMover,
+  ReviewProcessLine,
+  ReviewSite
+} from './review-figures';
+
+/**
+ * The quarterly review: every process judged on the three months of the quarter (the same ranking as the
+ * portfolio page), compared with the previous quarter and the same quarter a year before, with movers tested
+ * against noise, a summary per site, the share meeting target over eight quarters, the improvement pipeline, and
+ * the assumptions the figures rest on.
+ */
+export interface ReviewOptions {
+  quarter: string;
+  /** Sites to review; all when empty or absent. */
+  siteIds?: readonly string[];
+  trendQuarters?: number;
+  cache?: FiguresCache;
+}
+
+export function shiftQuarter(quarter: string, quarters: number): string {
+  return quarterOf(addMonths(periodsOfQuarter(quarter)[0]!, 3 * quarters));
+}
+
+const MEETS = new Set(['meets, shown', 'meets, not shown']);
+
+/**
+ * Headline figures of one quarter's rows. `reviewed` counts processes with data in the quarter; shares are of
+ * those. `stale` counts reviewed processes some of whose characteristics reported nothing in the quarter,
+ * `missing` the processes with no data at all. Cost is summed per currency (no conversion).
+ */
+export function headlineOf(quarter: string, rows: readonly ProcessRow[]): ReviewHeadline {
+  const reviewed = rows.filter((r) => r.status !== 'no recent data');
+  const meeting = reviewed.filter((r) => MEETS.has(r.status)).length;
+  const meetingShown = reviewed.filter((r) => r.status === 'meets, shown').length;
+  return {
+    quarter,
+    processes: rows.length,
+    reviewed: reviewed.length,
+    meeting,
+    meetingShown,
+    share: reviewed.length ? meeting / reviewed.length : undefined,
+    shareShown: reviewed.length ? meetingShown / reviewed.length : undefined,
+    cost: costByCurrency(reviewed),
+    stale: reviewed.filter((r) => r.badges.includes('incomplete')).length,
+    missing: rows.length - reviewed.length
+  };
+}
+
+function costByCurrency(rows: readonly ProcessRow[]): { currency: string; perYear: number }[] {
+  const sums = new Map<string, number>();
+  for (const r of rows) {
+    if (r.costPerYear === undefined) continue;
+    sums.set(r.process.currency, (sums.get(r.process.currency) ?? 0) + r.costPerYear);
+  }
+  return [...sums.entries()]
+    .sort(([a], [b]) => a.localeCompare(b))
+    .map(([currency, perYear]) => ({ currency, perYear }));
+}
+
+/** The characteristic that loses most (largest ppm): the one that sets a process's z-level. */
+function dominant(row: ProcessRow): CharacteristicRow | undefined {
+  let best: CharacteristicRow | undefined;
+  for (const c of row.characteristics) {
+    if (!c.result) continue;
+    if (!best || 1 - c.result.yield > 1 - best.result!.yield) best = c;
+  }
+  return best;
+}
+
+function estimateOf(c: CharacteristicRow, shift: number): ZEstimate {
+  const r = c.result!;
+  if (r.kind === 'measured' || r.kind === 'summary') return { z: r.zLevel + shift, n: r.n, kind: 'measured' };
+  // Defects: chances are units × opportunities (DPU / DPO = opportunities per unit).
+  const perUnit = r.kind === 'defects' && r.dpu !== undefined && r.dpmo ? r.dpu / (r.dpmo / 1e6) : 1;
+  const p = r.kind === 'defects' ? (r.dpmo ?? 0) / 1e6 : (r.p ?? 1 - r.yield);
+  return { z: r.zLevel + shift, n: r.n * perUnit, kind: 'counted', p };
+}
+
+const shiftOf = (row: ProcessRow) => (row.profile?.reporting === 'short-term' ? 1.5 : 0);
+
+/** Change of one process between two quarters, on the characteristic that sets its level now. */
+export function moverOf(after: ProcessRow, before: ProcessRow | undefined): ReviewMover | undefined {
+  if (!before || after.zLevel === undefined || before.zLevel === undefined) return undefined;
+  const now = dominant(after);
+  const then = now && before.characteristics.find((c) => c.characteristic.id === now.characteristic.id);
+  const test =
+    now && then?.result
+      ? zChangeTest(estimateOf(then, shiftOf(before)), estimateOf(now, shiftOf(after)))
+      : undefined;
+  return {
+    processId: after.process.id,
+    process: after.process.name,
+    site: after.site.name,
+    characteristic: now?.characteristic.name ?? '',
+    zBefore: before.zLevel,
+    zAfter: after.zLevel,
+    change: after.zLevel - before.zLevel,
+    ppmBefore: before.ppm ?? 0,
+    ppmAfter: after.ppm ?? 0,
+    pValue: test?.pValue,
+    beyondNoise: test?.beyondNoise
+  };
+}
+
+function median(xs: number[]): number | undefined {
+  if (!xs.length) return undefined;
+  const s = [...xs].sort((a, b) => a - b);
+  const m = Math.floor(s.length / 2);
+  return s.length % 2 ? s[m] : (s[m - 1]! + s[m]!) / 2;
+}
+
+function lineOf(row: ProcessRow): ReviewProcessLine {
+  const w = row.weakest;
+  const centering = w?.centering;
+  return {
+    processId: row.process.id,
+    process: row.process.name,
+    site: row.site.name,
+    status: row.status,
+    zLevel: row.zLevel,
+    required: w ? w.required : undefined,
+    zGap: row.zGap,
+    ppm: row.ppm,
+    costPerYear: row.costPerYear,
+    currency: row.process.currency,
+    weakest: w?.characteristic.name,
+    // For a shortfall: would centring alone meet the target, or must the spread shrink?
+    spreadOrCentre:
+      centering && row.status === 'short' ? (centering.centringMeets ? 'centring' : 'spread') : undefined,
+    priority: row.priority
+  };
+}
+
+const ASSUMPTION_TOPICS: Badge[] = [
+  'non-normal model',
+  'summary only',
+  'counted data',
+  'small sample',
+  'not shown stable',
+  'shift convention',
+  'incomplete'
+];
+
+function scoped(records: PortfolioRecords, siteIds: readonly string[] | undefined): PortfolioRecords {
+  if (!siteIds || siteIds.length === 0) return records;
+  const sites = new Set(siteIds);
+  return { ...records, sites: records.sites.filter((s) => sites.has(s.id)) };
+}
+
+export function buildQuarterReview(
+  allRecords: PortfolioRecords,
+  profiles: readonly ContextProfile[],
+  options: ReviewOptions
+): ReviewFigures {
+  const records = scoped(allRecords, options.siteIds);
+  const cache: FiguresCache = options.cache ?? new Map();
+  const rank = (quarter: string) =>
+    rankPortfolio(records, profiles, { endPeriod: periodsOfQuarter(quarter)[2]!, windowMonths: 3, cache });
+  const quarter = options.quarter;
+  const previousQuarter = shiftQuarter(quarter, -1);
+  const yearAgoQuarter = shiftQuarter(quarter, -4);
+  const trendQuarters = options.trendQuarters ?? 8;
+  const ranked = new Map<string, ProcessRow[]>();
+  for (let i = trendQuarters - 1; i >= 0; i--) {
+    const q = shiftQuarter(quarter, -i);
+    ranked.set(q, rank(q));
+  }
+  if (!ranked.has(yearAgoQuarter)) ranked.set(yearAgoQuarter, rank(yearAgoQuarter));
+  const current = ranked.get(quarter)!;
+  const previous = ranked.get(previousQuarter)!;
+  const previousById = new Map(previous.map((r) => [r.process.id, r]));
+
+  const movers = current
+    .map((r) => moverOf(r, previousById.get(r.process.id)))
+    .filter((m): m is ReviewMover => m !== undefined);
+  const beyond = movers.filter((m) => m.beyondNoise);
+  const improvers = beyond
+    .filter((m) => m.change > 0)
+    .sort((a, b) => b.change - a.change || a.processId.localeCompare(b.processId));
+  const decliners = beyond
+    .filter((m) => m.change < 0)
+    .sort((a, b) => a.change - b.change || a.processId.localeCompare(b.processId));
+
+  const sites: ReviewSite[] = [...new Set(current.map((r) => r.site.id))]
+    .map((siteId) => {
+      const rows = current.filter((r) => r.site.id === siteId);
+      const h = headlineOf(quarter, rows);
+      const zLevels = rows.flatMap((r) =>
+        r.zLevel !== undefined && Number.isFinite(r.zLevel) ? [r.zLevel] : []
+      );
+      return {
+        siteId,
+        site: rows[0]!.site.name,
+        processes: h.processes,
+        reviewed: h.reviewed,
+        meeting: h.meeting,
+        share: h.share,
+        cost: h.cost,
+        zLevels,
+        medianZ: median(zLevels)
+      };
+    })
+    .sort((a, b) => a.site.localeCompare(b.site) || a.siteId.localeCompare(b.siteId));
+
+  const projects = current.flatMap((r) => r.projects.map((p) => ({ project: p, row: r })));
+  const pipeline = PROJECT_PHASES.map((phase) => {
+    const inPhase = projects.filter((p) => p.project.phase === phase);
+    return {
+      phase,
+      projects: inPhase.length,
+      expectedSaving: inPhase.reduce((a, p) => a + p.project.expectedAnnualSaving, 0)
+    };
+  });
+  const control: ReviewControlProject[] = projects
+    .filter((p) => p.project.phase === 'Control')
+    .map(({ project, row }) => {
+      // "Before": the quarter before the project started; "after": the quarter reviewed.
+      const beforeQuarter = shiftQuarter(quarterOf(project.startDate.slice(0, 7)), -1);
+      const before = (ranked.get(beforeQuarter) ?? rank(beforeQuarter)).find(
+        (r) => r.process.id === row.process.id
+      );
+      const mover = moverOf(row, before);
+      return {
+        projectId: project.id,
+        title: project.title,
+        process: row.process.name,
+        currency: row.process.currency,
+        expectedSaving: project.expectedAnnualSaving,
+        beforeQuarter,
+        zBefore: before?.zLevel,
+        zAfter: row.zLevel,
+        costBefore: before?.costPerYear,
+        costAfter: row.costPerYear,
+        achievedSaving:
+          before?.costPerYear !== undefined && row.costPerYear !== undefined
+            ? before.costPerYear - row.costPerYear
+            : undefined,
+        pValue: mover?.pValue,
+        beyondNoise: mover?.beyondNoise
+      };
+    })
+    .sort((a, b) => a.title.localeCompare(b.title) || a.projectId.localeCompare(b.projectId));
+
+  const assumptions = ASSUMPTION_TOPICS.map((badge) => ({
+    topic: badge as string,
+    explanation: BADGE_EXPLANATIONS[badge],
+    processes: current
+      .filter((r) => r.badges.includes(badge))
+      .map((r) => `${r.process.name} (${r.site.name})`)
+  }));
+  assumptions.push({
+    topic: 'no data',
+    explanation:
+      'No study was logged for any characteristic of these processes in the quarter; they are not judged.',
+    processes: current
+      .filter((r) => r.status === 'no recent data')
+      .map((r) => `${r.process.name} (${r.site.name})`)
+  });
+
+  return {
+    quarter,
+    previousQuarter,
+    yearAgoQuarter,
+    siteIds: [...(options.siteIds ?? [])].sort(),
+    headline: headlineOf(quarter, current),
+    previous: headlineOf(previousQuarter, previous),
+    yearAgo: headlineOf(yearAgoQuarter, ranked.get(yearAgoQuarter)!),
+    processes: current.map(lineOf),
+    improvers: improvers.slice(0, 10),
+    decliners: decliners.slice(0, 10),
+    movedWithinNoise: movers.length - beyond.length,
+    sites,
+    shareTrend: [...ranked.entries()]
+      .filter(([q]) => q >= shiftQuarter(quarter, -(trendQuarters - 1)) && q <= quarter)
+      .sort(([a], [b]) => a.localeCompare(b))
+      .map(([q, rows]) => {
+        const h = headlineOf(q, rows);
+        return { quarter: q, reviewed: h.reviewed, share: h.share, shareShown: h.shareShown };
+      }),
+    pipeline,
+    control,
+    assumptions
+  };
+}
