@@ -1,4 +1,5 @@
 import { zChangeTest, type ZEstimate } from '../stats/z-change-test';
+import { canonicalJson } from './canonical-json';
 import type { ContextProfile } from './context-profile';
 import { PROJECT_PHASES } from './improvement-project';
 import { addMonths, periodsOfQuarter, quarterOf } from './period';
@@ -283,6 +284,7 @@ export function buildQuarterReview(
     previous: headlineOf(previousQuarter, previous),
     yearAgo: headlineOf(yearAgoQuarter, ranked.get(yearAgoQuarter)!),
     processes: current.map(lineOf),
+    movers,
     improvers: improvers.slice(0, 10),
     decliners: decliners.slice(0, 10),
     movedWithinNoise: movers.length - beyond.length,
@@ -298,4 +300,20 @@ export function buildQuarterReview(
     control,
     assumptions
   };
+}
+
+/** Parts of a frozen review whose figures differ from the live ones (late data, edits since the freeze). */
+export function snapshotDifferences(frozen: ReviewFigures, live: ReviewFigures): string[] {
+  const parts: [string, (f: ReviewFigures) => unknown][] = [
+    ['headline figures', (f) => [f.headline, f.previous, f.yearAgo]],
+    ['process figures', (f) => f.processes],
+    ['movers', (f) => f.movers],
+    ['site summary', (f) => f.sites],
+    ['trend', (f) => f.shareTrend],
+    ['pipeline', (f) => [f.pipeline, f.control]],
+    ['assumptions', (f) => f.assumptions]
+  ];
+  return parts
+    .filter(([, get]) => canonicalJson(get(frozen)) !== canonicalJson(get(live)))
+    .map(([name]) => name);
 }

@@ -91,6 +91,8 @@ export const reviewFiguresSchema = z.object({
   previous: headlineSchema,
   yearAgo: headlineSchema,
   processes: z.array(processLineSchema).max(100_000),
+  /** Every process with a z-level in both quarters; improvers and decliners are those beyond noise. */
+  movers: z.array(moverSchema).max(100_000),
   improvers: z.array(moverSchema).max(100),
   decliners: z.array(moverSchema).max(100),
   movedWithinNoise: num,

@@ -1,5 +1,5 @@
 /** Offers a blob as a file download; works offline (an object URL, no network). */
-function downloadBlob(filename: string, blob: Blob): void {
+export function downloadBlob(filename: string, blob: Blob): void {
   const url = URL.createObjectURL(blob);
   const a = document.createElement('a');
   a.href = url;

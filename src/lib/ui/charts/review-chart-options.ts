@@ -1,0 +1,214 @@
+import type { EChartsCoreOption } from 'echarts/core';
+import type { ReviewFigures, ReviewProcessLine } from '../../domain/review-figures';
+
+/**
+ * Chart options of the quarterly review: pure functions of the review figures, unit-tested without a
+ * browser. Names come from people's data; ChartPanel draws tooltips as chart text, never as HTML.
+ */
+const SHORT = '#b5462f';
+const MEETS = '#2f6f4e';
+const TARGET = '#1f3a4d';
+const MUTED = '#9aa7b0';
+
+const base = {
+  aria: { enabled: true },
+  animation: false
+};
+
+/** z-level of each process with its required level, weakest first. */
+export function zAgainstTargetOption(lines: readonly ReviewProcessLine[]): EChartsCoreOption {
+  const rows = lines
+    .filter((l) => l.zLevel !== undefined && Number.isFinite(l.zLevel))
+    .sort((a, b) => (a.zGap ?? 0) - (b.zGap ?? 0) || a.processId.localeCompare(b.processId));
+  const label = (l: ReviewProcessLine) => `${l.process} · ${l.site}`;
+  return {
+    ...base,
+    grid: { left: 8, right: 24, top: 28, bottom: 8, containLabel: true },
+    legend: { top: 0, data: ['z-level', 'required'] },
+    tooltip: { trigger: 'axis' },
+    xAxis: { type: 'value', name: 'z', min: (v: { min: number }) => Math.min(0, Math.floor(v.min)) },
+    yAxis: {
+      type: 'category',
+      data: rows.map(label),
+      inverse: true,
+      axisLabel: { width: 260, overflow: 'truncate' }
+    },
+    series: [
+      {
+        type: 'bar',
+        name: 'z-level',
+        data: rows.map((l) => ({
+          value: round(l.zLevel!),
+          itemStyle: { color: l.status === 'short' ? SHORT : MEETS }
+        }))
+      },
+      {
+        type: 'scatter',
+        name: 'required',
+        symbol: 'rect',
+        symbolSize: [3, 14],
+        itemStyle: { color: TARGET },
+        data: rows.map((l) => (l.required === undefined ? null : round(requiredZ(l))))
+      }
+    ]
+  };
+}
+
+/** The required level on the z scale the bars use: z-level minus the gap. */
+export function requiredZ(l: ReviewProcessLine): number {
+  return (l.zLevel ?? 0) - (l.zGap ?? 0);
+}
+
+/** Cost of poor quality per year, largest first, with the cumulative share: one currency per chart. */
+export function costParetoOption(lines: readonly ReviewProcessLine[], currency: string): EChartsCoreOption {
+  const rows = paretoRows(lines, currency);
+  return {
+    ...base,
+    grid: { left: 8, right: 48, top: 28, bottom: 8, containLabel: true },
+    legend: { top: 0, data: [`cost per year (${currency})`, 'cumulative share'] },
+    tooltip: { trigger: 'axis' },
+    xAxis: {
+      type: 'category',
+      data: rows.map((r) => r.process),
+      axisLabel: { rotate: 40, width: 120, overflow: 'truncate' }
+    },
+    yAxis: [
+      { type: 'value', name: currency },
+      { type: 'value', name: '%', max: 100, min: 0 }
+    ],
+    series: [
+      {
+        type: 'bar',
+        name: `cost per year (${currency})`,
+        data: rows.map((r) => Math.round(r.cost)),
+        itemStyle: { color: SHORT }
+      },
+      {
+        type: 'line',
+        name: 'cumulative share',
+        yAxisIndex: 1,
+        data: rows.map((r) => round(r.cumulative * 100, 1)),
+        itemStyle: { color: TARGET }
+      }
+    ]
+  };
+}
+
+export function paretoRows(lines: readonly ReviewProcessLine[], currency: string) {
+  const rows = lines
+    .filter((l) => l.currency === currency && (l.costPerYear ?? 0) > 0)
+    .sort((a, b) => (b.costPerYear ?? 0) - (a.costPerYear ?? 0) || a.processId.localeCompare(b.processId));
+  const total = rows.reduce((a, l) => a + (l.costPerYear ?? 0), 0);
+  let running = 0;
+  return rows.map((l) => {
+    running += l.costPerYear ?? 0;
+    return {
+      process: `${l.process} · ${l.site}`,
+      cost: l.costPerYear ?? 0,
+      cumulative: total > 0 ? running / total : 0
+    };
+  });
+}
+
+/** Each process's z-level last quarter against this quarter; above the diagonal improved. */
+export function movementOption(figures: ReviewFigures): EChartsCoreOption {
+  const all = figures.movers;
+  const values = all.flatMap((m) => [m.zBefore, m.zAfter]).filter(Number.isFinite);
+  const lo = Math.floor(Math.min(0, ...values));
+  const hi = Math.ceil(Math.max(1, ...values));
+  const point = (m: ReviewFigures['movers'][number]) => ({
+    value: [round(m.zBefore), round(m.zAfter)],
+    name: m.process
+  });
+  return {
+    ...base,
+    grid: { left: 8, right: 24, top: 28, bottom: 8, containLabel: true },
+    legend: { top: 0, data: ['more than noise', 'within noise'] },
+    tooltip: { trigger: 'item' },
+    xAxis: { type: 'value', name: figures.previousQuarter, min: lo, max: hi },
+    yAxis: { type: 'value', name: figures.quarter, min: lo, max: hi },
+    series: [
+      {
+        type: 'scatter',
+        name: 'more than noise',
+        itemStyle: { color: SHORT },
+        data: all.filter((m) => m.beyondNoise).map(point),
+        markLine: {
+          silent: true,
+          symbol: 'none',
+          lineStyle: { color: MUTED, type: 'dashed' },
+          data: [[{ coord: [lo, lo] }, { coord: [hi, hi] }]]
+        }
+      },
+      {
+        type: 'scatter',
+        name: 'within noise',
+        itemStyle: { color: MUTED },
+        data: all.filter((m) => !m.beyondNoise).map(point)
+      }
+    ]
+  };
+}
+
+/** The z-levels of each site's processes as points, with the site's median. */
+export function siteDistributionOption(figures: ReviewFigures): EChartsCoreOption {
+  const sites = figures.sites;
+  return {
+    ...base,
+    grid: { left: 8, right: 24, top: 28, bottom: 8, containLabel: true },
+    legend: { top: 0, data: ['process', 'median'] },
+    tooltip: { trigger: 'item' },
+    xAxis: {
+      type: 'category',
+      data: sites.map((s) => s.site),
+      axisLabel: { width: 120, overflow: 'truncate' }
+    },
+    yAxis: { type: 'value', name: 'z-level' },
+    series: [
+      {
+        type: 'scatter',
+        name: 'process',
+        symbolSize: 8,
+        itemStyle: { color: TARGET, opacity: 0.7 },
+        data: sites.flatMap((s, i) => s.zLevels.map((z) => [i, round(z)]))
+      },
+      {
+        type: 'scatter',
+        name: 'median',
+        symbol: 'rect',
+        symbolSize: [28, 3],
+        itemStyle: { color: SHORT },
+        data: sites.map((s, i) => (s.medianZ === undefined ? null : [i, round(s.medianZ)]))
+      }
+    ]
+  };
+}
+
+/** Share of reviewed processes meeting target, and meeting it with confidence, over the last quarters. */
+export function shareTrendOption(figures: ReviewFigures): EChartsCoreOption {
+  const t = figures.shareTrend;
+  const pct = (v: number | undefined) => (v === undefined ? null : round(v * 100, 1));
+  return {
+    ...base,
+    grid: { left: 8, right: 24, top: 28, bottom: 8, containLabel: true },
+    legend: { top: 0, data: ['meeting target', 'meeting it, shown with confidence'] },
+    tooltip: { trigger: 'axis', valueFormatter: (v: unknown) => (v === null ? '–' : `${String(v)} %`) },
+    xAxis: { type: 'category', data: t.map((q) => q.quarter) },
+    yAxis: { type: 'value', min: 0, max: 100, axisLabel: { formatter: '{value} %' } },
+    series: [
+      { type: 'line', name: 'meeting target', data: t.map((q) => pct(q.share)), itemStyle: { color: MEETS } },
+      {
+        type: 'line',
+        name: 'meeting it, shown with confidence',
+        data: t.map((q) => pct(q.shareShown)),
+        itemStyle: { color: TARGET },
+        lineStyle: { type: 'dashed' }
+      }
+    ]
+  };
+}
+
+function round(v: number, digits = 2): number {
+  const f = 10 ** digits;
+  return Math.round(v * f) / f;
+}

@@ -1,0 +1,170 @@
+import { expect, test, type Page } from '@playwright/test';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { BUILT_IN_PROFILES } from '../../src/lib/domain/context-profile';
+import { parseDemoPortfolio } from '../../src/lib/domain/demo-portfolio';
+import { rankPortfolio } from '../../src/lib/domain/portfolio-ranking';
+import { startStaticServer, type RunningServer } from './static-server';
+
+/**
+ * The quarterly review of a demo quarter: headline figures against counts made here from the same data, a
+ * section note, printing to PDF through Chromium (sections, pages, a rendered page that is not blank), and a
+ * frozen snapshot that notices later changes.
+ */
+const QUARTER = '2026-Q3';
+let server: RunningServer;
+const work = mkdtempSync(join(tmpdir(), 'capstan-review-e2e-'));
+test.beforeEach(async () => {
+  server = await startStaticServer();
+});
+test.afterEach(async () => server.stop());
+test.afterAll(() => rmSync(work, { recursive: true, force: true }));
+
+/** Independent of the review code: the portfolio ranking for the quarter's three months, counted by hand. */
+function expectedHeadline() {
+  const demo = parseDemoPortfolio(
+    JSON.parse(readFileSync(new URL('../../seed-data/demo-portfolio.json', import.meta.url), 'utf8'))
+  );
+  const rows = rankPortfolio(demo.records, BUILT_IN_PROFILES, { endPeriod: '2026-09', windowMonths: 3 });
+  const reviewed = rows.filter((r) => r.status !== 'no recent data');
+  const meeting = reviewed.filter(
+    (r) => r.status === 'meets, shown' || r.status === 'meets, not shown'
+  ).length;
+  const shown = reviewed.filter((r) => r.status === 'meets, shown').length;
+  return {
+    processes: rows.length,
+    reviewed: reviewed.length,
+    share: `${Math.round((100 * meeting) / reviewed.length)} %`,
+    shown: `${Math.round((100 * shown) / reviewed.length)} %`
+  };
+}
+
+async function openReview(page: Page) {
+  await page.goto(server.url);
+  await page.getByTestId('load-demo').click();
+  await expect(page.getByTestId('portfolio-table')).toBeVisible();
+  await page
+    .getByRole('navigation', { name: 'Main' })
+    .getByRole('link', { name: 'Quarterly review' })
+    .click();
+  await page.getByTestId('quarter').selectOption(QUARTER);
+  await expect(page.getByTestId('headline')).toBeVisible();
+}
+
+test('the review of a demo quarter shows the right headline, keeps a note and prints as a multi-page PDF', async ({
+  page
+}) => {
+  test.setTimeout(120_000);
+  await page.setViewportSize({ width: 1100, height: 900 });
+  await openReview(page);
+  const expected = expectedHeadline();
+  await expect(page.getByTestId('headline-reviewed')).toHaveText(String(expected.reviewed));
+  await expect(page.getByTestId('headline')).toContainText(`of ${expected.processes} processes reviewed`);
+  await expect(page.getByTestId('headline-share')).toHaveText(expected.share);
+  await expect(page.getByTestId('headline-share-shown')).toHaveText(expected.shown);
+
+  // A note is saved with the review and survives a reload.
+  await page.getByTestId('note-headline').fill('Share meeting target held; cost fell at two sites.');
+  await page.getByTestId('note-headline').blur();
+  await expect(page.getByTestId('section-headline').getByText('Saved.')).toBeVisible();
+  await page.reload();
+  await page.getByTestId('quarter').selectOption(QUARTER);
+  await expect(page.getByTestId('note-headline')).toHaveValue(
+    'Share meeting target held; cost fell at two sites.'
+  );
+
+  // Every chart drawn before printing.
+  const charts = page.getByTestId('chart');
+  const count = await charts.count();
+  expect(count).toBeGreaterThanOrEqual(6);
+  await expect(page.locator('[data-testid="chart"] svg')).toHaveCount(count);
+
+  const pdfPath = join(work, 'review.pdf');
+  writeFileSync(pdfPath, await page.pdf({ format: 'A4', printBackground: true }));
+  if (process.env.CAPSTAN_KEEP_PDF) writeFileSync(process.env.CAPSTAN_KEEP_PDF, readFileSync(pdfPath));
+  const info = execFileSync('pdfinfo', [pdfPath], { encoding: 'utf8' });
+  const pages = Number(/Pages:\s+(\d+)/.exec(info)?.[1]);
+  expect(pages).toBeGreaterThanOrEqual(6);
+  const text = execFileSync('pdftotext', ['-layout', pdfPath, '-'], { encoding: 'utf8' });
+  for (const heading of [
+    `Capstan · Quarterly portfolio review ${QUARTER}`,
+    `Where we stand, ${QUARTER}`,
+    'Shortfalls and what they cost',
+    'What moved',
+    'Sites',
+    'Improvement pipeline',
+    'Assumptions and data quality',
+    'Share meeting target held; cost fell at two sites.'
+  ]) {
+    expect(text, heading).toContain(heading);
+  }
+  // Screen-only controls stay off paper.
+  expect(text).not.toContain('Print or save as PDF');
+  expect(text).not.toContain('Comment for this section');
+  // Each section starts a page: the shortfalls heading is not on the first page.
+  const firstPage = execFileSync('pdftotext', ['-f', '1', '-l', '1', pdfPath, '-'], { encoding: 'utf8' });
+  expect(firstPage).toContain(`Where we stand, ${QUARTER}`);
+  expect(firstPage).not.toContain('Shortfalls and what they cost');
+
+  // A page with a chart (the shortfalls section) rendered to PNG is not blank.
+  execFileSync('pdftoppm', [
+    '-png',
+    '-r',
+    '40',
+    '-f',
+    '2',
+    '-l',
+    '2',
+    '-singlefile',
+    pdfPath,
+    join(work, 'page')
+  ]);
+  const png = readFileSync(join(work, 'page.png')).toString('base64');
+  const inked = await page.evaluate(async (data) => {
+    const img = new Image();
+    img.src = `data:image/png;base64,${data}`;
+    await img.decode();
+    const canvas = document.createElement('canvas');
+    canvas.width = img.width;
+    canvas.height = img.height;
+    const g = canvas.getContext('2d')!;
+    g.drawImage(img, 0, 0);
+    const px = g.getImageData(0, 0, img.width, img.height).data;
+    let dark = 0;
+    for (let i = 0; i < px.length; i += 4) if (px[i]! + px[i + 1]! + px[i + 2]! < 600) dark += 1;
+    return { dark, total: px.length / 4 };
+  }, png);
+  expect(inked.dark / inked.total).toBeGreaterThan(0.01);
+});
+
+test('a frozen review keeps its figures and says when the live data has moved on', async ({ page }) => {
+  await openReview(page);
+  const share = await page.getByTestId('headline-share').textContent();
+  await page.getByTestId('freeze-review').click();
+  await expect(page.getByTestId('snapshot-status')).toContainText(
+    'The live data still gives the same figures'
+  );
+
+  // Much stricter service targets change the live statuses.
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Settings' }).click();
+  await page.getByRole('button', { name: 'Edit targets of Transactional and service work' }).click();
+  await page.getByTestId('profile-form').locator('input[name="level-standard"]').fill('7');
+  await page.getByTestId('profile-form').locator('input[name="level-key"]').fill('7');
+  await page.getByRole('button', { name: 'Save targets' }).click();
+  await expect(page.getByText('Saved the targets of Transactional and service work')).toBeVisible();
+
+  await page
+    .getByRole('navigation', { name: 'Main' })
+    .getByRole('link', { name: 'Quarterly review' })
+    .click();
+  await page.getByTestId('quarter').selectOption(QUARTER);
+  await expect(page.getByTestId('snapshot-status')).toContainText(
+    'The live data now differs in: headline figures'
+  );
+  await expect(page.getByTestId('headline-share')).toHaveText(share!);
+  await page.getByRole('button', { name: 'Unfreeze: show live figures' }).click();
+  await expect(page.getByTestId('snapshot-status')).toHaveCount(0);
+  await expect(page.getByTestId('headline-share')).not.toHaveText(share!);
+});
