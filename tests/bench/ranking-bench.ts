@@ -14,7 +14,7 @@ import type { Process } from '../../src/lib/domain/process';
 import type { Study } from '../../src/lib/domain/study';
 import type { BenchRow } from './engine-bench';
 
-function generate(processCount: number, months: number): PortfolioRecords {
+export function generatePortfolio(processCount: number, months: number): PortfolioRecords {
   let s = 12345;
   const u = () => (s = (s * 48271) % 2147483647) / 2147483647;
   const meta = (id: string) => ({ id, createdAt: '', updatedAt: '', rev: 1, deviceId: 'bench' });
@@ -68,7 +68,7 @@ function generate(processCount: number, months: number): PortfolioRecords {
 }
 
 export function runRankingBench(): BenchRow[] {
-  const records = generate(2000, 36);
+  const records = generatePortfolio(2000, 36);
   const cache: FiguresCache = new Map();
   const options = { endPeriod: '2026-12', windowMonths: 3, cache };
   const t0 = performance.now();

@@ -3,6 +3,7 @@ import { runCsvImportBench } from './csv-import-bench';
 import { runExchangeFileBench } from './exchange-file-bench';
 import { runEngineBench, type BenchRow } from './engine-bench';
 import { runRankingBench } from './ranking-bench';
+import { runReviewBench } from './review-bench';
 
 function print(rows: BenchRow[]): void {
   const line = (cells: string[]) => `| ${cells.join(' | ')} |`;
@@ -23,4 +24,10 @@ function print(rows: BenchRow[]): void {
 }
 
 console.log(`Capstan benchmarks — Node ${process.version}, ${new Date().toISOString()}`);
-print([...runEngineBench(), ...runCsvImportBench(), ...runRankingBench(), ...(await runExchangeFileBench())]);
+print([
+  ...runEngineBench(),
+  ...runCsvImportBench(),
+  ...runRankingBench(),
+  ...runReviewBench(),
+  ...(await runExchangeFileBench())
+]);

@@ -50,6 +50,24 @@ describe('exchange files between devices', () => {
     ).rejects.toThrow('content hash does not match');
   });
 
+  it('carries quarterly reviews — notes and frozen figures — to another device', async () => {
+    const a = await device('a');
+    await a.loadDemo(demo);
+    const { buildQuarterReview } = await import('../domain/quarter-review');
+    const { BUILT_IN_PROFILES } = await import('../domain/context-profile');
+    const figures = buildQuarterReview(await a.read.portfolioRecords(), BUILT_IN_PROFILES, {
+      quarter: '2026-Q3'
+    });
+    await a.reviews.saveNote('2026-Q3', [], 'movers', 'Gate oxide improved for real.');
+    await a.reviews.freeze('2026-Q3', [], figures, '2026-10-10T08:00:00.000Z');
+    const b = await device('b');
+    const { plan } = await importBytes(b, await exportBytes(a));
+    expect(plan.countsByKind.reviews.new).toBe(1);
+    const there = await b.reviews.find('2026-Q3', []);
+    expect(there?.notes.movers).toBe('Gate oxide improved for real.');
+    expect(there?.snapshot?.figures).toEqual(figures);
+  });
+
   it('reads its own gzip-compressed files', async () => {
     const a = await device('a');
     await a.loadDemo(demo);

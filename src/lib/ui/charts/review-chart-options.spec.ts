@@ -1,0 +1,47 @@
+import { describe, expect, it } from 'vitest';
+import type { ReviewProcessLine } from '../../domain/review-figures';
+import { paretoRows, requiredZ, zAgainstTargetOption } from './review-chart-options';
+
+const line = (
+  id: string,
+  cost: number | undefined,
+  currency = 'EUR',
+  z = 3,
+  gap = -0.5
+): ReviewProcessLine => ({
+  processId: id,
+  process: `P${id}`,
+  site: 'S',
+  status: gap < 0 ? 'short' : 'meets, shown',
+  zLevel: z,
+  zGap: gap,
+  required: 1.33,
+  costPerYear: cost,
+  currency,
+  priority: 0
+});
+
+describe('review chart options', () => {
+  it('orders the cost Pareto largest first with the cumulative share (hand-checked)', () => {
+    // 600 + 300 + 100 = 1000: cumulative 60 %, 90 %, 100 %; USD and zero costs are left out of the EUR chart.
+    const rows = paretoRows(
+      [line('a', 100), line('b', 600), line('c', 300), line('d', 50, 'USD'), line('e', 0)],
+      'EUR'
+    );
+    expect(rows.map((r) => [r.process, r.cost, r.cumulative])).toEqual([
+      ['Pb · S', 600, 0.6],
+      ['Pc · S', 300, 0.9],
+      ['Pa · S', 100, 1]
+    ]);
+  });
+
+  it('puts the weakest process first and marks the required level at z − gap', () => {
+    const option = zAgainstTargetOption([line('a', 1, 'EUR', 4, 0.5), line('b', 1, 'EUR', 2, -1.5)]) as {
+      yAxis: { data: string[] };
+      series: { data: unknown[] }[];
+    };
+    expect(option.yAxis.data).toEqual(['Pb · S', 'Pa · S']);
+    expect(option.series[1]!.data).toEqual([3.5, 3.5]);
+    expect(requiredZ(line('x', 0, 'EUR', 2.5, -1))).toBe(3.5);
+  });
+});
