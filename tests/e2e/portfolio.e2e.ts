@@ -61,7 +61,7 @@ test('every area of the navigation shows stored data, and charts arrive only whe
   await page.getByRole('link', { name: 'Quarterly review' }).click();
   await page.getByTestId('quarter').selectOption('2026-Q3');
   await expect(page.getByTestId('reporting-share')).toContainText('%');
-  await expect(page.getByTestId('chart').locator('svg')).toBeVisible();
+  await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
   expect(scripts.length).toBeGreaterThan(beforeReview);
 
   await page.getByRole('link', { name: 'File exchange' }).click();

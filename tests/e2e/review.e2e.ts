@@ -81,6 +81,38 @@ test('the review of a demo quarter shows the right headline, keeps a note and pr
   expect(count).toBeGreaterThanOrEqual(6);
   await expect(page.locator('[data-testid="chart"] svg')).toHaveCount(count);
 
+  // A chart as SVG and as PNG, a table as CSV.
+  const saved = async (trigger: () => Promise<void>) => {
+    const [download] = await Promise.all([page.waitForEvent('download'), trigger()]);
+    return {
+      name: download.suggestedFilename(),
+      bytes: Buffer.concat(await (await download.createReadStream()).toArray())
+    };
+  };
+  const section = page.getByTestId('section-shortfalls');
+  const svg = await saved(() =>
+    section
+      .getByRole('button', { name: /as SVG$/ })
+      .first()
+      .click()
+  );
+  expect(svg.name).toBe(`capstan-review-${QUARTER}-z-against-target.svg`);
+  expect(svg.bytes.toString('utf8')).toMatch(/^<svg[^>]+xmlns="http:\/\/www.w3.org\/2000\/svg"/);
+  const png = await saved(() =>
+    section
+      .getByRole('button', { name: /as PNG$/ })
+      .first()
+      .click()
+  );
+  expect(png.name).toBe(`capstan-review-${QUARTER}-z-against-target.png`);
+  expect([...png.bytes.subarray(0, 4)]).toEqual([0x89, 0x50, 0x4e, 0x47]);
+  const csv = await saved(() =>
+    page.getByRole('button', { name: `Download capstan-review-${QUARTER}-shortfalls.csv` }).click()
+  );
+  expect(csv.bytes.toString('utf8').split('\r\n')[0]).toBe(
+    'rank,process,site,z-level,required z,gap,ppm,cost per year,currency,weakest,what would help'
+  );
+
   const pdfPath = join(work, 'review.pdf');
   writeFileSync(pdfPath, await page.pdf({ format: 'A4', printBackground: true }));
   if (process.env.CAPSTAN_KEEP_PDF) writeFileSync(process.env.CAPSTAN_KEEP_PDF, readFileSync(pdfPath));
@@ -121,7 +153,7 @@ test('the review of a demo quarter shows the right headline, keeps a note and pr
     pdfPath,
     join(work, 'page')
   ]);
-  const png = readFileSync(join(work, 'page.png')).toString('base64');
+  const pagePng = readFileSync(join(work, 'page.png')).toString('base64');
   const inked = await page.evaluate(async (data) => {
     const img = new Image();
     img.src = `data:image/png;base64,${data}`;
@@ -135,7 +167,7 @@ test('the review of a demo quarter shows the right headline, keeps a note and pr
     let dark = 0;
     for (let i = 0; i < px.length; i += 4) if (px[i]! + px[i + 1]! + px[i + 2]! < 600) dark += 1;
     return { dark, total: px.length / 4 };
-  }, png);
+  }, pagePng);
   expect(inked.dark / inked.total).toBeGreaterThan(0.01);
 });
 

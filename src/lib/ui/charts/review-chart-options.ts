@@ -15,11 +15,23 @@ const base = {
   animation: false
 };
 
+/** Bars a chart can show legibly; beyond it the chart shows the weakest ones and says so. */
+export const MAX_PROCESS_BARS = 40;
+
+/** The processes the z-level chart draws: judged ones, weakest (most negative gap) first, at most `limit`. */
+export function weakestJudged(
+  lines: readonly ReviewProcessLine[],
+  limit = MAX_PROCESS_BARS
+): ReviewProcessLine[] {
+  return lines
+    .filter((l) => l.zLevel !== undefined && Number.isFinite(l.zLevel))
+    .sort((a, b) => (a.zGap ?? 0) - (b.zGap ?? 0) || a.processId.localeCompare(b.processId))
+    .slice(0, limit);
+}
+
 /** z-level of each process with its required level, weakest first. */
 export function zAgainstTargetOption(lines: readonly ReviewProcessLine[]): EChartsCoreOption {
-  const rows = lines
-    .filter((l) => l.zLevel !== undefined && Number.isFinite(l.zLevel))
-    .sort((a, b) => (a.zGap ?? 0) - (b.zGap ?? 0) || a.processId.localeCompare(b.processId));
+  const rows = weakestJudged(lines);
   const label = (l: ReviewProcessLine) => `${l.process} · ${l.site}`;
   return {
     ...base,
@@ -94,7 +106,7 @@ export function costParetoOption(lines: readonly ReviewProcessLine[], currency: 
   };
 }
 
-export function paretoRows(lines: readonly ReviewProcessLine[], currency: string) {
+export function paretoRows(lines: readonly ReviewProcessLine[], currency: string, limit = MAX_PROCESS_BARS) {
   const rows = lines
     .filter((l) => l.currency === currency && (l.costPerYear ?? 0) > 0)
     .sort((a, b) => (b.costPerYear ?? 0) - (a.costPerYear ?? 0) || a.processId.localeCompare(b.processId));
