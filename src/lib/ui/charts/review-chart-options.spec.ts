@@ -45,3 +45,12 @@ describe('review chart options', () => {
     expect(requiredZ(line('x', 0, 'EUR', 2.5, -1))).toBe(3.5);
   });
 });
+
+describe('long portfolios', () => {
+  it('draws at most the limit of bars, keeping the cumulative share of the whole total', () => {
+    const lines = Array.from({ length: 50 }, (_, i) => line(String(i).padStart(2, '0'), 10));
+    const rows = paretoRows(lines, 'EUR');
+    expect(rows).toHaveLength(40);
+    expect(rows.at(-1)!.cumulative).toBeCloseTo(0.8, 12);
+  });
+});

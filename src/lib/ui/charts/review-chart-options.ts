@@ -112,7 +112,7 @@ export function paretoRows(lines: readonly ReviewProcessLine[], currency: string
     .sort((a, b) => (b.costPerYear ?? 0) - (a.costPerYear ?? 0) || a.processId.localeCompare(b.processId));
   const total = rows.reduce((a, l) => a + (l.costPerYear ?? 0), 0);
   let running = 0;
-  return rows.map((l) => {
+  return rows.slice(0, limit).map((l) => {
     running += l.costPerYear ?? 0;
     return {
       process: `${l.process} · ${l.site}`,
