@@ -22,6 +22,8 @@ import { createImprovementProjectRepository } from './improvement-project-reposi
 import { createProcessRepository } from './process-repository';
 import type { RecordRepository } from './record-repository';
 import { QuarterReviewRepository } from './quarter-review-repository';
+import { CURRENT_SCHEMA_VERSION } from './schema-versions';
+import { BLOCKED_MESSAGE, explainOpenError, explainStorageError } from './storage-errors';
 import { SiteRepository } from './site-repository';
 import { StudyRepository } from './study-repository';
 import { isPortfolioEmpty, loadDemoPortfolio, type DemoLoadResult } from './demo-portfolio-loader';
@@ -87,6 +89,22 @@ export interface CapstanStorage {
 
 const changeSets = () => import('./change-set-store');
 
+/**
+ * Dexie 4 opens a database of a higher version than it declares, adding what it misses: that would let this app
+ * write into data shaped by a newer one. So the stored version is read first (without opening or creating
+ * anything) and a newer database is refused. Dexie stores version v as native version 10·v.
+ */
+async function refuseNewerDatabase(name: string, options?: DexieOptions): Promise<void> {
+  const factory = (options?.indexedDB ?? globalThis.indexedDB) as IDBFactory | undefined;
+  if (!factory || typeof factory.databases !== 'function') return;
+  const stored = (await factory.databases()).find((d) => d.name === name);
+  if (stored?.version !== undefined && stored.version >= (CURRENT_SCHEMA_VERSION + 1) * 10) {
+    throw explainOpenError(
+      new DOMException(`stored database version ${stored.version / 10}`, 'VersionError')
+    );
+  }
+}
+
 const REMINDER_KEY = 'backupReminderDays';
 /** Nudge after a week of changes that are in no file: a month's logging is then at most a week at risk. */
 const DEFAULT_REMINDER_DAYS = 7;
@@ -94,10 +112,20 @@ const DEFAULT_REMINDER_DAYS = 7;
 /** Opens (creating or upgrading) the database and binds the repositories to this device. */
 export async function openStorage(
   name: string = DEFAULT_DATABASE_NAME,
-  options?: DexieOptions
+  options?: DexieOptions,
+  events: { onBlocked?: (message: string) => void } = {}
 ): Promise<CapstanStorage> {
+  await refuseNewerDatabase(name, options);
   const db = new CapstanDatabase(name, options);
-  await db.open();
+  // An older tab that does not let go of the database makes the upgrade wait; say so, and carry on when it closes.
+  db.on('blocked', () => events.onBlocked?.(BLOCKED_MESSAGE));
+  try {
+    await db.open();
+  } catch (error) {
+    db.close();
+    throw explainOpenError(error);
+  }
+
   const deviceId = await loadDeviceId(db);
   const clock = await loadClock(db, deviceId);
   const ctx = writeContextFor(deviceId, clock);
@@ -128,8 +156,13 @@ export async function openStorage(
       recordExport: async (at, collected, peer) =>
         (await changeSets()).recordExport(db, clock, at, collected, peer),
       preview: async (records) => (await changeSets()).previewChangeSet(db, records),
-      apply: async (plan, choices, source) =>
-        (await changeSets()).applyChangeSet(db, plan, choices, clock, source),
+      apply: async (plan, choices, source) => {
+        try {
+          return await (await changeSets()).applyChangeSet(db, plan, choices, clock, source);
+        } catch (error) {
+          throw explainStorageError(error, 'The import');
+        }
+      },
       peers: async () => (await changeSets()).listPeers(db),
       backupStatus: () => loadBackupStatus(db),
       reminderDays: async () => {

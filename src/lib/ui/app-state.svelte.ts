@@ -9,14 +9,17 @@ import { readStorageHealth, requestPersistence, type StorageHealth } from '../st
 export class AppState {
   storage = $state.raw<CapstanStorage | undefined>(undefined);
   openError = $state.raw<string | undefined>(undefined);
+  /** Set while an older tab keeps the database from upgrading; cleared once it opens. */
+  blocked = $state.raw<string | undefined>(undefined);
   health = $state.raw<StorageHealth | undefined>(undefined);
   online = $state(true);
 
   async open(): Promise<void> {
     try {
-      this.storage = await openStorage();
+      this.storage = await openStorage(undefined, undefined, { onBlocked: (m) => (this.blocked = m) });
+      this.blocked = undefined;
     } catch (error) {
-      this.openError = error instanceof Error ? `${error.name}: ${error.message}` : String(error);
+      this.openError = error instanceof Error ? error.message : String(error);
       return;
     }
     // Ask once per start; browsers remember a grant, and a refusal costs nothing.
