@@ -15,6 +15,25 @@ const config = {
     alias: { $seed: 'seed-data' },
     // Keep version polling off: the service worker decides when an update is offered.
     version: { pollInterval: 0 },
+    // Content-Security-Policy as a meta tag in every page: scripts only from this origin (SvelteKit's one
+    // bootstrap script is allowed by its hash, never by 'unsafe-inline'), no remote origin for anything, no eval.
+    // Inline style attributes stay allowed: the chart library and Svelte's style: directive set them.
+    csp: {
+      mode: 'hash',
+      directives: {
+        'default-src': ['self'],
+        'script-src': ['self'],
+        'style-src': ['self', 'unsafe-inline'],
+        'img-src': ['self', 'data:', 'blob:'],
+        'font-src': ['self'],
+        'connect-src': ['self'],
+        'worker-src': ['self'],
+        'manifest-src': ['self'],
+        'object-src': ['none'],
+        'base-uri': ['self'],
+        'form-action': ['self']
+      }
+    },
     typescript: {
       // The seed generator and the test folders are type-checked with the app.
       config: (tsconfig) => {

@@ -1,6 +1,7 @@
 import { sveltekit } from '@sveltejs/kit/vite';
 import { SvelteKitPWA } from '@vite-pwa/sveltekit';
 import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
 
 const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as {
@@ -9,6 +10,15 @@ const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 
 
 export default defineConfig({
   define: { __APP_VERSION__: JSON.stringify(pkg.version) },
+  resolve: {
+    // Every `import … from 'zod'` gets zod set not to try eval (see src/build/zod-without-eval.ts).
+    alias: [
+      {
+        find: /^zod$/,
+        replacement: fileURLToPath(new URL('./src/build/zod-without-eval.ts', import.meta.url))
+      }
+    ]
+  },
   // Workers are ES modules so that they can import the same code the page uses.
   worker: { format: 'es' },
   plugins: [
