@@ -6,6 +6,7 @@ import {
 } from '../domain/context-profile-record';
 import { isLive, stampDeleted, stampNew, stampUpdate, type WriteContext } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
+import { EditConflictError } from './record-repository';
 
 /** Industry-context profiles: the built-ins, with the manager's edits stored as records over them. */
 export class ContextProfileRepository {
@@ -18,13 +19,27 @@ export class ContextProfileRepository {
     return effectiveProfiles(BUILT_IN_PROFILES, await this.db.contextProfiles.toArray());
   }
 
-  /** Saves a profile for its context id: a new stored profile, or the next revision of the stored one. */
-  async save(input: unknown): Promise<ContextProfileRecord> {
+  /** Revision of the stored profile of a context; 0 while the built-in default applies. */
+  async revisionOf(contextId: string): Promise<number> {
+    const stored = (await this.db.contextProfiles.where('contextId').equals(contextId).toArray()).find(
+      isLive
+    );
+    return stored?.rev ?? 0;
+  }
+
+  /**
+   * Saves a profile for its context id: a new stored profile, or the next revision of the stored one.
+   * `expectedRev` (from `revisionOf` when editing began) refuses to overwrite a change made meanwhile elsewhere.
+   */
+  async save(input: unknown, expectedRev?: number): Promise<ContextProfileRecord> {
     const fields = parseContextProfileFields(input);
     return this.db.transaction('rw', this.db.contextProfiles, async () => {
       const existing = (
         await this.db.contextProfiles.where('contextId').equals(fields.contextId).toArray()
       ).find(isLive);
+      if (expectedRev !== undefined && (existing?.rev ?? 0) !== expectedRev) {
+        throw new EditConflictError('Context profile', fields.label);
+      }
       const record = existing
         ? stampUpdate(existing, fields, this.ctx)
         : (stampNew(fields, this.ctx) as ContextProfileRecord);

@@ -12,6 +12,19 @@ import {
 import { ValidationError } from '../domain/validation-error';
 import type { CapstanDatabase } from './database';
 
+/**
+ * Thrown when a record changed (in another tab, or by an import) after the person opened it for editing: their
+ * edit is not saved over the other one. Nothing was written.
+ */
+export class EditConflictError extends Error {
+  constructor(kind: string, name: string) {
+    super(
+      `${kind} “${name}” was changed elsewhere (another tab or an imported file) after you opened it, so your edit was not saved over that change. Open it again to see the other change, then redo your edit.`
+    );
+    this.name = 'EditConflictError';
+  }
+}
+
 /** Thrown when an id names no live record; says which kind and which id. */
 export class RecordNotFoundError extends Error {
   constructor(kind: string, id: string) {
@@ -71,11 +84,19 @@ export class RecordRepository<T extends RecordMeta> {
     });
   }
 
-  async update(id: string, input: unknown): Promise<T> {
+  /**
+   * Saves an edit. `expectedRev` is the revision the editor started from: if the stored record has moved on
+   * since, the edit is refused (EditConflictError) instead of silently replacing the other change.
+   */
+  async update(id: string, input: unknown, expectedRev?: number): Promise<T> {
     const fields = this.spec.parse(input);
     return this.db.transaction('rw', this.tables(), async () => {
       const previous = await this.table.get(id);
       if (!previous || !isLive(previous)) throw new RecordNotFoundError(this.spec.kind, id);
+      if (expectedRev !== undefined && previous.rev !== expectedRev) {
+        const name = (previous as unknown as { name?: unknown }).name;
+        throw new EditConflictError(this.spec.kind, typeof name === 'string' ? name : id);
+      }
       await this.spec.checkInTransaction?.(this.db, fields, id);
       const record = stampUpdate(previous, fields, this.ctx);
       await this.table.put(record);

@@ -189,3 +189,23 @@ describe('repositories', () => {
     expect((await storage.studies.list()).map((s) => s.period)).toEqual(['2026-02']);
   });
 });
+
+describe('edits from a stale form', () => {
+  it('refuses an update whose starting revision is no longer the stored one, writing nothing', async () => {
+    const { EditConflictError } = await import('./record-repository');
+    const site = await storage.sites.create({ name: 'Dockside', region: '', timeZone: 'UTC' });
+    await storage.sites.update(site.id, { name: 'Dockside East', region: '', timeZone: 'UTC' }, site.rev);
+    await expect(
+      storage.sites.update(site.id, { name: 'Dockside West', region: '', timeZone: 'UTC' }, site.rev)
+    ).rejects.toBeInstanceOf(EditConflictError);
+    expect((await storage.sites.get(site.id))?.name).toBe('Dockside East');
+    const profileRev = await storage.profiles.revisionOf('vehicle-parts');
+    expect(profileRev).toBe(0);
+    const [vehicle] = (await storage.profiles.effective()).filter((p) => p.id === 'vehicle-parts');
+    const { id, ...rest } = vehicle!;
+    await storage.profiles.save({ ...rest, contextId: id }, 0);
+    await expect(storage.profiles.save({ ...rest, contextId: id, label: 'Stale' }, 0)).rejects.toBeInstanceOf(
+      EditConflictError
+    );
+  });
+});
