@@ -11,7 +11,13 @@ const config = {
   preprocess: vitePreprocess(),
   compilerOptions: { runes: true },
   kit: {
-    adapter: adapter({ pages: 'build', assets: 'build', fallback: '200.html', strict: true }),
+    // CAPSTAN_BUILD_DIR: where the service-worker update test writes its "next version" build.
+    adapter: adapter({
+      pages: process.env.CAPSTAN_BUILD_DIR ?? 'build',
+      assets: process.env.CAPSTAN_BUILD_DIR ?? 'build',
+      fallback: '200.html',
+      strict: true
+    }),
     alias: { $seed: 'seed-data' },
     // Keep version polling off: the service worker decides when an update is offered.
     version: { pollInterval: 0 },

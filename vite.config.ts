@@ -9,7 +9,8 @@ const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 
 };
 
 export default defineConfig({
-  define: { __APP_VERSION__: JSON.stringify(pkg.version) },
+  // CAPSTAN_VERSION lets the service-worker update test build a "next version" of the same code.
+  define: { __APP_VERSION__: JSON.stringify(process.env.CAPSTAN_VERSION ?? pkg.version) },
   resolve: {
     // Every `import … from 'zod'` gets zod set not to try eval (see src/build/zod-without-eval.ts).
     alias: [
