@@ -1,4 +1,5 @@
 /** `npm run bench`: runs every benchmark and prints one table. Figures only; nothing here passes or fails. */
+import { runBrowserBench } from './browser-bench';
 import { runCsvImportBench } from './csv-import-bench';
 import { runExchangeFileBench } from './exchange-file-bench';
 import { runEngineBench, type BenchRow } from './engine-bench';
@@ -29,5 +30,6 @@ print([
   ...runCsvImportBench(),
   ...runRankingBench(),
   ...runReviewBench(),
-  ...(await runExchangeFileBench())
+  ...(await runExchangeFileBench()),
+  ...(await runBrowserBench())
 ]);
