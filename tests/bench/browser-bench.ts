@@ -12,6 +12,50 @@ import { build } from 'esbuild';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../support/chromium.mjs';
 import { startStaticServer, waitForServiceWorker } from '../e2e/static-server';
 import type { BenchRow } from './engine-bench';
+import { createServer } from 'node:net';
+
+/** A free local TCP port, for Chromium's remote-debugging endpoint. */
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = createServer();
+    s.listen(0, '127.0.0.1', () => {
+      const port = (s.address() as { port: number }).port;
+      s.close(() => resolve(port));
+    });
+    s.on('error', reject);
+  });
+}
+
+/** Lighthouse 12 (from the registry; 13 needs a newer Node) performance score of the portfolio page. */
+async function lighthouseRow(): Promise<BenchRow> {
+  const { default: lighthouse } = await import('lighthouse');
+  const port = await freePort();
+  const browser = await chromium.launch({
+    executablePath: CHROMIUM_PATH,
+    args: [...CHROMIUM_ARGS, `--remote-debugging-port=${port}`]
+  });
+  const app = await startStaticServer();
+  try {
+    const started = performance.now();
+    const result = await lighthouse(app.url, {
+      port,
+      output: 'json',
+      logLevel: 'error',
+      onlyCategories: ['performance']
+    });
+    const lhr = result?.lhr;
+    const score = lhr?.categories.performance?.score;
+    const metric = (id: string) => lhr?.audits[id]?.displayValue ?? '–';
+    return {
+      name: `Lighthouse ${lhr?.lighthouseVersion ?? '?'} performance score of the portfolio page: ${score === null || score === undefined ? '–' : Math.round(score * 100)} (its default mobile emulation; FCP ${metric('first-contentful-paint')}, LCP ${metric('largest-contentful-paint')}, TBT ${metric('total-blocking-time')})`,
+      ms: performance.now() - started,
+      target: 'score printed, not asserted'
+    };
+  } finally {
+    await app.stop();
+    await browser.close();
+  }
+}
 
 const ROOT = fileURLToPath(new URL('../..', import.meta.url));
 
@@ -104,6 +148,7 @@ export async function runBrowserBench(): Promise<BenchRow[]> {
       name: '  … loading the demo portfolio and drawing the ranked table, same throttling',
       ms: demo
     });
+    rows.push(await lighthouseRow());
   } finally {
     await browser.close();
     rmSync(work, { recursive: true, force: true });
