@@ -111,6 +111,17 @@ export async function runBrowserBench(): Promise<BenchRow[]> {
       baselineMs: r.bare.readMs
     });
 
+    const mb = (b: number) => `${(b / 1048576).toFixed(0)} MB`;
+    rows.push({
+      name: `exchange file of the ${r.count.toLocaleString('en')} studies in Chromium: collect from the database and write (gzip, ${mb(r.exchange.fileBytes)})`,
+      ms: r.exchange.exportMs,
+      target: `peak JS heap sampled ${mb(r.exchange.peakHeap)} over export and import`
+    });
+    rows.push({
+      name: `  … read, check, preview and merge into an empty database (${r.exchange.imported.toLocaleString('en')} studies written in one transaction)`,
+      ms: r.exchange.importMs
+    });
+
     // First load of the built app, CPU throttled 4×, fresh profile.
     const app = await startStaticServer();
     const context = await browser.newContext();

@@ -6,6 +6,9 @@
 import { Dexie } from 'dexie';
 import { stampNew, type WriteContext } from '../../../src/lib/domain/record-meta';
 import type { Study } from '../../../src/lib/domain/study';
+import { HybridClock } from '../../../src/lib/domain/hybrid-clock';
+import { changeSetOf, decodeExchangeFile, encodeExchangeFile } from '../../../src/lib/exchange/exchange-file';
+import { applyChangeSet, collectChanges, previewChangeSet } from '../../../src/lib/storage/change-set-store';
 import { CapstanDatabase } from '../../../src/lib/storage/database';
 
 const COUNT = 100_000;
@@ -21,7 +24,7 @@ function studies(): Study[] {
   return Array.from({ length: COUNT }, (_, i) =>
     stampNew(
       {
-        characteristicId: `c${i % 2000}`,
+        characteristicId: `00000000-0000-4000-9000-${String(i % 2000).padStart(12, '0')}`,
         period: `20${18 + Math.floor(i / 24000)}-${String((Math.floor(i / 2000) % 12) + 1).padStart(2, '0')}`,
         data: { kind: 'summary' as const, n: 50, mean: 10 + (i % 100) / 1000, sd: 0.5 },
         enteredBy: 'bench'
@@ -66,10 +69,51 @@ export async function runIndexedDbBench() {
     () => app.studies.toArray(),
     rows
   );
+
+  // The whole database as an exchange file, then that file merged into an empty database, as the page does.
+  const heap = () =>
+    (performance as unknown as { memory?: { usedJSHeapSize: number } }).memory?.usedJSHeapSize ?? 0;
+  let peak = heap();
+  const sample = () => (peak = Math.max(peak, heap()));
+  let t = performance.now();
+  const collected = await collectChanges(app, { kind: 'everything' });
+  sample();
+  const header = {
+    appVersion: 'bench',
+    exportedBy: { deviceId: 'bench', deviceName: 'bench' },
+    exportedAt: '2026-06-01T00:00:00.000Z',
+    scope: { kind: 'everything' as const }
+  };
+  const bytes = await encodeExchangeFile(changeSetOf(header, collected.records), { gzip: true });
+  sample();
+  const exportMs = performance.now() - t;
   app.close();
+  const target = new CapstanDatabase('bench-import');
+  await target.open();
+  t = performance.now();
+  const changeSet = await decodeExchangeFile(bytes);
+  sample();
+  const plan = await previewChangeSet(target, changeSet.records);
+  sample();
+  await applyChangeSet(target, plan, {}, new HybridClock('bench'), {
+    deviceId: 'bench',
+    name: 'bench',
+    at: header.exportedAt
+  });
+  sample();
+  const importMs = performance.now() - t;
+  const imported = await target.studies.count();
+  target.close();
   await Dexie.delete('bench-bare');
   await Dexie.delete('bench-app');
-  return { count: COUNT, chunk: CHUNK, bare: bareTimes, app: appTimes };
+  await Dexie.delete('bench-import');
+  return {
+    count: COUNT,
+    chunk: CHUNK,
+    bare: bareTimes,
+    app: appTimes,
+    exchange: { exportMs, importMs, fileBytes: bytes.byteLength, imported, peakHeap: peak }
+  };
 }
 
 (window as unknown as { runIndexedDbBench: typeof runIndexedDbBench }).runIndexedDbBench = runIndexedDbBench;
