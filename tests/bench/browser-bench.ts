@@ -90,6 +90,13 @@ export async function runBrowserBench(): Promise<BenchRow[]> {
             chunk: number;
             bare: { writeMs: number; readMs: number };
             app: { writeMs: number; readMs: number };
+            exchange: {
+              exportMs: number;
+              importMs: number;
+              fileBytes: number;
+              imported: number;
+              peakHeap: number;
+            };
           }>;
         }
       ).runIndexedDbBench()
