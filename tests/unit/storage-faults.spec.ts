@@ -5,7 +5,7 @@ import demo from '../../seed-data/demo-portfolio.json';
 import { canonicalExport } from '../support/exchange-harness';
 import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 import { prepareExport } from '../../src/lib/exchange/export-change-set';
-import { StorageProblem } from '../../src/lib/storage/storage-errors';
+import { explainStorageError, StorageProblem } from '../../src/lib/storage/storage-errors';
 import { openStorage, type CapstanStorage } from '../../src/lib/storage/storage';
 
 /**
@@ -75,6 +75,32 @@ describe('storage faults', () => {
     );
     expect(await canonicalExport(target)).toBe(before);
     expect(await target.db.processes.count()).toBe(0);
+  });
+
+  it('a full disk during a save leaves the stored month as it was, and the page can say so', async () => {
+    const s = await openStorage(`fault-save-${Math.random()}`);
+    opened.push(s);
+    await s.loadDemo(demo);
+    const characteristic = demo.records.characteristics[0]!;
+    const before = await canonicalExport(s);
+    s.db.use(fullDisk('studies'));
+    s.db.close();
+    await s.db.open();
+    const error = await s.studies
+      .logOne(
+        {
+          characteristicId: characteristic.id,
+          period: '2027-01',
+          data: { kind: 'summary', n: 30, mean: 1, sd: 0.1 },
+          enteredBy: 'test'
+        },
+        'new'
+      )
+      .catch((e: unknown) => e);
+    const explained = explainStorageError(error, 'The study') as StorageProblem;
+    expect(explained).toBeInstanceOf(StorageProblem);
+    expect(explained.message).toMatch(/^The study was not saved: this device's storage for Capstan is full/);
+    expect(await canonicalExport(s)).toBe(before);
   });
 
   it('a database written by a newer app is refused, not changed', async () => {
