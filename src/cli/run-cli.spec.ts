@@ -215,7 +215,7 @@ describe('capstan check and merge', async () => {
   const { readFileSync, existsSync } = await import('node:fs');
   const { changeSetOf, encodeExchangeFile, decodeExchangeFile } =
     await import('../lib/exchange/exchange-file');
-  const { travelling } = await import('../lib/storage/change-set-store');
+  const { travelling } = await import('../lib/domain/record-meta');
   const { stampUpdate } = await import('../lib/domain/record-meta');
   const { parseDemoPortfolio } = await import('../lib/domain/demo-portfolio');
   const demoJson = JSON.parse(

@@ -1,5 +1,5 @@
 import { canonicalJson } from './canonical-json';
-import { META_KEYS, clockOf, versionOf, type RecordMeta } from './record-meta';
+import { META_KEYS, clockOf, travelling, versionOf, type RecordMeta } from './record-meta';
 import { compareVersions, joinVersions, writeCount } from './version-vector';
 
 /**
@@ -111,15 +111,9 @@ export function settle<T extends RecordMeta>(winner: T, other: T): T {
   return out;
 }
 
-function normalised<T extends RecordMeta>(record: T): T {
-  const out = { ...record, vv: versionOf(record), clock: clockOf(record) } as T;
-  delete out.localSeq;
-  return out;
-}
-
 export function mergeRecord<T extends RecordMeta>(local: T | undefined, incoming: T): MergeDecision<T> {
   if (!local) {
-    return { kind: isTombstone(incoming) ? 'deleted' : 'new', incoming, write: normalised(incoming) };
+    return { kind: isTombstone(incoming) ? 'deleted' : 'new', incoming, write: travelling(incoming) };
   }
   const order = compareVersions(versionOf(incoming), versionOf(local));
   switch (order) {
@@ -133,7 +127,7 @@ export function mergeRecord<T extends RecordMeta>(local: T | undefined, incoming
         kind: isTombstone(incoming) && !isTombstone(local) ? 'deleted' : 'updated',
         incoming,
         local,
-        write: normalised(incoming)
+        write: travelling(incoming)
       };
     case 'concurrent': {
       if (sameContent(local, incoming) || (isTombstone(local) && isTombstone(incoming))) {
@@ -164,7 +158,7 @@ export type ConflictRule = 'newer' | 'local' | 'incoming';
 /** Settles a conflict by a rule: the newer edit, or always this side's, or always the file's. */
 export function settleConflict<T extends RecordMeta>(decision: MergeDecision<T>, rule: ConflictRule): T {
   const { local, incoming } = decision;
-  if (!local) return normalised(incoming);
+  if (!local) return travelling(incoming);
   const winner = rule === 'local' ? local : rule === 'incoming' ? incoming : newerOf(local, incoming);
   return settle(winner, winner === local ? incoming : local);
 }

@@ -122,3 +122,15 @@ export function stampRestored<T extends RecordMeta>(previous: T, ctx: WriteConte
 export function isLive(record: RecordMeta): boolean {
   return record.deletedAt === undefined;
 }
+
+/** A record as it travels between devices: bookkeeping complete (vector and clock), device-local fields left out. */
+export function travelling<T extends RecordMeta>(record: T): T {
+  const out = { ...record, vv: versionOf(record), clock: clockOf(record) };
+  delete out.localSeq;
+  return out;
+}
+
+/** Id order: the canonical order of records of one kind in a file or a merged set. */
+export function compareById(a: RecordMeta, b: RecordMeta): number {
+  return a.id < b.id ? -1 : a.id > b.id ? 1 : 0;
+}

@@ -6,7 +6,7 @@ import {
   type MergeDecision,
   type MergeKind
 } from './record-merge';
-import type { RecordMeta } from './record-meta';
+import { compareById, type RecordMeta } from './record-meta';
 
 /**
  * Merge of two whole record sets — what the command line's `merge` does with two files, and what the property
@@ -18,8 +18,6 @@ export interface RecordSetMerge {
   counts: Record<MergeKind, number>;
   conflicts: { kind: RecordKind; decision: MergeDecision<RecordMeta> }[];
 }
-
-const byId = (a: RecordMeta, b: RecordMeta) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
 
 export function mergeRecordSets(
   base: RecordsByKind,
@@ -41,7 +39,7 @@ export function mergeRecordSets(
         merged.set(record.id, decision.write);
       }
     }
-    out[kind] = [...merged.values()].sort(byId);
+    out[kind] = [...merged.values()].sort(compareById);
   }
   return { records: out as unknown as RecordsByKind, counts, conflicts };
 }

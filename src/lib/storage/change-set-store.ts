@@ -15,7 +15,7 @@ import {
   type MergeDecision,
   type MergeKind
 } from '../domain/record-merge';
-import { clockOf, versionOf, type RecordMeta } from '../domain/record-meta';
+import { clockOf, compareById, travelling, versionOf, type RecordMeta } from '../domain/record-meta';
 import type { Study } from '../domain/study';
 import type { CapstanDatabase } from './database';
 import { LAST_EXPORT_KEY } from './backup-status';
@@ -52,15 +52,6 @@ const PEER_PREFIX = 'peer:';
 
 type AnyTable = Table<RecordMeta, string>;
 const tableOf = (db: CapstanDatabase, kind: RecordKind) => db.table(kind) as unknown as AnyTable;
-
-/** A record as it travels: bookkeeping complete (vector and clock), device-local fields left out. */
-export function travelling<T extends RecordMeta>(record: T): T {
-  const out = { ...record, vv: versionOf(record), clock: clockOf(record) };
-  delete out.localSeq;
-  return out;
-}
-
-const byId = (a: RecordMeta, b: RecordMeta) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
 
 export interface CollectedChanges {
   records: RecordsByKind;
@@ -103,7 +94,7 @@ export async function collectChanges(db: CapstanDatabase, scope: ExportScope): P
     let highWater = 0;
     for (const kind of RECORD_KINDS) {
       for (const r of records[kind]) if ((r.localSeq ?? 0) > highWater) highWater = r.localSeq ?? 0;
-      records[kind] = records[kind].map(travelling).sort(byId);
+      records[kind] = records[kind].map(travelling).sort(compareById);
     }
     return { records: records as unknown as RecordsByKind, highWater, since };
   });
