@@ -120,6 +120,10 @@ describe('capstan analyze', () => {
     ],
     [['analyze', file('one.csv', 'value\n1.5\n'), '--usl', '3'], /holds 1 value; at least 2/],
     [['analyze', furnaceCsv, '--usl', '700', '--model', 'magic'], /--model must be one of/],
+    [
+      ['analyze', file('flat.csv', 'value\n5\n5\n5\n5\n'), '--usl', '6', '--model', 'normal'],
+      /The normal model cannot be used: all 4 values are identical/
+    ],
     [['analyze', furnaceCsv, '--usl', '700', '--colour', 'red'], /has no option --colour/],
     [
       ['counts', '--units', '10', '--defects', '50', '--opportunities', '4'],

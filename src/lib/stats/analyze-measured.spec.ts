@@ -29,13 +29,20 @@ describe('furnace case study (NIST/SEMATECH e-Handbook §3.5.1.2), published val
     expectAbsolute(r.cpm, pub.CPM, 5e-6, 'CPM');
   });
 
-  it('95 % intervals for CP (chi-square), CPK (Bissell) and CPM', () => {
+  it('95 % intervals for CP (chi-square) and CPK (Bissell); CPM with Boyles’ degrees of freedom', () => {
     expectAbsolute(r.intervals.pp?.lower, pub.CP_95ci[0], 5e-6);
     expectAbsolute(r.intervals.pp?.upper, pub.CP_95ci[1], 5e-6);
     expectAbsolute(r.intervals.ppk?.lower, pub.CPK_95ci[0], 5e-6);
     expectAbsolute(r.intervals.ppk?.upper, pub.CPK_95ci[1], 5e-6);
-    expectAbsolute(r.intervals.cpm?.lower, pub.CPM_95ci[0], 5e-6);
-    expectAbsolute(r.intervals.cpm?.upper, pub.CPM_95ci[1], 5e-6);
+    // The e-Handbook prints the CPM interval with n − 1 = 167 degrees of freedom (1.16405, 1.44344). Boyles'
+    // ν = n(1 + a²)²/(1 + 2a²) with a = (x̄ − T)/s = 0.1196 is 168.0 here, so the interval is a hair narrower:
+    // it agrees with the print to 1e-3 and lies inside it.
+    const a2 = ((pub.mean - 560) / pub.sd) ** 2;
+    expectAbsolute((168 * (1 + a2) ** 2) / (1 + 2 * a2), 168.0, 0.05);
+    expectAbsolute(r.intervals.cpm?.lower, pub.CPM_95ci[0], 1e-3);
+    expectAbsolute(r.intervals.cpm?.upper, pub.CPM_95ci[1], 1e-3);
+    expect(r.intervals.cpm!.lower).toBeGreaterThan(pub.CPM_95ci[0]);
+    expect(r.intervals.cpm!.upper).toBeLessThan(pub.CPM_95ci[1]);
   });
 
   it('theoretical % defective below, above and in total; none observed', () => {
@@ -115,6 +122,14 @@ describe('measured data guards and labels', () => {
     expect(r.cpk).toBeUndefined();
     expect(r.warnings.join(' ')).toMatch(/identical/);
     expect(Number.isFinite(r.zLevel)).toBe(true);
+  });
+
+  it('refuses a model asked for by name when the values have no spread, instead of answering by another method', () => {
+    for (const model of ['normal', 'lognormal', 'weibull'] as const) {
+      expect(() => analyzeMeasured([5, 5, 5, 5], { spec: { lsl: 4, usl: 6 }, model })).toThrow(
+        new RegExp(`The ${model} model cannot be used: all 4 values are identical`)
+      );
+    }
   });
 
   it('warns about small samples (saying how wide), coarse resolution and physical bounds', () => {

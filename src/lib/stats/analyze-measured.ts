@@ -1,7 +1,7 @@
 import { andersonDarlingNormal } from './anderson-darling';
 import { cpm as cpmIndex, indices } from './capability-indices';
 import type { CapabilityResult, FigureInterval } from './capability-result';
-import { bissellInterval, clopperPearson, spreadIndexInterval } from './confidence-bounds';
+import { bissellInterval, clopperPearson, cpmInterval, spreadIndexInterval } from './confidence-bounds';
 import { mean as meanOf, sampleVariance } from './moments';
 import type { FittedModel, ModelName } from './models/fitted-model';
 import { fitModel, isRefusal, searchModels } from './model-search';
@@ -128,7 +128,14 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
   let distinct = 1;
   for (let i = 1; i < n; i += 1) if (sorted[i] !== sorted[i - 1]) distinct += 1;
 
-  // Zero spread: no index, no model, only what was observed.
+  // Zero spread: no index, no model, only what was observed. A model asked for by name cannot be fitted to
+  // identical values; answering with the observed fraction instead would pass off another method as that model.
+  const requestedModel = options.model ?? 'auto';
+  if (!(sdOverall > 0) && requestedModel !== 'auto' && requestedModel !== 'quantile') {
+    throw new RangeError(
+      `The ${requestedModel} model cannot be used: all ${n} values are identical, so there is no spread to fit; choose the automatic model to report the observed fraction out of specification`
+    );
+  }
   if (!(sdOverall > 0)) {
     warnings.push(
       'All values are identical: the spread is zero, so no capability index or model tail can be computed'
@@ -214,7 +221,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
   }
 
   // Model choice.
-  const requested = options.model ?? 'auto';
+  const requested = requestedModel;
   let model: FittedModel | undefined;
   let modelName: string;
   let candidates: CapabilityResult['models'];
@@ -304,7 +311,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
       warnings.push(
         `Normality is rejected (Anderson–Darling p = ${normality.p.toPrecision(2)}): the normal-model ppm may be far off in the tails`
       );
-    addNormalIntervals(result, n, level);
+    addNormalIntervals(result, n, level, spec.target);
   } else if (model) {
     const tails = modelTailFractions(model.cdf, model.sf, spec);
     const pct = percentileIndices(model.quantile, spec);
@@ -396,12 +403,23 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
   return result;
 }
 
-function addNormalIntervals(result: CapabilityResult, n: number, level: number): void {
+function addNormalIntervals(
+  result: CapabilityResult,
+  n: number,
+  level: number,
+  target: number | undefined
+): void {
   const iv = result.intervals;
   const pp = result.pp !== undefined ? spreadIndexInterval(result.pp, n, level) : undefined;
   if (result.cp !== undefined) iv.cp = spreadIndexInterval(result.cp, n, level);
   if (pp) iv.pp = pp;
-  if (result.cpm !== undefined) iv.cpm = spreadIndexInterval(result.cpm, n, level);
+  if (
+    result.cpm !== undefined &&
+    target !== undefined &&
+    result.mean !== undefined &&
+    result.sdOverall !== undefined
+  )
+    iv.cpm = cpmInterval(result.cpm, n, result.mean, result.sdOverall, target, level);
   if (result.cpk !== undefined && result.cpk > 0) iv.cpk = bissellInterval(result.cpk, n, level);
   if (result.ppk !== undefined && result.ppk > 0) {
     const ppk = bissellInterval(result.ppk, n, level);
@@ -409,7 +427,7 @@ function addNormalIntervals(result: CapabilityResult, n: number, level: number):
     Object.assign(iv, fractionIntervals(ppk, pp));
   }
   result.assumptions.push(
-    'intervals: chi-square for Cp, Pp and Cpm, Bissell (1990) for Cpk and Ppk, n − 1 degrees of freedom; z-level and ppm intervals follow from those of Pp and Ppk (approximate)'
+    'intervals: chi-square with n − 1 degrees of freedom for Cp and Pp, with Boyles (1991) degrees of freedom for Cpm, Bissell (1990) for Cpk and Ppk; z-level and ppm intervals follow from those of Pp and Ppk (approximate)'
   );
 }
 

@@ -1,6 +1,6 @@
 import { cpm as cpmIndex, indices } from './capability-indices';
 import type { CapabilityResult } from './capability-result';
-import { bissellInterval, spreadIndexInterval, type IndexInterval } from './confidence-bounds';
+import { bissellInterval, cpmInterval, spreadIndexInterval, type IndexInterval } from './confidence-bounds';
 import { fractionIntervals } from './fraction-bounds';
 import { checkSpecification, type Specification } from './specification';
 import { normalTailFractions } from './tail-fractions';
@@ -74,7 +74,8 @@ export function analyzeSummary(n: number, mu: number, sd: number, options: Summa
   if (tails.zLower !== undefined) result.zLower = tails.zLower;
   if (tails.zUpper !== undefined) result.zUpper = tails.zUpper;
   if (result.pp !== undefined) result.intervals.pp = spreadIndexInterval(result.pp, n, level);
-  if (result.cpm !== undefined) result.intervals.cpm = spreadIndexInterval(result.cpm, n, level);
+  if (result.cpm !== undefined && spec.target !== undefined)
+    result.intervals.cpm = cpmInterval(result.cpm, n, mu, sd, spec.target, level);
   if (result.ppk !== undefined && result.ppk > 0) {
     result.intervals.ppk = bissellInterval(result.ppk, n, level);
     Object.assign(

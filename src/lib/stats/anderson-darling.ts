@@ -32,9 +32,22 @@ export interface NormalityTest {
   variant: string;
 }
 
-/** p-value for the composite normal test from A²* (D'Agostino & Stephens 1986, Table 4.9). */
+/**
+ * Largest A²* at which the Table 4.9 formula is used. The formula is an empirical fit to the tabled upper
+ * percentage points (which stop near p = 0.005); its last piece keeps falling only up to A²* ≈ 153, where the
+ * quadratic term turns it upwards again (A²* = 450 would give p = 1). At A²* = 10 the formula already gives
+ * p ≈ 4e-24, so reporting 0 beyond it changes no decision at any usual level and never lets p climb back.
+ */
+export const AD_P_FORMULA_LIMIT = 10;
+
+/**
+ * p-value for the composite normal test from A²* (D'Agostino & Stephens 1986, Table 4.9), 0 beyond
+ * `AD_P_FORMULA_LIMIT`. Non-increasing in A²* over the whole range (tested).
+ */
 export function andersonDarlingNormalP(adjusted: number): number {
   const a = adjusted;
+  if (Number.isNaN(a)) return Number.NaN;
+  if (a >= AD_P_FORMULA_LIMIT) return 0;
   let p: number;
   if (a < 0.2) p = 1 - Math.exp(-13.436 + 101.14 * a - 223.73 * a * a);
   else if (a < 0.34) p = 1 - Math.exp(-8.318 + 42.796 * a - 59.938 * a * a);

@@ -41,6 +41,36 @@ export function spreadIndexInterval(index: number, n: number, level = 0.95): Ind
 }
 
 /**
+ * Interval for Cpm after Boyles (1991, "The Taguchi capability index", Journal of Quality Technology 23(1)):
+ * Ĉpm·√(χ²_{α/2, ν}/ν) ≤ Cpm ≤ Ĉpm·√(χ²_{1−α/2, ν}/ν), with the degrees of freedom
+ *   ν = n·(1 + a²)² / (1 + 2a²),   a = (x̄ − T)/s,
+ * which account for the mean's distance from target (ν = n when on target, larger when off it; the
+ * n − 1 of the Cp interval ignores that the off-target part is estimated too). The formula is as restated in
+ * Montgomery, Introduction to Statistical Quality Control (6th ed., §8.3.5), quoted from memory; its coverage is
+ * checked by simulation in the tests.
+ */
+export function cpmInterval(
+  index: number,
+  n: number,
+  mean: number,
+  sd: number,
+  target: number,
+  level = 0.95
+): IndexInterval {
+  checkLevel(level);
+  const a2 = sd > 0 ? ((mean - target) / sd) ** 2 : 0;
+  const df = (n * (1 + a2) ** 2) / (1 + 2 * a2);
+  const alpha = 1 - level;
+  const q = (p: number) => Math.sqrt(chiSquareQuantile(p, df) / df);
+  return {
+    lower: index * q(alpha / 2),
+    upper: index * q(1 - alpha / 2),
+    lowerBound: index * q(alpha),
+    level
+  };
+}
+
+/**
  * Bissell's (1990) normal approximation for Cpk or Ppk ("How reliable is your capability index?", Applied
  * Statistics 39(3)): Ĉpk·(1 ∓ z·√(1/(9n·Ĉpk²) + 1/(2(n−1)))), z the two-sided quantile; the lower bound uses the
  * one-sided quantile. Reproduces the e-Handbook furnace interval (1.12771, 1.41882).
