@@ -2,6 +2,9 @@ import { writeFile } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { KIND_LABEL } from '../lib/domain/record-kinds';
 import type { ConflictRule } from '../lib/domain/record-merge';
+import { summariseConflict } from '../lib/domain/conflict-summary';
+import { RecordIndex } from '../lib/domain/record-index';
+import type { RecordsByKind } from '../lib/domain/record-kinds';
 import { mergeRecordSets } from '../lib/domain/record-set-merge';
 import { changeSetOf, encodeExchangeFile } from '../lib/exchange/exchange-file';
 import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
@@ -14,6 +17,13 @@ const PREFER: Record<string, ConflictRule> = { newer: 'newer', base: 'local', in
 
 /** Exit code when conflicts stop a merge (no `--prefer`): distinct from bad input (2). */
 export const CONFLICT_EXIT = 3;
+
+/** Finds a record by id in the base file first, then in the incoming one (for naming conflicts). */
+function lookupIn(base: RecordsByKind, incoming: RecordsByKind) {
+  const a = new RecordIndex(base);
+  const b = new RecordIndex(incoming);
+  return (id: string) => a.record(id) ?? b.record(id);
+}
 
 /**
  * `merge BASE INCOMING -o OUT [--prefer newer|base|incoming] [--json]`: the app's merge rules applied to two
@@ -37,12 +47,19 @@ export async function mergeCommand(argv: readonly string[], io: CliIo): Promise<
   const rule = preferText === undefined ? undefined : PREFER[preferText];
   const [base, incoming] = [await readExchangeFile(basePath), await readExchangeFile(incomingPath)];
   const merged = mergeRecordSets(base.records, incoming.records, rule);
-  const conflicts = merged.conflicts.map(({ kind, decision }) => ({
-    kind,
-    id: decision.incoming.id,
-    nature: decision.nature,
-    fields: decision.fields
-  }));
+  const lookup = lookupIn(base.records, incoming.records);
+  const conflicts = merged.conflicts.map((c) => {
+    const summary = summariseConflict(c, lookup);
+    return {
+      kind: c.kind,
+      id: c.key,
+      type: c.type,
+      nature: c.nature,
+      fields: c.fields,
+      title: summary.title,
+      question: summary.question
+    };
+  });
   const json = args.flags.has('json');
   if (conflicts.length > 0 && !rule) {
     if (json) io.stdout(JSON.stringify({ written: false, counts: merged.counts, conflicts }, null, 2));
@@ -50,9 +67,7 @@ export async function mergeCommand(argv: readonly string[], io: CliIo): Promise<
       io.stdout(
         [
           `${conflicts.length} conflict(s): records changed in both files since they last met. Nothing was written.`,
-          ...conflicts.map(
-            (c) => `  ${KIND_LABEL[c.kind]} ${c.id}: ${c.nature}, fields ${c.fields?.join(', ')}`
-          ),
+          ...conflicts.map((c) => `  ${c.title} (${KIND_LABEL[c.kind]} ${c.id}): ${c.question}`),
           'Choose with --prefer newer (later edit wins), base or incoming.'
         ].join('\n')
       );

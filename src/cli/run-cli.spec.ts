@@ -221,11 +221,12 @@ describe('capstan check and merge', async () => {
     await import('../lib/exchange/exchange-file');
   const { travelling } = await import('../lib/domain/record-meta');
   const { stampUpdate } = await import('../lib/domain/record-meta');
-  const { parseDemoPortfolio } = await import('../lib/domain/demo-portfolio');
+  const { datedFromToday, parseDemoPortfolio } = await import('../lib/domain/demo-portfolio');
   const demoJson = JSON.parse(
     readFileSync(new URL('../../seed-data/demo-portfolio.json', import.meta.url), 'utf8')
   );
-  const demoRecords = parseDemoPortfolio(demoJson).records;
+  // Dated as a device loading it today would hold it: the committed file ends in the month it was generated.
+  const demoRecords = datedFromToday(parseDemoPortfolio(demoJson), Date.now()).records;
   const base = {
     contextProfiles: [],
     sites: demoRecords.sites.map(travelling),
@@ -237,7 +238,7 @@ describe('capstan check and merge', async () => {
   };
   const header = (name: string) => ({
     appVersion: 'test',
-    exportedBy: { deviceId: `${name}-device`, deviceName: name },
+    exportedBy: { deviceId: `${name.replace(/[^a-z0-9-]/g, '-')}-device`, deviceName: name },
     exportedAt: '2026-12-01T00:00:00.000Z',
     scope: { kind: 'everything' as const }
   });
@@ -316,7 +317,15 @@ describe('capstan check and merge', async () => {
     const j = JSON.parse(r.out);
     expect(j.written).toBe(false);
     expect(j.conflicts).toEqual([
-      { kind: 'sites', id: base.sites[0]!.id, nature: 'both-edited', fields: ['name'] }
+      {
+        kind: 'sites',
+        id: base.sites[0]!.id,
+        type: 'record',
+        nature: 'both-edited',
+        fields: ['name'],
+        title: 'Site “Renamed at the site”',
+        question: 'Edited on both devices since they last exchanged files.'
+      }
     ]);
     expect(existsSync(out)).toBe(false);
     for (const [prefer, name] of [

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { finiteNumber, optionalText, recordId, requiredText } from './field-rules';
+import { measureNumber, optionalText, recordId, requiredText } from './field-rules';
 import { parseFields } from './parse-fields';
 import type { RecordMeta } from './record-meta';
 
@@ -32,12 +32,12 @@ export const characteristicFieldsSchema = z
     name: requiredText('Characteristic name', 160),
     unit: optionalText('Unit', 40),
     dataKind: z.enum(DATA_KINDS, { error: "Data kind must be 'measured' or 'counted'" }),
-    lsl: finiteNumber('LSL').optional(),
-    usl: finiteNumber('USL').optional(),
-    target: finiteNumber('Target').optional(),
+    lsl: measureNumber('LSL').optional(),
+    usl: measureNumber('USL').optional(),
+    target: measureNumber('Target').optional(),
     riskClass: z.enum(RISK_CLASSES, { error: "Risk class must be 'standard', 'key' or 'safety'" }),
-    physicalMin: finiteNumber('Physical minimum').optional(),
-    physicalMax: finiteNumber('Physical maximum').optional()
+    physicalMin: measureNumber('Physical minimum').optional(),
+    physicalMax: measureNumber('Physical maximum').optional()
   })
   .superRefine((c, ctx) => {
     if (c.dataKind === 'measured' && c.lsl === undefined && c.usl === undefined) {

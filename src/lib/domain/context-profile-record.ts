@@ -13,7 +13,10 @@ import type { RecordMeta } from './record-meta';
 export type ContextProfileFields = Omit<ContextProfile, 'id'> & { contextId: string };
 export type ContextProfileRecord = ContextProfileFields & RecordMeta;
 
-const level = (label: string) => finiteNumber(label).positive({ error: `${label} must be above zero` });
+const level = (label: string) =>
+  finiteNumber(label)
+    .positive({ error: `${label} must be above zero` })
+    .max(1e6, { error: `${label} must be at most 1,000,000 (ppm) or an index or z-level below that` });
 
 export const contextProfileFieldsSchema = z.object({
   contextId: z.string({ error: 'Context id is required' }).regex(/^[a-z0-9][a-z0-9-]{1,59}$/, {

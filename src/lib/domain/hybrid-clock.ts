@@ -7,7 +7,14 @@
  *
  * A stamp is written as fixed-width text, `<wall ms, 13 digits>-<counter, 4 digits>-<device id>`, so that plain
  * string comparison is the clock's total order (ties between devices broken by device id).
+ *
+ * The clock never runs ahead of its own device's time by more than `CLOCK_TOLERANCE_MS` (time-bounds.ts): a
+ * stamp further ahead is refused where files are read, ignored by `observe`, and never followed by `tick`. So a
+ * single bad stamp cannot pin a device's edits to a far-future instant, and the 13 digits always suffice.
  */
+import { isDeviceId } from './device-id';
+import { CLOCK_TOLERANCE_MS } from './time-bounds';
+
 export type ClockStamp = string;
 
 const WALL_DIGITS = 13;
@@ -27,12 +34,17 @@ export function formatStamp({ wallMs, counter, deviceId }: ClockParts): ClockSta
 
 export function parseStamp(stamp: ClockStamp): ClockParts | undefined {
   const m = STAMP_PATTERN.exec(stamp);
-  if (!m) return undefined;
+  if (!m || !isDeviceId(m[3])) return undefined;
   return { wallMs: Number(m[1]), counter: Number(m[2]), deviceId: m[3] as string };
 }
 
 export function isClockStamp(value: unknown): value is ClockStamp {
-  return typeof value === 'string' && value.length <= 120 && STAMP_PATTERN.test(value);
+  return typeof value === 'string' && value.length <= 120 && parseStamp(value) !== undefined;
+}
+
+/** The wall-clock milliseconds of a stamp (NaN for text that is not one). */
+export function stampWallMs(stamp: ClockStamp): number {
+  return parseStamp(stamp)?.wallMs ?? Number.NaN;
 }
 
 /** The stamp a record written before clocks existed is given: its update time, counter 0, its writer. */
@@ -53,7 +65,9 @@ export function laterStamp(a: ClockStamp | undefined, b: ClockStamp | undefined)
  * `nowMs`: the wall clock if it is ahead, otherwise the same wall time with the counter advanced.
  */
 export function nextStamp(last: ClockStamp | undefined, nowMs: number, deviceId: string): ClockStamp {
-  const prev = last === undefined ? undefined : parseStamp(last);
+  const parsed = last === undefined ? undefined : parseStamp(last);
+  // A stamp beyond this device's time plus the tolerance is not followed (see the module note).
+  const prev = parsed && parsed.wallMs <= nowMs + CLOCK_TOLERANCE_MS ? parsed : undefined;
   if (!prev || nowMs > prev.wallMs)
     return formatStamp({ wallMs: Math.max(0, Math.floor(nowMs)), counter: 0, deviceId });
   const counter = prev.counter + 1;
@@ -74,17 +88,23 @@ export class HybridClock {
     private readonly wallMs: () => number = () => Date.now(),
     initial?: ClockStamp
   ) {
-    this.last = initial;
+    this.observe(initial);
   }
 
   tick(after?: ClockStamp): ClockStamp {
-    const stamp = nextStamp(laterStamp(this.last, after), this.wallMs(), this.deviceId);
+    const now = this.wallMs();
+    const usable = after !== undefined && stampWallMs(after) <= now + CLOCK_TOLERANCE_MS ? after : undefined;
+    const stamp = nextStamp(laterStamp(this.last, usable), now, this.deviceId);
     this.last = stamp;
     return stamp;
   }
 
+  /** Takes in a stamp seen elsewhere; one further ahead of this device's time than the tolerance is ignored. */
   observe(remote: ClockStamp | undefined): void {
-    if (remote !== undefined && isClockStamp(remote)) this.last = laterStamp(this.last, remote);
+    if (remote === undefined) return;
+    const parts = parseStamp(remote);
+    if (parts && parts.wallMs <= this.wallMs() + CLOCK_TOLERANCE_MS)
+      this.last = laterStamp(this.last, remote);
   }
 
   get latest(): ClockStamp | undefined {

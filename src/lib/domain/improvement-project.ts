@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { nonNegativeNumber, optionalText, recordId, requiredText } from './field-rules';
+import { describeValue, nonNegativeNumber, optionalText, recordId, requiredText } from './field-rules';
+import { isCalendarDate } from './time-bounds';
 import { parseFields } from './parse-fields';
 import type { RecordMeta } from './record-meta';
 
@@ -22,15 +23,10 @@ export interface ImprovementProjectFields {
 export type ImprovementProject = ImprovementProjectFields & RecordMeta;
 
 const calendarDate = (label: string) =>
-  z
-    .string({ error: `${label} is required` })
-    .refine(
-      (s) =>
-        /^\d{4}-\d{2}-\d{2}$/.test(s) &&
-        !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) &&
-        new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
-      { error: (issue) => `${label} '${String(issue.input)}' is not a date written YYYY-MM-DD` }
-    );
+  z.string({ error: `${label} is required` }).refine(isCalendarDate, {
+    error: (issue) =>
+      `${label} ${describeValue(issue.input)} is not a real date between 1970 and 2199 written YYYY-MM-DD`
+  });
 
 export const improvementProjectFieldsSchema = z
   .object({

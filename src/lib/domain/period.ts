@@ -10,6 +10,21 @@ export function isPeriod(value: unknown): value is Period {
   return typeof value === 'string' && PERIOD_PATTERN.test(value);
 }
 
+/** Years a reporting month may lie in: records outside them are typing or file errors (0000-01, 9999-12). */
+export const FIRST_PERIOD_YEAR = 1970;
+export const LAST_PERIOD_YEAR = 2199;
+
+/** Why a value is not a plausible reporting month, or undefined when it is one. */
+export function periodProblem(value: unknown): string | undefined {
+  const shown = typeof value === 'string' ? `'${value.slice(0, 20)}'` : String(value);
+  if (!isPeriod(value)) return `Period ${shown} is not a month written YYYY-MM`;
+  const year = Number(value.slice(0, 4));
+  if (year < FIRST_PERIOD_YEAR || year > LAST_PERIOD_YEAR) {
+    return `Period ${shown} lies outside the years ${FIRST_PERIOD_YEAR}–${LAST_PERIOD_YEAR}`;
+  }
+  return undefined;
+}
+
 export function periodOf(date: Date): Period {
   return `${date.getUTCFullYear()}-${String(date.getUTCMonth() + 1).padStart(2, '0')}`;
 }

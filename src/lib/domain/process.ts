@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { nonNegativeNumber, optionalText, recordId, requiredText } from './field-rules';
+import { MAX_COUNT, nonNegativeNumber, optionalText, recordId, requiredText } from './field-rules';
 import { parseFields } from './parse-fields';
 import type { RecordMeta } from './record-meta';
 
@@ -24,7 +24,7 @@ export const processFieldsSchema = z.object({
   name: requiredText('Process name', 160),
   owner: optionalText('Owner', 120),
   contextId: requiredText('Industry context', 60),
-  monthlyVolume: nonNegativeNumber('Monthly volume'),
+  monthlyVolume: nonNegativeNumber('Monthly volume', MAX_COUNT),
   costPerDefective: nonNegativeNumber('Cost per defective unit'),
   currency: z
     .string({ error: 'Currency is required' })

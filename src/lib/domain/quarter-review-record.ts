@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { parseFields } from './parse-fields';
 import type { RecordMeta } from './record-meta';
+import { isoTime } from './record-meta-schema';
 import { reviewFiguresSchema, type ReviewFigures } from './review-figures';
 
 /**
@@ -42,9 +43,7 @@ export const quarterReviewFieldsSchema = z.object({
   ),
   snapshot: z
     .object({
-      frozenAt: z.string().refine((s) => /^\d{4}-\d{2}-\d{2}T/.test(s) && !Number.isNaN(Date.parse(s)), {
-        error: 'frozenAt must be an ISO 8601 date-time'
-      }),
+      frozenAt: isoTime('frozenAt'),
       figures: reviewFiguresSchema
     })
     .optional()

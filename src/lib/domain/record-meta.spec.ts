@@ -52,15 +52,29 @@ describe('record bookkeeping', () => {
     });
   });
 
-  it('stamps an edit later than the edited version even when this device clock is behind', () => {
+  it('stamps an edit later than the edited version even when this device clock is (a few hours) behind', () => {
     const created = stampNew({ name: 'x' }, clockAt('2026-06-01T00:00:00Z'));
     const behind = stampUpdate(
       created,
       { name: 'y' },
-      { ...clockAt('2026-01-01T00:00:00Z'), deviceId: 'dev-b' }
+      { ...clockAt('2026-05-31T20:00:00Z'), deviceId: 'dev-b' }
     );
     expect(behind.clock! > created.clock!).toBe(true);
     expect(behind.clock).toBe('1780272000000-0001-dev-b');
+  });
+
+  it('never follows a stamp beyond its own time plus the tolerance: a version from the year 2286 cannot pin an edit', () => {
+    const poisoned = {
+      ...stampNew({ name: 'x' }, clockAt('2026-06-01T00:00:00Z')),
+      clock: '9999999999999-9999-dev-a'
+    };
+    const edit = stampUpdate(
+      poisoned,
+      { name: 'y' },
+      { ...clockAt('2026-06-02T00:00:00Z'), deviceId: 'dev-b' }
+    );
+    expect(edit.clock).toBe(`${Date.parse('2026-06-02T00:00:00Z')}-0000-dev-b`);
+    expect(edit.clock).toMatch(/^\d{13}-\d{4}-dev-b$/);
   });
 
   it('reads the version of a record written before vectors existed from its rev and writer', () => {

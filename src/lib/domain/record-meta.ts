@@ -1,4 +1,12 @@
-import { HybridClock, legacyStamp, nextStamp, type ClockStamp } from './hybrid-clock';
+import {
+  formatStamp,
+  HybridClock,
+  legacyStamp,
+  nextStamp,
+  parseStamp,
+  type ClockStamp
+} from './hybrid-clock';
+import { calendarTimeMs, isAheadOfClock } from './time-bounds';
 import { bumpVersion, writeCount, type VersionVector } from './version-vector';
 
 /**
@@ -127,6 +135,31 @@ export function isLive(record: RecordMeta): boolean {
 export function travelling<T extends RecordMeta>(record: T): T {
   const out = { ...record, vv: versionOf(record), clock: clockOf(record) };
   delete out.localSeq;
+  return out;
+}
+
+/**
+ * A record as this device may send it: a time stamp or clock stamp that lies beyond this device's time plus the
+ * tolerance (written before such stamps were refused, or by a clock since corrected) is brought back to now,
+ * so that whatever this device wrote, it can always export and every receiver accepts. Merging compares
+ * version vectors and content, never these stamps, so nothing a receiver decides changes.
+ */
+export function boundedToClock<T extends RecordMeta>(record: T, nowMs: number): T {
+  const stamp = parseStamp(record.clock ?? '');
+  const nowIso = new Date(nowMs).toISOString();
+  const badTime = (t: string | undefined) => {
+    if (t === undefined) return false;
+    const ms = calendarTimeMs(t);
+    return ms === undefined || isAheadOfClock(ms, nowMs);
+  };
+  const clockBad = !stamp || stamp.deviceId !== record.deviceId || isAheadOfClock(stamp.wallMs, nowMs);
+  if (!clockBad && !badTime(record.createdAt) && !badTime(record.updatedAt) && !badTime(record.deletedAt))
+    return record;
+  const out = { ...record };
+  if (badTime(out.createdAt)) out.createdAt = nowIso;
+  if (badTime(out.updatedAt)) out.updatedAt = nowIso;
+  if (badTime(out.deletedAt)) out.deletedAt = nowIso;
+  if (clockBad) out.clock = formatStamp({ wallMs: nowMs, counter: 0, deviceId: record.deviceId });
   return out;
 }
 

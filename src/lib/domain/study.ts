@@ -1,8 +1,16 @@
 import { z } from 'zod';
 import type { Characteristic } from './characteristic';
-import { count, describeValue, finiteNumber, nonNegativeNumber, optionalText, recordId } from './field-rules';
+import {
+  count,
+  describeValue,
+  MAX_MEASURE,
+  measureNumber,
+  nonNegativeNumber,
+  optionalText,
+  recordId
+} from './field-rules';
 import { parseFields } from './parse-fields';
-import { isPeriod, type Period } from './period';
+import { periodProblem, type Period } from './period';
 import type { RecordMeta } from './record-meta';
 import { ValidationError } from './validation-error';
 
@@ -53,7 +61,14 @@ const rawSchema = z
     kind: z.literal('raw'),
     values: z
       .array(
-        z.number({ error: (issue) => `measurement ${describeValue(issue.input)} is not a finite number` }),
+        z
+          .number({ error: (issue) => `measurement ${describeValue(issue.input)} is not a finite number` })
+          .min(-MAX_MEASURE, {
+            error: (issue) => `measurement ${describeValue(issue.input)} is implausibly large`
+          })
+          .max(MAX_MEASURE, {
+            error: (issue) => `measurement ${describeValue(issue.input)} is implausibly large`
+          }),
         { error: 'Values must be a list of numbers' }
       )
       .min(1, { error: 'Raw data needs at least one measurement' })
@@ -73,8 +88,8 @@ const rawSchema = z
 const summarySchema = z.object({
   kind: z.literal('summary'),
   n: count('n').min(2, { error: 'n must be at least 2 for a standard deviation to exist' }),
-  mean: finiteNumber('Mean'),
-  sd: nonNegativeNumber('Standard deviation')
+  mean: measureNumber('Mean'),
+  sd: nonNegativeNumber('Standard deviation', MAX_MEASURE)
 });
 
 const defectivesSchema = z
@@ -122,8 +137,8 @@ export const studyDataSchema = z.discriminatedUnion(
 
 export const studyFieldsSchema = z.object({
   characteristicId: recordId('Characteristic'),
-  period: z.string({ error: 'Period is required' }).refine(isPeriod, {
-    error: (issue) => `Period ${describeValue(issue.input)} is not a month written YYYY-MM`
+  period: z.string({ error: 'Period is required' }).refine((p) => periodProblem(p) === undefined, {
+    error: (issue) => periodProblem(issue.input) ?? 'Period is not valid'
   }),
   data: studyDataSchema,
   enteredBy: optionalText('Entered by', 120),

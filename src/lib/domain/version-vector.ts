@@ -6,6 +6,19 @@
  */
 export type VersionVector = Readonly<Record<string, number>>;
 
+/**
+ * A device's count in a vector, read as an own property only: a vector is data from a file, and a device named
+ * like a member every object inherits (`toString`) must read as 0, never as a function. Vectors built here
+ * have no prototype at all.
+ */
+export function countOf(v: VersionVector, deviceId: string): number {
+  return Object.hasOwn(v, deviceId) ? (v[deviceId] as number) : 0;
+}
+
+function emptyVector(): Record<string, number> {
+  return Object.create(null) as Record<string, number>;
+}
+
 export type VersionOrder = 'equal' | 'before' | 'after' | 'concurrent';
 
 /** How `a` relates to `b`: `before` means b has seen every write a has, and more. */
@@ -13,8 +26,8 @@ export function compareVersions(a: VersionVector, b: VersionVector): VersionOrde
   let aAhead = false;
   let bAhead = false;
   for (const device of new Set([...Object.keys(a), ...Object.keys(b)])) {
-    const x = a[device] ?? 0;
-    const y = b[device] ?? 0;
+    const x = countOf(a, device);
+    const y = countOf(b, device);
     if (x > y) aAhead = true;
     else if (y > x) bAhead = true;
     if (aAhead && bAhead) return 'concurrent';
@@ -26,16 +39,18 @@ export function compareVersions(a: VersionVector, b: VersionVector): VersionOrde
 
 /** Least vector that has seen both (element-wise maximum), with devices in sorted order for stable output. */
 export function joinVersions(a: VersionVector, b: VersionVector): VersionVector {
-  const out: Record<string, number> = {};
+  const out = emptyVector();
   for (const device of [...new Set([...Object.keys(a), ...Object.keys(b)])].sort()) {
-    out[device] = Math.max(a[device] ?? 0, b[device] ?? 0);
+    out[device] = Math.max(countOf(a, device), countOf(b, device));
   }
   return out;
 }
 
 /** The vector after one more write by `deviceId`. */
 export function bumpVersion(v: VersionVector, deviceId: string): VersionVector {
-  return sortedVector({ ...v, [deviceId]: (v[deviceId] ?? 0) + 1 });
+  const next = sortedVector(v);
+  next[deviceId] = countOf(v, deviceId) + 1;
+  return sortedVector(next);
 }
 
 /** Total writes the vector accounts for; kept as the record's `rev`. */
@@ -45,8 +60,8 @@ export function writeCount(v: VersionVector): number {
   return sum;
 }
 
-function sortedVector(v: Record<string, number>): VersionVector {
-  const out: Record<string, number> = {};
+function sortedVector(v: VersionVector): Record<string, number> {
+  const out = emptyVector();
   for (const key of Object.keys(v).sort()) out[key] = v[key] as number;
   return out;
 }

@@ -1,14 +1,9 @@
 import { canonicalJson } from '../domain/canonical-json';
 import { laterStamp } from '../domain/hybrid-clock';
-import {
-  countRecords,
-  KIND_LABEL,
-  RECORD_KINDS,
-  type RecordKind,
-  type RecordsByKind
-} from '../domain/record-kinds';
+import { countRecords, RECORD_KINDS, type RecordKind, type RecordsByKind } from '../domain/record-kinds';
 import type { RecordMeta } from '../domain/record-meta';
-import { markupProblem, pathText, structuralProblem } from './exchange-guards';
+import { changeSetProblem, recordPlace, restoreUnknownFields } from './change-set-checks';
+import { duplicateKeyProblem, pathText, printable, structuralProblem } from './exchange-guards';
 import {
   EXCHANGE_FORMAT,
   EXCHANGE_FORMAT_VERSION,
@@ -33,10 +28,13 @@ export interface ChangeSet {
   records: RecordsByKind;
 }
 
-/** Refusal of a file, with one line that says what is wrong and where. Nothing has been written. */
+/**
+ * Refusal of a file, with one line that says what is wrong and where. Nothing has been written. Control
+ * characters that came from the file are shown as escapes, so the message is safe on any terminal.
+ */
 export class ExchangeFileError extends Error {
   constructor(message: string) {
-    super(message);
+    super(printable(message));
     this.name = 'ExchangeFileError';
   }
 }
@@ -154,14 +152,16 @@ function jsonProblem(text: string, error: unknown): string {
 
 /**
  * Reads and checks a whole file, in this order: size, compression, text encoding, JSON, structure (depth,
- * forbidden keys, list lengths), format and version, content hash, schema, duplicate ids, counts, markup.
- * Returns the change set or throws an ExchangeFileError with one line. Never writes anything.
+ * forbidden keys, list lengths), keys written twice, format and version, content hash, schema, unknown fields
+ * kept, bookkeeping, time stamps against this device's clock (`nowMs`), duplicate ids, counts, one live study
+ * per month. Returns the change set or throws an ExchangeFileError with one line. Never writes anything.
  */
 export type DecodeStage = 'unpacking' | 'parsing' | 'verifying';
 
 export async function decodeExchangeFile(
   input: Uint8Array,
-  onStage: (stage: DecodeStage) => void = () => undefined
+  onStage: (stage: DecodeStage) => void = () => undefined,
+  nowMs: number = Date.now()
 ): Promise<ChangeSet> {
   const tooBig = sizeProblem(input.byteLength);
   if (tooBig) throw new ExchangeFileError(tooBig);
@@ -202,7 +202,7 @@ export async function decodeExchangeFile(
     throw new ExchangeFileError(jsonProblem(text, e));
   }
   onStage('verifying');
-  return checkParsed(parsed, text);
+  return checkParsed(parsed, text, nowMs);
 }
 
 /**
@@ -216,8 +216,19 @@ function asWritten(text: string, sha256: string): string | undefined {
   return trimmed.endsWith(tail) ? `${trimmed.slice(0, -tail.length)}}` : undefined;
 }
 
-async function checkParsed(parsed: unknown, text: string): Promise<ChangeSet> {
-  const structural = structuralProblem(parsed, MAX_RECORDS_PER_KIND);
+/** Path of a schema problem, naming the record (kind, index and id) when it lies inside one. */
+function problemPlace(parsed: unknown, path: readonly (string | number)[]): string {
+  if (path[0] === 'records' && typeof path[1] === 'string' && typeof path[2] === 'number') {
+    const kind = path[1] as RecordKind;
+    const raw = (parsed as { records: Record<string, { id?: unknown }[]> }).records[kind]?.[path[2]];
+    const field = path.slice(3);
+    return `${recordPlace(kind, path[2], raw?.id)}${field.length ? `, ${pathText(field)}` : ''}`;
+  }
+  return pathText(path);
+}
+
+async function checkParsed(parsed: unknown, text: string, nowMs: number): Promise<ChangeSet> {
+  const structural = structuralProblem(parsed, MAX_RECORDS_PER_KIND) ?? duplicateKeyProblem(text);
   if (structural) throw new ExchangeFileError(structural);
   const top = parsed as Record<string, unknown>;
   if (top.kind === 'capstan-demo-portfolio') {
@@ -273,32 +284,13 @@ async function checkParsed(parsed: unknown, text: string): Promise<ChangeSet> {
     const first = issues[0]!;
     const more =
       issues.length > 1 ? ` (and ${issues.length - 1} more problem${issues.length > 2 ? 's' : ''})` : '';
-    throw new ExchangeFileError(`${pathText(first.path as (string | number)[])}: ${first.message}${more}`);
+    throw new ExchangeFileError(
+      `${problemPlace(parsed, first.path as (string | number)[])}: ${first.message}${more}`
+    );
   }
   const { header, records } = result.data as unknown as ChangeSet;
-  const seen = new Map<string, RecordKind>();
-  for (const kind of RECORD_KINDS) {
-    const list = records[kind] as RecordMeta[];
-    for (let i = 0; i < list.length; i++) {
-      const id = list[i]!.id;
-      const before = seen.get(id);
-      if (before !== undefined) {
-        throw new ExchangeFileError(
-          before === kind
-            ? `records.${kind}[${i}]: id ${id} appears twice among the ${kind}`
-            : `records.${kind}[${i}]: id ${id} is used by a ${KIND_LABEL[before]} and a ${KIND_LABEL[kind]}`
-        );
-      }
-      seen.set(id, kind);
-    }
-    if (header.counts[kind] !== list.length) {
-      throw new ExchangeFileError(
-        `header.counts.${kind} says ${header.counts[kind]} but the file holds ${list.length}`
-      );
-    }
-  }
-  const markup = markupProblem({ header, records });
-  if (markup) throw new ExchangeFileError(markup);
+  const problem = restoreUnknownFields(parsed, records) ?? changeSetProblem(header, records, nowMs);
+  if (problem) throw new ExchangeFileError(problem);
   return { header, records };
 }
 

@@ -1,24 +1,93 @@
 /**
- * Checks run on a parsed exchange file before schema validation, so that a hostile file is refused quickly
+ * Checks run on an exchange file before schema validation, so that a hostile or damaged file is refused quickly
  * and with a message that says where: nesting depth, keys that could reach an object's prototype when copied
- * (`__proto__`, `constructor`, `prototype`), and list lengths. And, after validation, text that carries active
- * markup — Capstan never renders imported text as markup, but a file that tries is refused rather than kept,
- * since its text also ends up in CSV files and other people's tools.
+ * (`__proto__`, `constructor`, `prototype`), list lengths, and a key written twice in one object (JSON.parse
+ * would silently keep the last one, so two readers could see two different files).
+ *
+ * Text is not screened for markup: no filter can recognise every way of writing it, so Capstan instead never
+ * renders stored text as markup (pages interpolate it as text, charts draw it as text) and neutralises
+ * formula-like cells in the CSV files it writes (exchange/spreadsheet-csv.ts).
  */
 export const MAX_NESTING = 16;
 export const FORBIDDEN_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
 
 /**
- * Markup that could run code or fetch content if some other program rendered the text: script-like elements,
- * event-handler or style attributes inside a tag, and script URLs. Plain angle brackets and harmless tags
- * (`<b>`, `a < b`) are text like any other and pass.
+ * Text from a file made safe to print in a message or on a terminal: control characters (C0, DEL, C1) and the
+ * invisible direction overrides become visible escapes such as `\u001b`, so a file cannot move the cursor,
+ * recolour a terminal or reorder what a person reads.
  */
-const ACTIVE_MARKUP =
-  /<\s*\/?\s*(script|iframe|frame|frameset|object|embed|applet|style|link|meta|base|svg|math|template|form)\b|<[a-z!][^>]*\s(on[a-z]+|style|srcdoc|formaction|xlink:href)\s*=|(java|vb)script\s*:|data\s*:\s*text\/html/i;
+export function printable(text: string): string {
+  return text.replace(
+    // eslint-disable-next-line no-control-regex
+    /[\u0000-\u001f\u007f-\u009f\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069]/g,
+    (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`
+  );
+}
 
-export function activeMarkupIn(text: string): string | undefined {
-  const m = ACTIVE_MARKUP.exec(text);
-  return m ? m[0].slice(0, 24) : undefined;
+interface OpenContainer {
+  /** Keys seen so far (objects), or undefined for a list. */
+  keys: Set<string> | undefined;
+  /** The key or list index under which this container sits in its parent. */
+  at: string | number;
+  /** For a list: the index of the element being read. */
+  index: number;
+}
+
+function containerPath(stack: readonly OpenContainer[], key: string): string {
+  const parts: (string | number)[] = [];
+  for (let i = 1; i < stack.length; i++) parts.push(stack[i]!.at);
+  parts.push(key);
+  return pathText(parts);
+}
+
+/**
+ * The first key that appears twice in one object of the JSON text, as `path: message`, or undefined. One pass
+ * over the characters; strings are skipped with indexOf. Call it on text that JSON.parse accepted.
+ */
+export function duplicateKeyProblem(text: string): string | undefined {
+  const stack: OpenContainer[] = [];
+  const n = text.length;
+  let expectKey = false;
+  let pendingKey: string | number = '';
+  for (let i = 0; i < n; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 34) {
+      let j = text.indexOf('"', i + 1);
+      for (;;) {
+        if (j < 0) return undefined;
+        let slashes = 0;
+        while (text.charCodeAt(j - 1 - slashes) === 92) slashes++;
+        if (slashes % 2 === 0) break;
+        j = text.indexOf('"', j + 1);
+      }
+      const top = stack[stack.length - 1];
+      if (expectKey && top?.keys) {
+        const raw = text.slice(i + 1, j);
+        const key = raw.includes('\\') ? (JSON.parse(text.slice(i, j + 1)) as string) : raw;
+        if (top.keys.has(key)) {
+          return `${containerPath(stack, key)}: the key "${printable(key.slice(0, 60))}" appears twice in one object; a file Capstan wrote never does — it was edited or damaged`;
+        }
+        top.keys.add(key);
+        pendingKey = key;
+        expectKey = false;
+      }
+      i = j;
+      continue;
+    }
+    if (c === 123 || c === 91) {
+      const top = stack[stack.length - 1];
+      const at = top === undefined ? '' : top.keys ? pendingKey : top.index;
+      stack.push({ keys: c === 123 ? new Set() : undefined, at, index: 0 });
+      expectKey = c === 123;
+    } else if (c === 125 || c === 93) {
+      stack.pop();
+    } else if (c === 44) {
+      const top = stack[stack.length - 1];
+      if (top?.keys) expectKey = true;
+      else if (top) top.index++;
+    }
+  }
+  return undefined;
 }
 
 export function pathText(path: readonly (string | number)[]): string {
@@ -77,39 +146,6 @@ export function structuralProblem(root: unknown, maxArray: number): string | und
       const v = (value as Record<string, unknown>)[key];
       if (v !== null && typeof v === 'object')
         stack.push({ value: v, parent: node, key, depth: node.depth + 1 });
-    }
-  }
-  return undefined;
-}
-
-/** First text value holding active markup, as `path: what`. */
-export function markupProblem(root: unknown): string | undefined {
-  const stack: Node[] = [{ value: root, parent: undefined, key: '', depth: 0 }];
-  while (stack.length > 0) {
-    const node = stack.pop()!;
-    const value = node.value;
-    if (typeof value === 'string') {
-      const hit = activeMarkupIn(value);
-      if (hit) {
-        return `${pathOf(node)} holds markup that could run as code ("${hit}…"); Capstan does not accept it — remove it where the file was made`;
-      }
-      continue;
-    }
-    if (value === null || typeof value !== 'object') continue;
-    if (Array.isArray(value)) {
-      for (let i = value.length - 1; i >= 0; i--) {
-        const v: unknown = value[i];
-        if (typeof v === 'string' || (v !== null && typeof v === 'object'))
-          stack.push({ value: v, parent: node, key: i, depth: 0 });
-      }
-    } else {
-      const keys = Object.keys(value);
-      for (let i = keys.length - 1; i >= 0; i--) {
-        const key = keys[i]!;
-        const v = (value as Record<string, unknown>)[key];
-        if (typeof v === 'string' || (v !== null && typeof v === 'object'))
-          stack.push({ value: v, parent: node, key, depth: 0 });
-      }
     }
   }
   return undefined;

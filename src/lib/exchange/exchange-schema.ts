@@ -1,12 +1,13 @@
 import { z } from 'zod';
 import { characteristicFieldsSchema } from '../domain/characteristic';
 import { contextProfileFieldsSchema } from '../domain/context-profile-record';
-import { isClockStamp } from '../domain/hybrid-clock';
+import { isClockStamp, parseStamp } from '../domain/hybrid-clock';
 import { improvementProjectFieldsSchema } from '../domain/improvement-project';
 import { processFieldsSchema } from '../domain/process';
 import { quarterReviewFieldsSchema } from '../domain/quarter-review-record';
 import { RECORD_KINDS } from '../domain/record-kinds';
-import { recordMetaSchema } from '../domain/record-meta-schema';
+import { DEVICE_ID_RULE } from '../domain/device-id';
+import { deviceIdSchema, isoTime, recordMetaSchema } from '../domain/record-meta-schema';
 import { siteFieldsSchema } from '../domain/site';
 import { studyFieldsSchema } from '../domain/study';
 
@@ -21,27 +22,19 @@ export const EXCHANGE_FORMAT_VERSION = 1;
 /** Per kind; a file holding more is refused before validation so that it cannot exhaust memory. */
 export const MAX_RECORDS_PER_KIND = 1_000_000;
 
-const isoTime = (label: string) =>
-  z
-    .string({ error: `${label} must be a date-time` })
-    .max(40)
-    .refine((s) => /^\d{4}-\d{2}-\d{2}T/.test(s) && !Number.isNaN(Date.parse(s)), {
-      error: `${label} must be an ISO 8601 date-time`
-    });
+const deviceId = deviceIdSchema;
 
-const deviceId = z
-  .string({ error: 'device id must be text' })
-  .min(1, { error: 'device id is empty' })
-  .max(80);
-
+/** Complete bookkeeping of a travelling record: the version vector and the clock stamp. */
 const exchangeMeta = recordMetaSchema.extend({
   vv: z
     .record(
       deviceId,
-      z.number({ error: 'write counts must be numbers' }).int().min(1).max(Number.MAX_SAFE_INTEGER),
-      {
-        error: 'vv (version vector) must map device ids to write counts'
-      }
+      z
+        .number({ error: 'write counts must be numbers' })
+        .int({ error: 'write counts must be whole numbers' })
+        .min(1, { error: 'write counts must be at least 1' })
+        .max(Number.MAX_SAFE_INTEGER, { error: 'write counts are implausibly large' }),
+      { error: `vv (version vector) must map device ids to write counts; ${DEVICE_ID_RULE}` }
     )
     .refine((v) => Object.keys(v).length >= 1 && Object.keys(v).length <= 1000, {
       error: 'vv (version vector) must name between 1 and 1000 devices'
@@ -50,6 +43,34 @@ const exchangeMeta = recordMetaSchema.extend({
     .string({ error: 'clock is required' })
     .refine(isClockStamp, { error: 'clock is not a clock stamp' })
 });
+
+/**
+ * A validated record's bookkeeping must agree with itself: `rev` is the vector's total, the last writer
+ * (`deviceId`) has at least one write in it, and the clock stamp names that writer. A record that disagrees
+ * would break the merge's arithmetic, so it is refused rather than repaired. Returns the field and message.
+ */
+export function bookkeepingProblem(r: {
+  rev: number;
+  deviceId: string;
+  vv: Record<string, number>;
+  clock: string;
+}): { field: string; message: string } | undefined {
+  let total = 0;
+  for (const n of Object.values(r.vv)) total += n;
+  if (r.rev !== total)
+    return {
+      field: 'rev',
+      message: `rev ${r.rev} disagrees with the version vector, which counts ${total} writes`
+    };
+  if (!Object.hasOwn(r.vv, r.deviceId))
+    return { field: 'deviceId', message: `the last writer ${r.deviceId} has no write in the version vector` };
+  if (parseStamp(r.clock)?.deviceId !== r.deviceId)
+    return {
+      field: 'clock',
+      message: `the clock stamp names another device than the last writer ${r.deviceId}`
+    };
+  return undefined;
+}
 
 const withMeta = <S extends z.ZodObject>(schema: S) => schema.extend(exchangeMeta.shape);
 

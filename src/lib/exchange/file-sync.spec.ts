@@ -138,7 +138,7 @@ describe('exchange files between devices', () => {
     // The manager keeps the site's name; sending back settles it on the site too.
     await hq.exchange.apply(
       plan,
-      { perRecord: { [ch.id]: 'incoming' } },
+      { perConflict: { [ch.id]: 'incoming' } },
       { deviceId: site.deviceId, name: 'site', at: '2026-12-01T00:00:00Z' }
     );
     expect((await hq.characteristics.get(ch.id))?.name).toBe('Seal force (site)');
@@ -155,7 +155,7 @@ describe('exchange files between devices', () => {
     await a.sites.remove(s.id);
     await b.sites.update(s.id, { name: 'Plant West 2', region: '', timeZone: 'UTC' });
     const { plan } = await importBytes(b, await exportBytes(a), 'local');
-    expect(plan.conflicts[0]!.decision.nature).toBe('deleted-there');
+    expect(plan.conflicts[0]!.nature).toBe('deleted-there');
     expect((await b.sites.get(s.id))?.name).toBe('Plant West 2');
     // Sending the settled record back restores it on the deleting side, as an explicit outcome.
     await importBytes(a, await exportBytes(b));

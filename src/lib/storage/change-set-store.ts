@@ -1,23 +1,36 @@
 import type { Table } from 'dexie';
 import { canonicalJson } from '../domain/canonical-json';
-import { laterStamp, type HybridClock } from '../domain/hybrid-clock';
 import {
+  MergeRefused,
+  planMerge,
+  settleMerge,
+  type MergeChoices,
+  type MergePlan
+} from '../domain/change-set-merge';
+import type { HybridClock } from '../domain/hybrid-clock';
+import { RecordIndex, type IndexedRecord } from '../domain/record-index';
+import {
+  CHILD_KINDS,
   emptyRecords,
   KIND_LABEL,
+  PARENT_OF,
+  parentIdOf,
   RECORD_KINDS,
   type RecordKind,
   type RecordsByKind
 } from '../domain/record-kinds';
+import type { MergeKind } from '../domain/record-merge';
 import {
-  mergeRecord,
-  settleConflict,
-  type ConflictRule,
-  type MergeDecision,
-  type MergeKind
-} from '../domain/record-merge';
-import { clockOf, compareById, travelling, versionOf, type RecordMeta } from '../domain/record-meta';
+  boundedToClock,
+  compareById,
+  isLive,
+  travelling,
+  versionOf,
+  type RecordMeta,
+  type WriteContext
+} from '../domain/record-meta';
 import type { Study } from '../domain/study';
-import type { CapstanDatabase } from './database';
+import type { CapstanDatabase, StudyRevision } from './database';
 import { LAST_EXPORT_KEY } from './backup-status';
 import { saveClock } from './device-identity';
 
@@ -92,9 +105,10 @@ export async function collectChanges(db: CapstanDatabase, scope: ExportScope): P
       records.contextProfiles = await db.contextProfiles.toArray();
     }
     let highWater = 0;
+    const nowMs = Date.now();
     for (const kind of RECORD_KINDS) {
       for (const r of records[kind]) if ((r.localSeq ?? 0) > highWater) highWater = r.localSeq ?? 0;
-      records[kind] = records[kind].map(travelling).sort(compareById);
+      records[kind] = records[kind].map((r) => boundedToClock(travelling(r), nowMs)).sort(compareById);
     }
     return { records: records as unknown as RecordsByKind, highWater, since };
   });
@@ -135,39 +149,13 @@ export async function listPeers(db: CapstanDatabase): Promise<PeerRecord[]> {
   return rows.map((r) => r.value as PeerRecord).sort((a, b) => a.name.localeCompare(b.name));
 }
 
-/** A conflict as the preview lists it. */
-export interface PlannedConflict {
-  kind: RecordKind;
-  decision: MergeDecision<RecordMeta>;
+/**
+ * What a preview found: the merge plan (domain/change-set-merge.ts) and the part of this device's records it was
+ * made from, so that applying it settles against exactly what was shown.
+ */
+export interface ImportPlan extends MergePlan {
+  snapshot: RecordIndex;
 }
-
-export interface ImportPlan {
-  /** Every decision that writes or asks (unchanged records are only counted). */
-  decisions: { kind: RecordKind; decision: MergeDecision<RecordMeta> }[];
-  counts: Record<MergeKind, number>;
-  countsByKind: Record<RecordKind, Record<MergeKind, number>>;
-  conflicts: PlannedConflict[];
-  /** Things worth knowing that do not stop the import (e.g. records whose parent has not arrived yet). */
-  warnings: string[];
-  /** Latest clock stamp in the change set, for this device's clock. */
-  latestStamp?: string;
-}
-
-const zeroCounts = (): Record<MergeKind, number> => ({
-  new: 0,
-  updated: 0,
-  deleted: 0,
-  unchanged: 0,
-  conflict: 0
-});
-
-/** References each kind holds, checked for "parent not on this device yet". */
-const PARENT: Partial<Record<RecordKind, { field: string; kind: RecordKind }>> = {
-  processes: { field: 'siteId', kind: 'sites' },
-  characteristics: { field: 'processId', kind: 'processes' },
-  studies: { field: 'characteristicId', kind: 'characteristics' },
-  projects: { field: 'processId', kind: 'processes' }
-};
 
 /** Thrown when a change set cannot be merged at all (nothing has been written). */
 export class ChangeSetRefused extends Error {
@@ -177,6 +165,68 @@ export class ChangeSetRefused extends Error {
   }
 }
 
+const PARENT_KINDS: RecordKind[] = ['sites', 'processes', 'characteristics'];
+
+/**
+ * Reads the part of this device's records a merge of `records` touches: the local version of every record in
+ * the change set, the ancestors of each, the studies of every month the change set logs, and every descendant
+ * of a parent that is deleted on either side (a family the merge may have to bring back or delete whole).
+ * Runs inside the caller's read transaction.
+ */
+async function snapshotFor(db: CapstanDatabase, records: RecordsByKind): Promise<RecordIndex> {
+  const index = new RecordIndex();
+  const have = (id: string) => index.get(id) !== undefined;
+  const add = (kind: RecordKind, rows: (RecordMeta | undefined)[]) => {
+    for (const r of rows) if (r) index.set(kind, r);
+  };
+  // Ids the file names, and ids used as another kind here (refused by the plan).
+  const allIds = RECORD_KINDS.flatMap((k) => (records[k] as RecordMeta[]).map((r) => r.id));
+  for (const kind of RECORD_KINDS) add(kind, await tableOf(db, kind).bulkGet(allIds));
+  // Ancestors of everything in the file, up to the site.
+  for (const kind of ['studies', 'projects', 'characteristics', 'processes'] as RecordKind[]) {
+    const parent = PARENT_OF[kind]!;
+    const wanted = new Set<string>();
+    for (const r of records[kind] as RecordMeta[]) wanted.add(parentIdOf(kind, r)!);
+    for (const { kind: k, record } of [...index.values()])
+      if (k === kind) wanted.add(parentIdOf(kind, record)!);
+    const missing = [...wanted].filter((id) => !have(id));
+    add(parent.kind, await tableOf(db, parent.kind).bulkGet(missing));
+  }
+  // Studies of every month the file logs.
+  const months = records.studies.map((s) => [s.characteristicId, s.period]);
+  if (months.length > 0) {
+    add('studies', await db.studies.where('[characteristicId+period]').anyOf(months).toArray());
+  }
+  // Families: descendants of every parent deleted on either side.
+  const incomingById = new Map<string, RecordMeta>();
+  for (const kind of PARENT_KINDS) for (const r of records[kind] as RecordMeta[]) incomingById.set(r.id, r);
+  let frontier: { kind: RecordKind; id: string }[] = [];
+  for (const { kind, record } of [...index.values()]) {
+    if (!PARENT_KINDS.includes(kind)) continue;
+    const there = incomingById.get(record.id);
+    if (!isLive(record) || (there && !isLive(there))) frontier.push({ kind, id: record.id });
+  }
+  const expanded = new Set<string>();
+  while (frontier.length > 0) {
+    const next: { kind: RecordKind; id: string }[] = [];
+    for (const childKind of RECORD_KINDS) {
+      const parentKind = PARENT_OF[childKind]?.kind;
+      if (!parentKind) continue;
+      const ids = frontier.filter((f) => f.kind === parentKind && !expanded.has(`${childKind}:${f.id}`));
+      if (ids.length === 0) continue;
+      for (const f of ids) expanded.add(`${childKind}:${f.id}`);
+      const rows = await tableOf(db, childKind)
+        .where(PARENT_OF[childKind]!.field)
+        .anyOf(ids.map((f) => f.id))
+        .toArray();
+      add(childKind, rows);
+      if (CHILD_KINDS[childKind]) for (const r of rows) next.push({ kind: childKind, id: r.id });
+    }
+    frontier = next;
+  }
+  return index;
+}
+
 /**
  * Works out, without writing, what merging a change set would do to every record. Refuses (ChangeSetRefused)
  * an id that this device holds as a different kind of record.
@@ -184,72 +234,14 @@ export class ChangeSetRefused extends Error {
 export async function previewChangeSet(db: CapstanDatabase, records: RecordsByKind): Promise<ImportPlan> {
   const tables = RECORD_KINDS.map((k) => tableOf(db, k));
   return db.transaction('r', tables, async () => {
-    const plan: ImportPlan = {
-      decisions: [],
-      counts: zeroCounts(),
-      countsByKind: Object.fromEntries(
-        RECORD_KINDS.map((k) => [k, zeroCounts()])
-      ) as ImportPlan['countsByKind'],
-      conflicts: [],
-      warnings: []
-    };
-    // Ids of the small kinds, to catch an id reused across kinds and references to missing parents.
-    const localIds = new Map<RecordKind, Set<string>>();
-    for (const kind of RECORD_KINDS) {
-      if (kind === 'studies') continue;
-      localIds.set(kind, new Set((await tableOf(db, kind).toCollection().primaryKeys()) as string[]));
+    const snapshot = await snapshotFor(db, records);
+    try {
+      return { ...planMerge(snapshot, records), snapshot };
+    } catch (error) {
+      if (error instanceof MergeRefused) throw new ChangeSetRefused(error.message);
+      throw error;
     }
-    const fileIds = new Map<RecordKind, Set<string>>(
-      RECORD_KINDS.map((k) => [k, new Set((records[k] as RecordMeta[]).map((r) => r.id))])
-    );
-    const missingParents = new Map<RecordKind, number>();
-    for (const kind of RECORD_KINDS) {
-      const incoming = records[kind] as RecordMeta[];
-      if (incoming.length === 0) continue;
-      for (const other of RECORD_KINDS) {
-        if (other === kind) continue;
-        const clash =
-          other === 'studies'
-            ? (
-                await tableOf(db, 'studies').bulkGet(kind === 'studies' ? [] : incoming.map((r) => r.id))
-              ).find(Boolean)
-            : incoming.find((r) => localIds.get(other)!.has(r.id));
-        if (clash) {
-          throw new ChangeSetRefused(
-            `${KIND_LABEL[kind]} ${clash.id} in the file is a ${KIND_LABEL[other]} on this device: the file is not consistent with this data`
-          );
-        }
-      }
-      const locals = await tableOf(db, kind).bulkGet(incoming.map((r) => r.id));
-      const parent = PARENT[kind];
-      incoming.forEach((record, i) => {
-        const decision = mergeRecord(locals[i], record);
-        plan.counts[decision.kind] += 1;
-        plan.countsByKind[kind][decision.kind] += 1;
-        plan.latestStamp = laterStamp(plan.latestStamp, clockOf(record));
-        if (decision.kind !== 'unchanged') plan.decisions.push({ kind, decision });
-        if (decision.kind === 'conflict') plan.conflicts.push({ kind, decision });
-        if (parent && record.deletedAt === undefined) {
-          const ref = (record as unknown as Record<string, string>)[parent.field] as string;
-          if (!fileIds.get(parent.kind)!.has(ref) && !localIds.get(parent.kind)!.has(ref)) {
-            missingParents.set(kind, (missingParents.get(kind) ?? 0) + 1);
-          }
-        }
-      });
-    }
-    for (const [kind, n] of missingParents) {
-      plan.warnings.push(
-        `${n} ${KIND_LABEL[kind]} record(s) refer to a ${KIND_LABEL[PARENT[kind]!.kind]} that is neither in the file nor on this device; they are kept and appear once that record arrives (import the earlier file from that device).`
-      );
-    }
-    return plan;
   });
-}
-
-/** How conflicts are settled: one rule for all, with per-record choices taking precedence. */
-export interface ConflictChoices {
-  rule?: ConflictRule;
-  perRecord?: Record<string, 'local' | 'incoming'>;
 }
 
 export interface ImportResult {
@@ -259,44 +251,35 @@ export interface ImportResult {
 
 /**
  * Writes a previewed merge in one transaction: all of it or nothing. Refuses when a conflict is left unsettled
- * or when a record changed on this device after the preview (preview again). Studies replaced by the file are
- * kept as revisions, so an import can be looked back on.
+ * or when a record it would write changed on this device after the preview (preview again). Studies replaced
+ * by the merge are kept as revisions, so an import can be looked back on.
  */
 export async function applyChangeSet(
   db: CapstanDatabase,
   plan: ImportPlan,
-  choices: ConflictChoices,
+  choices: MergeChoices,
+  ctx: WriteContext,
   clock: HybridClock,
   source: { deviceId: string; name: string; at: string }
 ): Promise<ImportResult> {
-  const unsettled = plan.conflicts.filter(
-    (c) => !choices.perRecord?.[c.decision.incoming.id] && !choices.rule
-  );
-  if (unsettled.length > 0) {
-    throw new ChangeSetRefused(
-      `${unsettled.length} conflict(s) are not settled yet: choose a version for each, or a rule`
-    );
+  let writes: IndexedRecord[];
+  try {
+    writes = settleMerge(plan.snapshot, plan, choices, ctx);
+  } catch (error) {
+    if (error instanceof MergeRefused) throw new ChangeSetRefused(error.message);
+    throw error;
   }
   const tables = RECORD_KINDS.map((k) => tableOf(db, k));
   return db.transaction('rw', [...tables, db.deviceSettings, db.studyRevisions], async () => {
-    const byKind = new Map<RecordKind, MergeDecision<RecordMeta>[]>();
-    for (const { kind, decision } of plan.decisions) {
-      const list = byKind.get(kind) ?? [];
-      list.push(decision);
-      byKind.set(kind, list);
-    }
-    let written = 0;
     for (const kind of RECORD_KINDS) {
-      const decisions = byKind.get(kind);
-      if (!decisions) continue;
+      const mine = writes.filter((w) => w.kind === kind);
+      if (mine.length === 0) continue;
       const table = tableOf(db, kind);
-      const now = await table.bulkGet(decisions.map((d) => d.incoming.id));
-      const writes: RecordMeta[] = [];
-      const revisions: { id: string; studyId: string; savedAt: string; reason: 'imported'; study: Study }[] =
-        [];
-      decisions.forEach((d, i) => {
+      const now = await table.bulkGet(mine.map((w) => w.record.id));
+      const revisions: StudyRevision[] = [];
+      mine.forEach((w, i) => {
         const current = now[i];
-        const expected = d.local;
+        const expected = plan.snapshot.record(w.record.id);
         const same =
           current === undefined
             ? expected === undefined
@@ -304,19 +287,12 @@ export async function applyChangeSet(
               canonicalJson(versionOf(current)) === canonicalJson(versionOf(expected));
         if (!same) {
           throw new ChangeSetRefused(
-            `${KIND_LABEL[kind]} ${d.incoming.id} changed on this device after the preview; nothing was imported — preview the file again`
+            `${KIND_LABEL[kind]} ${w.record.id} changed on this device after the preview; nothing was imported — preview the file again`
           );
         }
-        let record = d.write;
-        if (d.kind === 'conflict') {
-          const pick = choices.perRecord?.[d.incoming.id];
-          record = settleConflict(d, pick ?? choices.rule ?? 'newer');
-        }
-        if (!record) return;
-        writes.push(record);
-        if (kind === 'studies' && current && current.deletedAt === undefined) {
+        if (kind === 'studies' && current && isLive(current)) {
           revisions.push({
-            id: crypto.randomUUID(),
+            id: ctx.newId(),
             studyId: current.id,
             savedAt: source.at,
             reason: 'imported',
@@ -324,14 +300,13 @@ export async function applyChangeSet(
           });
         }
       });
-      await table.bulkPut(writes);
+      await table.bulkPut(mine.map((w) => w.record));
       if (revisions.length > 0) await db.studyRevisions.bulkAdd(revisions);
-      written += writes.length;
     }
     clock.observe(plan.latestStamp);
     await saveClock(db, clock);
     const known = (await loadPeer(db, source.deviceId)) ?? { deviceId: source.deviceId, name: source.name };
     await savePeer(db, { ...known, name: source.name || known.name, lastReceivedAt: source.at });
-    return { counts: { ...plan.counts }, written };
+    return { counts: { ...plan.counts }, written: writes.length };
   });
 }

@@ -1,4 +1,4 @@
-import { parseDemoPortfolio } from '../domain/demo-portfolio';
+import { datedFromToday, parseDemoPortfolio } from '../domain/demo-portfolio';
 import { isLive } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
 
@@ -20,11 +20,16 @@ export async function isPortfolioEmpty(db: CapstanDatabase): Promise<boolean> {
 }
 
 /**
- * Loads the demo portfolio into an empty database in one transaction: all records or none. Refuses a
- * database that already holds data, so that a demo can never mix into real studies.
+ * Loads the demo portfolio into an empty database in one transaction: all records or none, dated from today
+ * (see `datedFromToday`). Refuses a database that already holds data, so that a demo can never mix into real
+ * studies.
  */
-export async function loadDemoPortfolio(db: CapstanDatabase, file: unknown): Promise<DemoLoadResult> {
-  const demo = parseDemoPortfolio(file);
+export async function loadDemoPortfolio(
+  db: CapstanDatabase,
+  file: unknown,
+  nowMs: number = Date.now()
+): Promise<DemoLoadResult> {
+  const demo = datedFromToday(parseDemoPortfolio(file), nowMs);
   const r = demo.records;
   await db.transaction(
     'rw',

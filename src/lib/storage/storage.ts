@@ -7,9 +7,9 @@ import { CapstanDatabase, DEFAULT_DATABASE_NAME } from './database';
 import type { HybridClock } from '../domain/hybrid-clock';
 import type { RecordsByKind } from '../domain/record-kinds';
 import { loadBackupStatus, type BackupStatus } from './backup-status';
+import type { MergeChoices } from '../domain/change-set-merge';
 import type {
   CollectedChanges,
-  ConflictChoices,
   ExportScope,
   ImportPlan,
   ImportResult,
@@ -72,7 +72,7 @@ export interface CapstanStorage {
     preview(records: RecordsByKind): Promise<ImportPlan>;
     apply(
       plan: ImportPlan,
-      choices: ConflictChoices,
+      choices: MergeChoices,
       source: { deviceId: string; name: string; at: string }
     ): Promise<ImportResult>;
     peers(): Promise<PeerRecord[]>;
@@ -158,7 +158,7 @@ export async function openStorage(
       preview: async (records) => (await changeSets()).previewChangeSet(db, records),
       apply: async (plan, choices, source) => {
         try {
-          return await (await changeSets()).applyChangeSet(db, plan, choices, clock, source);
+          return await (await changeSets()).applyChangeSet(db, plan, choices, ctx, clock, source);
         } catch (error) {
           throw explainStorageError(error, 'The import');
         }

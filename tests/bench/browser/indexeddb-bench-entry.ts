@@ -95,7 +95,8 @@ export async function runIndexedDbBench() {
   sample();
   const plan = await previewChangeSet(target, changeSet.records);
   sample();
-  await applyChangeSet(target, plan, {}, new HybridClock('bench'), {
+  const writer = { deviceId: 'bench', now: () => new Date(), newId: () => crypto.randomUUID() };
+  await applyChangeSet(target, plan, {}, writer, new HybridClock('bench'), {
     deviceId: 'bench',
     name: 'bench',
     at: header.exportedAt

@@ -1,0 +1,499 @@
+import { combineStudyData } from './combine-study-data';
+import { laterStamp } from './hybrid-clock';
+import {
+  KIND_LABEL,
+  PARENT_OF,
+  parentIdOf,
+  RECORD_KINDS,
+  type RecordKind,
+  type RecordsByKind
+} from './record-kinds';
+import type { IndexedRecord, RecordIndex } from './record-index';
+import {
+  compareEdits,
+  differingFields,
+  mergeRecord,
+  settleConflict,
+  type ConflictNature,
+  type ConflictRule,
+  type MergeDecision,
+  type MergeKind
+} from './record-merge';
+import {
+  clockOf,
+  isLive,
+  META_KEYS,
+  stampDeleted,
+  stampRestored,
+  stampUpdate,
+  travelling,
+  type Editable,
+  type RecordMeta,
+  type WriteContext
+} from './record-meta';
+import type { Study } from './study';
+import { studyMonthKey } from './study-month';
+
+/**
+ * Merging a change set into the records of one side — the one merge of Capstan: the app's import (through the
+ * database, storage/change-set-store.ts), the command line's `merge`, and the oracle of the property tests.
+ * `planMerge` works out, without writing, what every record would become and which conflicts a person must
+ * settle; `settleMerge` turns the plan and the person's choices into the records to write.
+ *
+ * Beyond the merge of each record by its version vector (record-merge.ts), a change set is merged as a whole
+ * under three rules (README, "How files merge"):
+ * 1. **One live study per characteristic and month.** A live study arriving for a month that already has a
+ *    different live study is a conflict (`same-month`): keep this side's, take the file's, or combine both
+ *    exactly (the study with the lower id keeps the pooled data, so two devices that combine agree).
+ * 2. **No record outlives its parent.** A parent deleted on one side while the other side edited it or has live
+ *    records under it is one conflict for the whole family (`family`), counting the records at stake. Whatever
+ *    is chosen, the family ends consistent: a parent that stays live brings back the records deleted with it
+ *    (same deletion time), a parent that ends deleted takes every live record under it along.
+ * 3. **Settling writes.** Where a choice needs a record to change beyond picking a version (a study set aside,
+ *    a parent brought back), this side writes it as a new revision, so the outcome travels and supersedes both.
+ */
+export type ConflictChoice = 'local' | 'incoming' | 'combine';
+
+export type FamilyNature = 'deleted-here' | 'deleted-there';
+
+export interface MergeConflict {
+  /** Key of the choice: the record id, or `month:<characteristic>|<period>` for a same-month conflict. */
+  key: string;
+  type: 'record' | 'family' | 'same-month';
+  kind: RecordKind;
+  nature: ConflictNature | 'same-month';
+  /** This side's version (for same-month: this side's study of the month). */
+  local?: RecordMeta;
+  /** The file's version (for same-month: the file's study of the month); absent when the file does not hold it. */
+  incoming?: RecordMeta;
+  /** Top-level fields that differ (record conflicts). */
+  fields?: string[];
+  /** Family: live records under the parent that deleting it removes, by kind. */
+  atStake?: Partial<Record<RecordKind, number>>;
+  /** Family: records deleted together with the parent that keeping it brings back, by kind. */
+  deletedWith?: Partial<Record<RecordKind, number>>;
+  /** Same-month: whether the two studies can be pooled exactly (same data family, same opportunities). */
+  canCombine?: boolean;
+  /** The per-record decision behind a record or family conflict, when the vectors gave one. */
+  decision?: MergeDecision<RecordMeta>;
+  /** Family: delete-vs-edit conflicts of records inside it, settled by the family's choice. */
+  absorbed?: { kind: RecordKind; decision: MergeDecision<RecordMeta> }[];
+}
+
+const isDeleteVsEdit = (c: Pick<MergeConflict, 'nature'>) =>
+  c.nature === 'deleted-here' || c.nature === 'deleted-there';
+
+/** The side of a delete-vs-edit decision that holds the live version. */
+function liveSideOf(d: MergeDecision<RecordMeta>): 'local' | 'incoming' {
+  return d.local && isLive(d.local) ? 'local' : 'incoming';
+}
+
+export interface MergePlan {
+  /** Every per-record decision that writes or asks (unchanged records are only counted). */
+  decisions: { kind: RecordKind; decision: MergeDecision<RecordMeta> }[];
+  counts: Record<MergeKind, number>;
+  countsByKind: Record<RecordKind, Record<MergeKind, number>>;
+  conflicts: MergeConflict[];
+  /** Things worth knowing that do not stop the merge (records whose parent has not arrived yet). */
+  warnings: string[];
+  /** Latest clock stamp in the change set, for this device's clock. */
+  latestStamp?: string;
+  /** The file's version of each record it holds, by id (for settling and for the consistency pass). */
+  incoming: Map<string, IndexedRecord>;
+}
+
+export interface MergeChoices {
+  /** One rule for every conflict not picked one by one. */
+  rule?: ConflictRule;
+  perConflict?: Record<string, ConflictChoice>;
+}
+
+/** The merge cannot go ahead at all (nothing is written). */
+export class MergeRefused extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'MergeRefused';
+  }
+}
+
+const zeroCounts = (): Record<MergeKind, number> => ({
+  new: 0,
+  updated: 0,
+  deleted: 0,
+  unchanged: 0,
+  conflict: 0
+});
+
+const PARENT_KINDS: RecordKind[] = ['sites', 'processes', 'characteristics'];
+
+function tally(records: readonly IndexedRecord[]): Partial<Record<RecordKind, number>> {
+  const out: Partial<Record<RecordKind, number>> = {};
+  for (const r of records) out[r.kind] = (out[r.kind] ?? 0) + 1;
+  return out;
+}
+
+/** Whether two studies of one month can be pooled exactly into one. */
+export function canCombineStudies(a: Study, b: Study): boolean {
+  try {
+    combineStudyData(a.data, b.data);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+export function monthConflictKey(study: Pick<Study, 'characteristicId' | 'period'>): string {
+  return `month:${studyMonthKey(study)}`;
+}
+
+/** Every ancestor id of a record in `index`, nearest first. */
+function ancestorsOf(index: RecordIndex, kind: RecordKind, record: RecordMeta): string[] {
+  const out: string[] = [];
+  let k: RecordKind = kind;
+  let r: RecordMeta | undefined = record;
+  while (r && PARENT_OF[k]) {
+    const parentId = parentIdOf(k, r);
+    if (parentId === undefined) break;
+    out.push(parentId);
+    k = PARENT_OF[k]!.kind;
+    r = index.record(parentId);
+  }
+  return out;
+}
+
+/** Works out, without writing anything, what merging `incoming` into `local` does (see the module note). */
+export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePlan {
+  const plan: MergePlan = {
+    decisions: [],
+    counts: zeroCounts(),
+    countsByKind: Object.fromEntries(RECORD_KINDS.map((k) => [k, zeroCounts()])) as MergePlan['countsByKind'],
+    conflicts: [],
+    warnings: [],
+    incoming: new Map()
+  };
+  const planned = local.copy();
+  const recordConflicts = new Map<string, MergeConflict>();
+  for (const kind of RECORD_KINDS) {
+    for (const record of incoming[kind] as RecordMeta[]) {
+      const here = local.get(record.id);
+      if (here && here.kind !== kind) {
+        throw new MergeRefused(
+          `${KIND_LABEL[kind]} ${record.id} in the file is a ${KIND_LABEL[here.kind]} on this device: the file is not consistent with this data`
+        );
+      }
+      plan.incoming.set(record.id, { kind, record });
+      const decision = mergeRecord(here?.record, record);
+      plan.counts[decision.kind] += 1;
+      plan.countsByKind[kind][decision.kind] += 1;
+      plan.latestStamp = laterStamp(plan.latestStamp, clockOf(record));
+      if (decision.kind === 'unchanged') continue;
+      plan.decisions.push({ kind, decision });
+      if (decision.kind === 'conflict') {
+        const c: MergeConflict = {
+          key: record.id,
+          type: 'record',
+          kind,
+          nature: decision.nature!,
+          ...(decision.local ? { local: decision.local } : {}),
+          incoming: decision.incoming,
+          fields: decision.fields ?? [],
+          decision
+        };
+        recordConflicts.set(record.id, c);
+      } else if (decision.write) {
+        planned.set(kind, decision.write);
+      }
+    }
+  }
+
+  // Families: parents deleted on one side whose edit, or records under them, live on the other. Top-down,
+  // and only the topmost such parent of a family is asked about; the delete-vs-edit conflicts of records
+  // inside it follow its choice.
+  const candidates = new Set<string>();
+  for (const { kind, record } of plan.incoming.values()) {
+    if (PARENT_KINDS.includes(kind)) candidates.add(record.id);
+    const parent = parentIdOf(kind, record);
+    if (parent !== undefined) candidates.add(parent);
+  }
+  const families = new Map<string, MergeConflict>();
+  const inFamily = (kind: RecordKind, r: RecordMeta) =>
+    ancestorsOf(planned, kind, r).some((a) => families.has(a));
+  for (const parentKind of PARENT_KINDS) {
+    for (const id of candidates) {
+      const p = planned.get(id);
+      if (!p || p.kind !== parentKind || inFamily(parentKind, p.record)) continue;
+      const rc = recordConflicts.get(id);
+      const descendants = planned.descendantsOf(parentKind, id);
+      const absorbed = descendants.flatMap((d) => {
+        const c = recordConflicts.get(d.record.id);
+        return c && isDeleteVsEdit(c) ? [c] : [];
+      });
+      const stake = descendants.filter(
+        (d) => isLive(d.record) || absorbed.some((c) => c.key === d.record.id)
+      );
+      if (!(rc && isDeleteVsEdit(rc)) && (isLive(p.record) || stake.length === 0)) continue;
+      const here = local.record(id);
+      const there = plan.incoming.get(id)?.record;
+      const nature: FamilyNature =
+        rc && isDeleteVsEdit(rc)
+          ? (rc.nature as FamilyNature)
+          : here && isLive(here)
+            ? 'deleted-there'
+            : 'deleted-here';
+      const tombstone = nature === 'deleted-there' ? there : here;
+      const deletedWith = descendants.filter(
+        (d) =>
+          !stake.includes(d) &&
+          !isLive(d.record) &&
+          tombstone?.deletedAt !== undefined &&
+          d.record.deletedAt === tombstone.deletedAt
+      );
+      families.set(id, {
+        key: id,
+        type: 'family',
+        kind: parentKind,
+        nature,
+        ...(here ? { local: here } : {}),
+        ...(there ? { incoming: there } : {}),
+        fields: rc?.fields ?? ['deleted'],
+        atStake: tally(stake),
+        deletedWith: tally(deletedWith),
+        absorbed: absorbed.map((c) => ({ kind: c.kind, decision: c.decision! })),
+        ...(rc?.decision ? { decision: rc.decision } : {})
+      });
+      recordConflicts.delete(id);
+      for (const c of absorbed) recordConflicts.delete(c.key);
+    }
+  }
+
+  // One live study per characteristic and month.
+  const months: MergeConflict[] = [];
+  const seenMonths = new Set<string>();
+  for (const record of incoming.studies) {
+    const now = planned.record(record.id) as Study | undefined;
+    if (!now || !isLive(now) || seenMonths.has(studyMonthKey(now))) continue;
+    const other = planned
+      .studiesOfMonth(now.characteristicId, now.period)
+      .find((s) => s.id !== now.id && isLive(s));
+    if (!other) continue;
+    seenMonths.add(studyMonthKey(now));
+    months.push({
+      key: monthConflictKey(now),
+      type: 'same-month',
+      kind: 'studies',
+      nature: 'same-month',
+      local: other,
+      incoming: now,
+      fields: differingFields(other, now),
+      canCombine: canCombineStudies(other, now)
+    });
+  }
+
+  plan.conflicts = [...families.values(), ...recordConflicts.values(), ...months];
+  plan.counts.conflict = plan.conflicts.length;
+
+  const missing = new Map<RecordKind, number>();
+  for (const { kind, record } of plan.incoming.values()) {
+    const parent = parentIdOf(kind, record);
+    if (parent === undefined || !isLive(record) || planned.get(parent)) continue;
+    missing.set(kind, (missing.get(kind) ?? 0) + 1);
+  }
+  for (const [kind, n] of missing) {
+    plan.warnings.push(
+      `${n} ${KIND_LABEL[kind]} record(s) refer to a ${KIND_LABEL[PARENT_OF[kind]!.kind]} that is neither in the file nor on this device; they are kept and appear once that record arrives (import the earlier file from that device).`
+    );
+  }
+  return plan;
+}
+
+/** A record without its bookkeeping: the fields an edit may carry over (unknown fields included). */
+function editableOf<T extends RecordMeta>(record: T): Editable<T> {
+  const out = { ...record } as Record<string, unknown>;
+  for (const key of META_KEYS) delete out[key];
+  return out as Editable<T>;
+}
+
+/** Conflicts not settled by a per-conflict choice or a rule. */
+export function unsettledConflicts(plan: MergePlan, choices: MergeChoices): MergeConflict[] {
+  return plan.conflicts.filter((c) => !choices.perConflict?.[c.key] && !choices.rule);
+}
+
+/**
+ * Which of the family's outcomes the rule "newer edit wins" gives: keep the parent when any edit at stake —
+ * the parent's own live version, a live record under it, or the live side of a conflict inside it — is newer
+ * than the deletion. Both sides see the same edits and the same deletion, so both decide alike.
+ */
+function familyKeepsByNewer(c: MergeConflict, planned: RecordIndex): boolean {
+  const tombstone = c.nature === 'deleted-there' ? c.incoming : c.local;
+  if (!tombstone) return true;
+  const edits: RecordMeta[] = planned
+    .descendantsOf(c.kind, c.key)
+    .filter((d) => isLive(d.record))
+    .map((d) => d.record);
+  for (const { decision } of c.absorbed ?? []) {
+    const live = liveSideOf(decision) === 'local' ? decision.local : decision.incoming;
+    if (live) edits.push(live);
+  }
+  for (const v of [c.local, c.incoming]) if (v && isLive(v)) edits.push(v);
+  return edits.some((e) => compareEdits(e, tombstone) > 0);
+}
+
+/**
+ * The records to write for a plan and the choices made: each chosen version, plus the revisions this side
+ * writes to settle (studies set aside or combined, parents brought back, records deleted with their parent).
+ * Pure and deterministic for a given `ctx`. Throws MergeRefused when a conflict is left unsettled.
+ */
+export function settleMerge(
+  local: RecordIndex,
+  plan: MergePlan,
+  choices: MergeChoices,
+  ctx: WriteContext
+): IndexedRecord[] {
+  const open = unsettledConflicts(plan, choices);
+  if (open.length > 0) {
+    throw new MergeRefused(
+      `${open.length} conflict(s) are not settled yet: choose a version for each, or a rule`
+    );
+  }
+  const work = local.copy();
+  const written = new Map<string, RecordKind>();
+  const put = (kind: RecordKind, record: RecordMeta) => {
+    work.set(kind, record);
+    written.set(record.id, kind);
+  };
+  const current = (id: string) => work.record(id)!;
+  const deletedAt = (at: string): WriteContext => ({ ...ctx, now: () => new Date(at) });
+
+  for (const { kind, decision } of plan.decisions) {
+    if (decision.kind !== 'conflict' && decision.write) put(kind, decision.write);
+  }
+  const familyParents: string[] = [];
+  for (const c of plan.conflicts) {
+    const pick = choices.perConflict?.[c.key];
+    const rule = choices.rule ?? 'newer';
+    if (c.type === 'record') {
+      const side = pick === 'local' || pick === 'incoming' ? pick : rule;
+      put(c.kind, settleConflict(c.decision!, side));
+    } else if (c.type === 'family') {
+      const keep =
+        pick !== undefined && pick !== 'combine'
+          ? (pick === 'local') === (c.nature === 'deleted-there')
+          : rule === 'newer'
+            ? familyKeepsByNewer(c, work)
+            : (rule === 'local') === (c.nature === 'deleted-there');
+      const liveSide = c.nature === 'deleted-there' ? 'local' : 'incoming';
+      const deadSide = liveSide === 'local' ? 'incoming' : 'local';
+      if (c.decision) put(c.kind, settleConflict(c.decision, keep ? liveSide : deadSide));
+      else if (keep && !isLive(current(c.key))) put(c.kind, stampRestored(current(c.key), ctx));
+      for (const { kind, decision } of c.absorbed ?? []) {
+        const live = liveSideOf(decision);
+        put(kind, settleConflict(decision, keep ? live : live === 'local' ? 'incoming' : 'local'));
+      }
+      familyParents.push(c.key);
+    } else {
+      const here = c.local as Study;
+      const there = c.incoming as Study;
+      const choice: ConflictChoice | 'newer' =
+        pick ?? (rule === 'newer' ? 'newer' : rule === 'local' ? 'local' : 'incoming');
+      if (choice === 'combine') {
+        if (!c.canCombine)
+          throw new MergeRefused(
+            `The two studies of ${there.period} cannot be combined: ${here.data.kind} and ${there.data.kind} data do not pool`
+          );
+        const [first, second] = [current(here.id), current(there.id)].sort((a, b) =>
+          a.id < b.id ? -1 : 1
+        ) as [Study, Study];
+        const data = combineStudyData(first.data, second.data);
+        put('studies', stampUpdate(first, { ...editableOf(first), data } as Editable<Study>, ctx));
+        put('studies', stampDeleted(second, ctx));
+      } else {
+        // Ties between two different studies fall to the lower id, so both sides decide alike.
+        const order = compareEdits(here, there) || (here.id < there.id ? 1 : -1);
+        const keepHere = choice === 'newer' ? order > 0 : choice === 'local';
+        const loser = keepHere ? there : here;
+        put('studies', stampDeleted(current(loser.id), ctx));
+      }
+    }
+  }
+
+  // Consistency of families: top-down over every parent this merge touched.
+  const touched = new Set<string>(familyParents);
+  for (const [id, kind] of written) {
+    if (PARENT_OF[kind]) touched.add(parentIdOf(kind, current(id))!);
+    touched.add(id);
+  }
+  const restoreUnder = (kind: RecordKind, id: string, instants: Set<string>) => {
+    for (const child of work.childrenOf(kind, id)) {
+      const r = child.record;
+      if (!isLive(r) && r.deletedAt !== undefined && instants.has(r.deletedAt)) {
+        put(child.kind, stampRestored(r, ctx));
+      }
+      if (isLive(current(r.id))) restoreUnder(child.kind, r.id, instants);
+    }
+  };
+  const deleteUnder = (kind: RecordKind, id: string, at: string) => {
+    for (const child of work.childrenOf(kind, id)) {
+      if (isLive(child.record)) put(child.kind, stampDeleted(child.record, deletedAt(at)));
+      deleteUnder(child.kind, child.record.id, at);
+    }
+  };
+  for (const parentKind of PARENT_KINDS) {
+    for (const id of touched) {
+      const p = work.get(id);
+      if (!p || p.kind !== parentKind) continue;
+      const now = p.record;
+      if (!isLive(now)) {
+        deleteUnder(parentKind, id, now.deletedAt!);
+        continue;
+      }
+      const instants = new Set<string>();
+      for (const v of [local.record(id), plan.incoming.get(id)?.record]) {
+        if (v?.deletedAt !== undefined) instants.add(v.deletedAt);
+      }
+      if (instants.size > 0) restoreUnder(parentKind, id, instants);
+    }
+  }
+
+  const out: IndexedRecord[] = [];
+  for (const [id, kind] of written) out.push({ kind, record: current(id) });
+  assertConsistent(work, out);
+  return out;
+}
+
+/**
+ * The invariants every settled merge keeps, checked on what it writes: no live record under a deleted or
+ * missing-but-known parent, and no second live study in a month. A failure here is a bug, never a user error;
+ * nothing is written.
+ */
+function assertConsistent(work: RecordIndex, writes: readonly IndexedRecord[]): void {
+  for (const { kind, record } of writes) {
+    if (!isLive(record)) continue;
+    const parentId = parentIdOf(kind, record);
+    const parent = parentId === undefined ? undefined : work.record(parentId);
+    if (parent && !isLive(parent)) {
+      throw new MergeRefused(
+        `Merging would leave ${KIND_LABEL[kind]} ${record.id} under a deleted ${KIND_LABEL[PARENT_OF[kind]!.kind]}; nothing was written (please report this)`
+      );
+    }
+    if (kind === 'studies') {
+      const s = record as Study;
+      const live = work.studiesOfMonth(s.characteristicId, s.period).filter(isLive);
+      if (live.length > 1) {
+        throw new MergeRefused(
+          `Merging would leave two live studies for ${s.period}; nothing was written — preview the file again`
+        );
+      }
+    }
+  }
+}
+
+/** A whole record set merged with another (the command line's files): records only in `base` stay. */
+export function mergedRecordSet(index: RecordIndex): RecordsByKind {
+  const out = Object.fromEntries(RECORD_KINDS.map((k) => [k, [] as RecordMeta[]])) as unknown as Record<
+    RecordKind,
+    RecordMeta[]
+  >;
+  for (const { kind, record } of index.values()) out[kind].push(travelling(record));
+  for (const kind of RECORD_KINDS) out[kind].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  return out as unknown as RecordsByKind;
+}
