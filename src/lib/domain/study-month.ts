@@ -1,3 +1,4 @@
+import { compareEdits } from './record-merge';
 import { isLive } from './record-meta';
 import type { Study } from './study';
 
@@ -25,4 +26,25 @@ export function liveMonthClashes<T extends Study>(studies: Iterable<T>): T[][] {
     if (list.length > 1) out.push(list.sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)));
   }
   return out;
+}
+
+/**
+ * Live studies with at most one per characteristic and month: where a month still holds two (a pending conflict
+ * from before one study per month was enforced), the more recently edited one stands in until a person settles
+ * it. Figures never pool two studies of one month.
+ */
+export function onePerMonth<T extends Study>(studies: readonly T[]): T[] {
+  const byKey = new Map<string, T>();
+  let clash = false;
+  for (const s of studies) {
+    if (!isLive(s)) continue;
+    const key = studyMonthKey(s);
+    const other = byKey.get(key);
+    if (other === undefined) byKey.set(key, s);
+    else {
+      clash = true;
+      if (compareEdits(s, other) > 0 || (compareEdits(s, other) === 0 && s.id < other.id)) byKey.set(key, s);
+    }
+  }
+  return clash ? [...byKey.values()] : studies.filter(isLive);
 }

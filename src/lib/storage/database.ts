@@ -34,6 +34,17 @@ export interface StudyRevision {
   study: Study;
 }
 
+/**
+ * A month of one characteristic that holds two or more live studies from before schema v7 (see
+ * schema-versions.ts): a pending conflict, device-local, until a person settles it.
+ */
+export interface MonthClash {
+  /** `characteristicId|period` (domain/study-month.ts). */
+  key: string;
+  studyIds: string[];
+  detectedAt: string;
+}
+
 export const DEFAULT_DATABASE_NAME = 'capstan';
 
 /**
@@ -52,6 +63,7 @@ export class CapstanDatabase extends Dexie {
   studyRevisions!: Table<StudyRevision, string>;
   contextProfiles!: Table<ContextProfileRecord, string>;
   reviews!: Table<QuarterReviewRecord, string>;
+  monthClashes!: Table<MonthClash, string>;
 
   /** This device's write sequence (see local-sequence.ts); resumes above the highest stored value on open. */
   readonly sequence = new LocalSequence();

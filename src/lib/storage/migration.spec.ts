@@ -8,7 +8,8 @@ import {
   SCHEMA_V2,
   SCHEMA_V3,
   SCHEMA_V4,
-  SCHEMA_V5
+  SCHEMA_V5,
+  SCHEMA_V6
 } from './schema-versions';
 
 /**
@@ -227,9 +228,59 @@ describe('schema upgrade v5 → v6', () => {
     v5.close();
     const current = new CapstanDatabase(name);
     await current.open();
-    expect(current.verno).toBe(6);
+    expect(current.verno).toBe(7);
     expect(await current.sites.get(site.id)).toEqual(site);
     expect(await current.reviews.count()).toBe(0);
+    current.close();
+    await Dexie.delete(name);
+  });
+});
+
+describe('schema upgrade v6 → v7', () => {
+  it('turns two live studies of one month into a pending conflict and drops neither', async () => {
+    const name = 'capstan-migration-v7';
+    const v6 = new Dexie(name);
+    v6.version(1).stores(SCHEMA_V1);
+    v6.version(2).stores(SCHEMA_V2);
+    v6.version(3).stores(SCHEMA_V3);
+    v6.version(4).stores(SCHEMA_V4);
+    v6.version(5).stores(SCHEMA_V5);
+    v6.version(6).stores(SCHEMA_V6);
+    await v6.open();
+    const study = (id: string, deviceId: string, mean: number, deletedAt?: string) => ({
+      id,
+      createdAt: '2026-03-04T00:00:00.000Z',
+      updatedAt: '2026-03-04T00:00:00.000Z',
+      rev: 1,
+      deviceId,
+      vv: { [deviceId]: 1 },
+      clock: `1772582400000-0000-${deviceId}`,
+      localSeq: 1,
+      characteristicId: '11111111-1111-4111-8111-111111111111',
+      period: '2026-02',
+      data: { kind: 'summary', n: 30, mean, sd: 1 },
+      enteredBy: deviceId,
+      ...(deletedAt ? { deletedAt } : {})
+    });
+    const rows = [
+      study('aaaaaaaa-0000-4000-8000-000000000001', 'site-lead', 10.1),
+      study('aaaaaaaa-0000-4000-8000-000000000002', 'office', 10.3),
+      study('aaaaaaaa-0000-4000-8000-000000000003', 'office', 9.9, '2026-03-05T00:00:00.000Z')
+    ];
+    await v6.table('studies').bulkAdd(rows);
+    v6.close();
+    const current = new CapstanDatabase(name);
+    await current.open();
+    expect(current.verno).toBe(7);
+    expect(await current.studies.count()).toBe(3);
+    for (const r of rows) expect(await current.studies.get(r.id)).toEqual(r);
+    expect(await current.monthClashes.toArray()).toEqual([
+      {
+        key: '11111111-1111-4111-8111-111111111111|2026-02',
+        studyIds: ['aaaaaaaa-0000-4000-8000-000000000001', 'aaaaaaaa-0000-4000-8000-000000000002'],
+        detectedAt: expect.any(String)
+      }
+    ]);
     current.close();
     await Dexie.delete(name);
   });

@@ -1,3 +1,4 @@
+import { onePerMonth } from '../domain/study-month';
 import type { Characteristic } from '../domain/characteristic';
 import type { ImprovementProject } from '../domain/improvement-project';
 import type { Process } from '../domain/process';
@@ -102,12 +103,12 @@ export async function loadProcessDetail(
   const withStudies = await Promise.all(
     characteristics.map(async (characteristic) => ({
       characteristic,
-      studies: (
+      studies: onePerMonth(
         await db.studies
           .where('[characteristicId+period]')
           .between([characteristic.id, ''], [characteristic.id, '\uffff'])
           .toArray()
-      ).filter(isLive)
+      )
     }))
   );
   const projects = (await db.projects.where('processId').equals(processId).toArray()).filter(isLive);
@@ -165,7 +166,7 @@ export async function loadPortfolioRecords(db: CapstanDatabase) {
     sites: sites.filter(isLive),
     processes: processes.filter(isLive),
     characteristics: characteristics.filter(isLive),
-    studies: studies.filter(isLive),
+    studies: onePerMonth(studies),
     projects: projects.filter(isLive)
   };
 }

@@ -86,7 +86,36 @@ export const SCHEMA_V6 = {
   reviews: 'id, quarter, updatedAt, localSeq'
 } as const;
 
-export const CURRENT_SCHEMA_VERSION = 6;
+/**
+ * v7: one live study per characteristic and month. Before v7 a month logged on two devices could arrive as two
+ * live studies. The upgrade keeps both and records each such month in the device-local table `monthClashes`
+ * (a pending conflict): a person chooses which study to keep, or combines them, on the File exchange page;
+ * until then the figures use the more recently edited of the two (never both pooled).
+ */
+export const SCHEMA_V7 = {
+  monthClashes: 'key, detectedAt'
+} as const;
+
+export async function upgradeToV7(tx: Transaction): Promise<void> {
+  const byMonth = new Map<string, string[]>();
+  await tx
+    .table('studies')
+    .toCollection()
+    .each((s: { id: string; characteristicId: string; period: string; deletedAt?: string }) => {
+      if (s.deletedAt !== undefined) return;
+      const key = `${s.characteristicId}|${s.period}`;
+      const list = byMonth.get(key);
+      if (list) list.push(s.id);
+      else byMonth.set(key, [s.id]);
+    });
+  const detectedAt = new Date().toISOString();
+  const rows = [...byMonth]
+    .filter(([, ids]) => ids.length > 1)
+    .map(([key, ids]) => ({ key, studyIds: ids.sort(), detectedAt }));
+  if (rows.length > 0) await tx.table('monthClashes').bulkPut(rows);
+}
+
+export const CURRENT_SCHEMA_VERSION = 7;
 
 /** Declares all versions on a database instance, in order. */
 export function declareSchemaVersions(db: Dexie): void {
@@ -96,4 +125,5 @@ export function declareSchemaVersions(db: Dexie): void {
   db.version(4).stores(SCHEMA_V4);
   db.version(5).stores(SCHEMA_V5).upgrade(upgradeToV5);
   db.version(6).stores(SCHEMA_V6);
+  db.version(7).stores(SCHEMA_V7).upgrade(upgradeToV7);
 }

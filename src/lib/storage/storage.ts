@@ -8,19 +8,14 @@ import type { HybridClock } from '../domain/hybrid-clock';
 import type { RecordsByKind } from '../domain/record-kinds';
 import { loadBackupStatus, type BackupStatus } from './backup-status';
 import type { MergeChoices } from '../domain/change-set-merge';
-import type {
-  CollectedChanges,
-  ExportScope,
-  ImportPlan,
-  ImportResult,
-  PeerRecord
-} from './change-set-store';
+import type { CollectedChanges, ExportScope, ImportPlan, ImportResult, PeerRecord } from './change-set-store';
 import { loadClock, loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
 import { ContextProfileRepository } from './context-profile-repository';
 import { EntryDraftRepository } from './entry-draft-repository';
 import { createImprovementProjectRepository } from './improvement-project-repository';
 import { createProcessRepository } from './process-repository';
 import type { RecordRepository } from './record-repository';
+import { MonthClashRepository } from './month-clash-repository';
 import { QuarterReviewRepository } from './quarter-review-repository';
 import { CURRENT_SCHEMA_VERSION } from './schema-versions';
 import { BLOCKED_MESSAGE, explainOpenError, explainStorageError } from './storage-errors';
@@ -51,6 +46,8 @@ export interface CapstanStorage {
   readonly drafts: EntryDraftRepository;
   readonly profiles: ContextProfileRepository;
   readonly reviews: QuarterReviewRepository;
+  /** Months holding two live studies from before schema v7, waiting for a person (pending conflicts). */
+  readonly monthClashes: MonthClashRepository;
   /** Read models for the pages; each is safe to run inside a live query. */
   readonly read: {
     processOverviews(): Promise<ProcessOverview[]>;
@@ -141,6 +138,7 @@ export async function openStorage(
     drafts: new EntryDraftRepository(db),
     profiles: new ContextProfileRepository(db, ctx),
     reviews: new QuarterReviewRepository(db, ctx),
+    monthClashes: new MonthClashRepository(db, ctx),
     read: {
       processOverviews: () => listProcessOverviews(db),
       portfolioRecords: () => loadPortfolioRecords(db),
