@@ -7,6 +7,7 @@ import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 import { prepareExport } from '../../src/lib/exchange/export-change-set';
 import { explainStorageError, StorageProblem } from '../../src/lib/storage/storage-errors';
 import { openStorage, type CapstanStorage } from '../../src/lib/storage/storage';
+import { CURRENT_SCHEMA_VERSION } from '../../src/lib/storage/schema-versions';
 
 /**
  * Faults a browser database really meets, under fake-indexeddb: a full disk during an import or a save, an
@@ -90,7 +91,7 @@ describe('storage faults', () => {
       .logOne(
         {
           characteristicId: characteristic.id,
-          period: '2027-01',
+          period: '2020-01',
           data: { kind: 'summary', n: 30, mean: 1, sd: 0.1 },
           enteredBy: 'test'
         },
@@ -141,6 +142,6 @@ describe('storage faults', () => {
     old.close();
     const storage = await opening;
     opened.push(storage);
-    expect(storage.db.verno).toBe(6);
+    expect(storage.db.verno).toBe(CURRENT_SCHEMA_VERSION);
   });
 });

@@ -52,3 +52,32 @@ export function periodsOfQuarter(quarter: string): Period[] {
   const first = `${match[1]}-${String((Number(match[2]) - 1) * 3 + 1).padStart(2, '0')}`;
   return [first, addMonths(first, 1), addMonths(first, 2)];
 }
+
+/** The calendar month it is now in a time zone (IANA name), as `YYYY-MM`. */
+export function currentPeriodIn(timeZone: string, nowMs: number = Date.now()): Period {
+  const parts = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit' }).formatToParts(
+    new Date(nowMs)
+  );
+  const year = parts.find((p) => p.type === 'year')?.value ?? '1970';
+  const month = parts.find((p) => p.type === 'month')?.value ?? '01';
+  return `${year}-${month}`;
+}
+
+/** The last month that has ended (UTC): where a portfolio's window ends unless a person picks another. */
+export function lastCompletePeriod(nowMs: number = Date.now()): Period {
+  return addMonths(periodOf(new Date(nowMs)), -1);
+}
+
+/**
+ * Why a month cannot be logged yet at a site, or undefined: a month is logged once it has begun in the site's
+ * own time zone (the current month may be logged as it goes; later ones cannot).
+ */
+export function futurePeriodProblem(
+  period: Period,
+  site: { name: string; timeZone: string },
+  nowMs: number = Date.now()
+): string | undefined {
+  const current = currentPeriodIn(site.timeZone, nowMs);
+  if (period <= current) return undefined;
+  return `${period} has not begun yet at ${site.name} (it is ${current} there, ${site.timeZone}); a month is logged once it has started`;
+}

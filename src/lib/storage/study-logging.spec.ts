@@ -1,5 +1,6 @@
 import 'fake-indexeddb/auto';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { addMonths, currentPeriodIn, futurePeriodProblem } from '../domain/period';
 import type { SummaryData } from '../domain/study';
 import { ValidationError } from '../domain/validation-error';
 import { EntryDraftRepository } from './entry-draft-repository';
@@ -58,6 +59,25 @@ const summary = (mean: number, sd = 0.2, nn = 30) => ({
 });
 
 describe('logging a month', () => {
+  it('refuses a month that has not begun at the site, and writes nothing', async () => {
+    const next = addMonths(currentPeriodIn('UTC'), 1);
+    await expect(storage.studies.logOne({ ...summary(10), period: next }, 'new')).rejects.toThrow(
+      new RegExp(`${next} has not begun yet at Plant \\(it is ${currentPeriodIn('UTC')} there, UTC\\)`)
+    );
+    expect(await storage.studies.forCharacteristic(charId)).toHaveLength(0);
+    // The month under way may be logged as it goes.
+    expect((await storage.studies.logOne({ ...summary(10), period: currentPeriodIn('UTC') }, 'new')).action).toBe(
+      'created'
+    );
+  });
+
+  it('judges "not begun" in the site\'s own time zone', () => {
+    // 2026-12-31 23:30 UTC is already January 2027 in Auckland, still December in Honolulu.
+    const at = Date.parse('2026-12-31T23:30:00Z');
+    expect(futurePeriodProblem('2027-01', { name: 'A', timeZone: 'Pacific/Auckland' }, at)).toBeUndefined();
+    expect(futurePeriodProblem('2027-01', { name: 'H', timeZone: 'Pacific/Honolulu' }, at)).toMatch(/not begun/);
+  });
+
   it('creates, then refuses a second entry unless told to replace or combine', async () => {
     expect((await storage.studies.logOne(summary(10), 'new')).action).toBe('created');
     await expect(storage.studies.logOne(summary(10.1), 'new')).rejects.toThrow(

@@ -1,5 +1,6 @@
 import type { Characteristic } from '../domain/characteristic';
 import { combineStudyData } from '../domain/combine-study-data';
+import { futurePeriodProblem } from '../domain/period';
 import {
   isLive,
   stampNew,
@@ -28,7 +29,10 @@ export interface LogOutcome {
   action: 'created' | 'replaced' | 'combined';
 }
 
-/** The live characteristic a study names, refusing one that is missing or of the other data kind. */
+/**
+ * The live characteristic a study names, refusing one that is missing or of the other data kind, and a month
+ * that has not begun yet at the characteristic's site (in the site's time zone).
+ */
 async function characteristicFor(d: CapstanDatabase, fields: StudyFields): Promise<Characteristic> {
   const characteristic = (await requireLive(
     d.characteristics,
@@ -38,6 +42,10 @@ async function characteristicFor(d: CapstanDatabase, fields: StudyFields): Promi
     'Characteristic'
   )) as Characteristic;
   assertStudyFitsCharacteristic(fields, characteristic);
+  const process = await d.processes.get(characteristic.processId);
+  const site = process ? await d.sites.get(process.siteId) : undefined;
+  const future = futurePeriodProblem(fields.period, site ?? { name: 'this site', timeZone: 'UTC' });
+  if (future) throw new ValidationError('Study', [{ field: 'period', message: future }]);
   return characteristic;
 }
 
@@ -61,7 +69,7 @@ export class StudyRepository extends RecordRepository<Study> {
       kind: 'Study',
       table: (d) => d.studies,
       parse: parseStudyFields,
-      relatedTables: (d) => [d.characteristics],
+      relatedTables: (d) => [d.characteristics, d.processes, d.sites],
       checkInTransaction: async (d, fields, existingId) => {
         const characteristic = await characteristicFor(d, fields);
         const sameMonth = await d.studies
@@ -118,7 +126,7 @@ export class StudyRepository extends RecordRepository<Study> {
       }
     });
     const d = this.db;
-    return d.transaction('rw', [d.studies, d.characteristics, d.studyRevisions], async () => {
+    return d.transaction('rw', [d.studies, d.characteristics, d.processes, d.sites, d.studyRevisions], async () => {
       const outcomes: LogOutcome[] = [];
       for (const fields of parsed) {
         const characteristic = await characteristicFor(d, fields);
