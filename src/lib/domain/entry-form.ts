@@ -1,4 +1,4 @@
-import type { DataKind } from './characteristic';
+import type { Characteristic, DataKind } from './characteristic';
 import type { FieldProblem } from './validation-error';
 import { parseLocaleNumber, type DecimalMark } from './locale-number';
 import { parsePastedValues } from './pasted-values';
@@ -19,6 +19,8 @@ export interface EntryForm {
   defects: string;
   opportunities: string;
   note: string;
+  /** The decimal mark of pasted values, once the person has said (empty: read it from the values). */
+  rawDecimal?: '' | '.' | ',';
 }
 
 export function emptyEntryForm(dataKind: DataKind): EntryForm {
@@ -41,6 +43,13 @@ export interface FormReading {
   problems: FieldProblem[];
   /** A line about what was read from pasted values ("40 values in 8 subgroups; header skipped"). */
   rawSummary?: string;
+  /**
+   * Pasted values whose decimal mark is open (`1,234`): the example and its two readings. The person chooses
+   * (form.rawDecimal) before the values are used.
+   */
+  askDecimal?: { example: string; withPoint: string; withComma: string };
+  /** The decimal mark the pasted values were read with. */
+  decimalMark?: '.' | ',';
 }
 
 function readNumber(
@@ -83,14 +92,33 @@ export function studyDataFromForm(form: EntryForm, decimal: DecimalMark = 'auto'
       return { data: { kind: 'summary', n, mean, sd }, problems };
     }
     case 'raw': {
-      const pasted = parsePastedValues(form.raw, decimal);
+      const localeMark = decimal === ',' ? ',' : '.';
+      const pasted = parsePastedValues(form.raw, form.rawDecimal || 'auto', localeMark);
+      if (pasted.decimal.ambiguous) {
+        const example = pasted.decimal.example ?? '';
+        const asPoint = parseLocaleNumber(example, '.');
+        const asComma = parseLocaleNumber(example, ',');
+        problems.push({
+          field: 'raw',
+          message: `'${example}' can be read two ways: say whether these values use a decimal point or a decimal comma`
+        });
+        return {
+          problems,
+          askDecimal: {
+            example,
+            withPoint: asPoint === undefined ? '—' : String(asPoint),
+            withComma: asComma === undefined ? '—' : String(asComma)
+          }
+        };
+      }
       for (const p of pasted.problems)
         problems.push({ field: 'raw', message: `line ${p.line}: ${p.message}` });
       if (pasted.values.length === 0 && problems.length === 0)
         problems.push({ field: 'raw', message: 'Type or paste the measured values' });
+      const decimalMark = pasted.decimal.mark;
       const groups = pasted.subgroups ? new Set(pasted.subgroups).size : 0;
       const rawSummary = `${pasted.values.length} value${pasted.values.length === 1 ? '' : 's'}${groups ? ` in ${groups} subgroups` : ''}${pasted.header ? `; header '${pasted.header.join(', ')}' skipped` : ''}`;
-      if (problems.length) return { problems, rawSummary };
+      if (problems.length) return { problems, rawSummary, decimalMark };
       return {
         data: {
           kind: 'raw',
@@ -98,7 +126,8 @@ export function studyDataFromForm(form: EntryForm, decimal: DecimalMark = 'auto'
           ...(pasted.subgroups ? { subgroups: pasted.subgroups } : {})
         },
         problems,
-        rawSummary
+        rawSummary,
+        decimalMark
       };
     }
     case 'defectives': {
@@ -150,4 +179,57 @@ export function studyDataFromForm(form: EntryForm, decimal: DecimalMark = 'auto'
       return { data: { kind: 'defects', units, defects, opportunitiesPerUnit: opportunities }, problems };
     }
   }
+}
+
+/** How far outside the limits a value must lie to be questioned: this many specification widths. */
+export const FAR_OUTSIDE_WIDTHS = 10;
+
+/**
+ * A question to ask before saving when the entered figures are implausible for the characteristic: values or a
+ * mean beyond its physical bounds, or further outside its limits than FAR_OUTSIDE_WIDTHS specification widths
+ * (a unit or decimal-mark slip, such as 0,213 read as 213). Undefined when nothing needs asking. The width is
+ * USL − LSL, or for one limit the distance to the target, or the limit's own size.
+ */
+export function implausibleEntry(
+  data: StudyData,
+  characteristic: Pick<Characteristic, 'lsl' | 'usl' | 'target' | 'physicalMin' | 'physicalMax' | 'unit'>
+): string | undefined {
+  let low: number;
+  let high: number;
+  let what: string;
+  if (data.kind === 'raw') {
+    low = Infinity;
+    high = -Infinity;
+    for (const v of data.values) {
+      if (v < low) low = v;
+      if (v > high) high = v;
+    }
+    what = `values from ${low} to ${high}`;
+  } else if (data.kind === 'summary') {
+    low = high = data.mean;
+    what = `a mean of ${data.mean}`;
+  } else return undefined;
+  const unit = characteristic.unit ? ` ${characteristic.unit}` : '';
+  const { lsl, usl, target, physicalMin, physicalMax } = characteristic;
+  if (physicalMin !== undefined && low < physicalMin)
+    return `These are ${what}${unit}, below the physical minimum of ${physicalMin}${unit}: check the unit and the decimal mark.`;
+  if (physicalMax !== undefined && high > physicalMax)
+    return `These are ${what}${unit}, above the physical maximum of ${physicalMax}${unit}: check the unit and the decimal mark.`;
+  const width =
+    lsl !== undefined && usl !== undefined
+      ? usl - lsl
+      : target !== undefined && (lsl ?? usl) !== undefined
+        ? Math.abs((lsl ?? usl)! - target)
+        : Math.abs(lsl ?? usl ?? 0) || 1;
+  const margin = FAR_OUTSIDE_WIDTHS * width;
+  const limits = `LSL ${lsl ?? '–'}, USL ${usl ?? '–'}`;
+  if (
+    (lsl !== undefined && low < lsl - margin) ||
+    (usl !== undefined && high > usl + margin) ||
+    (lsl === undefined && usl !== undefined && low < usl - margin * 10) ||
+    (usl === undefined && lsl !== undefined && high > lsl + margin * 10)
+  ) {
+    return `These are ${what}${unit}, far outside the limits (${limits}${unit}): check the unit and the decimal mark.`;
+  }
+  return undefined;
 }

@@ -28,9 +28,10 @@ export function parseLocaleNumber(text: string, decimal: DecimalMark = 'auto'): 
   else mark = '.';
   const group = mark === '.' ? ',' : '.';
   if (s.includes(group)) {
-    // Grouping separators must sit between groups of three digits before the decimal mark.
+    // Grouping separators must sit between groups of three digits before the decimal mark, after a lead
+    // group that does not start with 0 (`0,213` is never 213).
     const intPart = s.split(mark)[0] ?? '';
-    if (!new RegExp(`^-?\\d{1,3}(\\${group}\\d{3})+$`).test(intPart)) return undefined;
+    if (!new RegExp(`^-?[1-9]\\d{0,2}(\\${group}\\d{3})+$`).test(intPart)) return undefined;
     s = s.split(group).join('');
   }
   if (mark === ',') s = s.replace(',', '.');

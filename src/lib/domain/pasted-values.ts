@@ -1,3 +1,4 @@
+import { inferDecimalMark, type DecimalMarkReading } from './decimal-mark';
 import { parseLocaleNumber, type DecimalMark } from './locale-number';
 
 /**
@@ -5,6 +6,10 @@ import { parseLocaleNumber, type DecimalMark } from './locale-number';
  * semicolons, or cells copied from a spreadsheet (tab-separated columns). With several columns the value column
  * is the last one that holds numbers and the first other column gives the subgroup ids. A first row whose value
  * cell is not a number is taken as a header.
+ *
+ * The decimal mark is read from the whole block by the same rule as CSV files (decimal-mark.ts), unless the
+ * person stated it: `0,213` on every line is a decimal comma whatever the browser's language. When the block
+ * leaves it open (`1,234`), `decimal.ambiguous` is set and the caller must ask before using the values.
  */
 export interface PastedValues {
   values: number[];
@@ -12,6 +17,8 @@ export interface PastedValues {
   header?: string[];
   /** Cells that could not be read, by line of the block (1-based). */
   problems: { line: number; message: string }[];
+  /** The decimal mark used, and whether the block left it open. */
+  decimal: DecimalMarkReading;
 }
 
 function cellsOf(line: string): string[] {
@@ -24,12 +31,24 @@ function cellsOf(line: string): string[] {
   return line.trim().split(/\s+/);
 }
 
-export function parsePastedValues(text: string, decimal: DecimalMark = 'auto'): PastedValues {
+export function parsePastedValues(
+  text: string,
+  stated: DecimalMark = 'auto',
+  localeMark: '.' | ',' = '.'
+): PastedValues {
   const lines = text
     .split(/\r?\n/)
     .map((l, i) => ({ line: i + 1, text: l }))
     .filter((l) => l.text.trim() !== '');
-  if (lines.length === 0) return { values: [], problems: [] };
+  const reading: DecimalMarkReading =
+    stated === 'auto'
+      ? inferDecimalMark(
+          lines.flatMap((l) => cellsOf(l.text)),
+          localeMark
+        )
+      : { mark: stated, ambiguous: false };
+  const decimal = reading.mark;
+  if (lines.length === 0) return { values: [], problems: [], decimal: reading };
   const tabular = lines.some((l) => l.text.includes('\t'));
   const problems: PastedValues['problems'] = [];
   if (!tabular) {
@@ -48,7 +67,7 @@ export function parsePastedValues(text: string, decimal: DecimalMark = 'auto'): 
         else values.push(v);
       }
     }
-    return { values, ...(header ? { header } : {}), problems };
+    return { values, ...(header ? { header } : {}), problems, decimal: reading };
   }
   const rows = lines.map((l) => ({ line: l.line, cells: cellsOf(l.text) }));
   const width = Math.max(...rows.map((r) => r.cells.length));
@@ -83,6 +102,7 @@ export function parsePastedValues(text: string, decimal: DecimalMark = 'auto'): 
     values,
     ...(useSubgroups ? { subgroups } : {}),
     ...(hasHeader ? { header: first.cells } : {}),
-    problems
+    problems,
+    decimal: reading
   };
 }

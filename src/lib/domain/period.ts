@@ -55,9 +55,11 @@ export function periodsOfQuarter(quarter: string): Period[] {
 
 /** The calendar month it is now in a time zone (IANA name), as `YYYY-MM`. */
 export function currentPeriodIn(timeZone: string, nowMs: number = Date.now()): Period {
-  const parts = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit' }).formatToParts(
-    new Date(nowMs)
-  );
+  const parts = new Intl.DateTimeFormat('en-CA', {
+    timeZone,
+    year: 'numeric',
+    month: '2-digit'
+  }).formatToParts(new Date(nowMs));
   const year = parts.find((p) => p.type === 'year')?.value ?? '1970';
   const month = parts.find((p) => p.type === 'month')?.value ?? '01';
   return `${year}-${month}`;

@@ -1,4 +1,5 @@
 import Papa from 'papaparse';
+import { inferDecimalMark } from '../domain/decimal-mark';
 import { parseLocaleNumber, type DecimalMark } from '../domain/locale-number';
 
 /**
@@ -31,25 +32,31 @@ export class CsvInputError extends Error {
   }
 }
 
-/** Semicolon or tab when the first lines use it, comma otherwise (the common choice of European exports). */
+/**
+ * Semicolon or tab when the first lines use it, comma otherwise (the common choice of European exports) —
+ * except for a single column of numbers with decimal commas (`0,213` on every line), which is one column, not
+ * two: it is read with a separator that does not occur.
+ */
 export function detectDelimiter(text: string): ',' | ';' | '\t' {
-  const head = text.split(/\r?\n/, 5).join('\n');
+  const lines = text.split(/\r?\n/, 20).filter((l) => l.trim() !== '');
+  const head = lines.slice(0, 5).join('\n');
   const count = (c: string) => head.split(c).length - 1;
   if (count('\t') > 0) return '\t';
   if (count(';') > 0) return ';';
+  const headed = !/\d/.test(lines[0] ?? '');
+  // A header with a comma names two or more columns: the comma separates them.
+  if (headed && lines[0]!.includes(',')) return ',';
+  const body = lines.slice(headed ? 1 : 0);
+  const oneNumberPerLine = body.length > 0 && body.every((l) => /^\s*[-+]?\d*,\d+\s*$/.test(l));
+  if (oneNumberPerLine && !inferDecimalMark(body, '.').ambiguous && inferDecimalMark(body, '.').mark === ',')
+    return ';';
   return ',';
 }
 
-/** A decimal comma when cells look like `12,5` and none like `12.5` (with a comma-free delimiter). */
+/** The decimal mark of the cells, by the one rule for pasted values and files (domain/decimal-mark.ts). */
 export function detectDecimal(cells: string[], delimiter: string): '.' | ',' {
   if (delimiter === ',') return '.';
-  let comma = 0;
-  let point = 0;
-  for (const c of cells) {
-    if (/^\s*[-+]?\d*,\d+\s*$/.test(c)) comma += 1;
-    if (/^\s*[-+]?\d*\.\d+\s*$/.test(c)) point += 1;
-  }
-  return comma > point ? ',' : '.';
+  return inferDecimalMark(cells, '.').mark;
 }
 
 function columnIndex(
