@@ -25,6 +25,8 @@ function summarise(row: ProcessRow, rank: number) {
     yield: row.yield,
     ppm: row.ppm,
     zLevel: row.zLevel,
+    zBasis: row.zBasis,
+    requiredZ: row.requiredZ,
     zGap: row.zGap,
     weakest: weakest?.characteristic.name,
     rulingEstimate: weakest?.estimate,
@@ -89,7 +91,7 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
     ''
   ];
   lines.push(
-    ['#', 'priority', 'status', 'z-level', 'z gap', 'cost/yr', 'process', 'site', 'weakest'].join('\t')
+    ['#', 'priority', 'status', 'z-level (LT/ST)', 'z gap', 'cost/yr', 'process', 'site', 'weakest'].join('\t')
   );
   for (const r of out) {
     lines.push(
@@ -97,7 +99,7 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
         r.rank,
         f(r.priority),
         r.status,
-        f(r.zLevel),
+        r.zLevel === undefined ? '–' : `${f(r.zLevel)} ${r.zBasis === 'short-term' ? 'ST' : 'LT'}`,
         f(r.zGap),
         r.costPerYear === undefined ? '–' : `${Math.round(r.costPerYear)} ${r.currency}`,
         r.process,

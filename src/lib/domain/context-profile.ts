@@ -1,3 +1,4 @@
+import { SIGMA_SHIFT } from '../stats/sigma-level';
 import type { RiskClass } from './characteristic';
 
 /**
@@ -22,7 +23,19 @@ export interface ContextProfile {
   source: string;
 }
 
-export const SHIFT_FOR_SHORT_TERM = 1.5;
+/**
+ * The shift a context adds to long-term z-levels when it reports short-term levels: the 1.5 of the common Six
+ * Sigma convention (stats/sigma-level.ts) in short-term contexts, 0 otherwise. Every figure, chart and file that
+ * reports a z-level as a context asks for it goes through this function.
+ */
+export function shortTermShift(profile: Pick<ContextProfile, 'reporting'> | undefined): number {
+  return profile?.reporting === 'short-term' ? SIGMA_SHIFT : 0;
+}
+
+/** "long-term" or "short-term": the label every z-level carries where a context's reporting applies. */
+export function zBasisOf(profile: Pick<ContextProfile, 'reporting'> | undefined): 'long-term' | 'short-term' {
+  return profile?.reporting === 'short-term' ? 'short-term' : 'long-term';
+}
 
 export const BUILT_IN_PROFILES: readonly ContextProfile[] = [
   {

@@ -75,7 +75,9 @@ describe('figures questioned before saving', () => {
       /far outside the limits \(LSL 0\.19, USL 0\.23 mm\)/
     );
     expect(implausibleEntry({ kind: 'raw', values: [0.213, 0.198, 0.25] }, ch)).toBeUndefined();
-    expect(implausibleEntry({ kind: 'summary', n: 30, mean: -1, sd: 0.01 }, ch)).toMatch(/below the physical minimum/);
+    expect(implausibleEntry({ kind: 'summary', n: 30, mean: -1, sd: 0.01 }, ch)).toMatch(
+      /below the physical minimum/
+    );
     expect(implausibleEntry({ kind: 'defectives', units: 10, defectives: 1 }, ch)).toBeUndefined();
   });
 });

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { SeededRandom } from '../../../seed-data/seeded-random';
 import { expectRelative } from '../../../tests/support/reference-data';
 import { normalUpperQuantile } from '../stats/normal-distribution';
 import type { Characteristic } from './characteristic';
@@ -209,5 +210,74 @@ describe('ranking', () => {
     expect(c.centringMeets).toBe(true);
     expectRelative(c.centredIndex, 2, 1e-12);
     expectRelative(c.sdNeeded, 6 / (6 * 1.33), 1e-12);
+  });
+});
+
+describe('the status follows the figures shown beside it (STATUS_RULE)', () => {
+  it('judges defects per unit, as the row shows them: z 2.97 short-term against a required 3.0 is short', () => {
+    // 100 000 units with 7 340 defects, 8 opportunities each: DPU 0.0734, so 1 − e^−0.0734 = 7.08 % of units have
+    // a defect (long-term z 1.47, short-term 2.97). Per opportunity (DPMO 9 175, z 2.36 + 1.5 = 3.86) the same
+    // month would "meet" the service context's 3.0 — the mix of measures the status must not make.
+    const p = proc('p', 'transactional-service');
+    const c = counted('c', 'p');
+    const rows = rankPortfolio(
+      records({
+        processes: [p],
+        characteristics: [c],
+        studies: [
+          study('x', 'c', '2026-05', {
+            kind: 'defects',
+            units: 100_000,
+            defects: 7_340,
+            opportunitiesPerUnit: 8
+          })
+        ]
+      }),
+      BUILT_IN_PROFILES,
+      { endPeriod: '2026-05', windowMonths: 1 }
+    );
+    const row = rows[0]!;
+    expectRelative(row.zLevel!, normalUpperQuantile(1 - Math.exp(-0.0734)) + 1.5, 1e-12);
+    expect(row.zLevel!).toBeCloseTo(2.97, 2);
+    expect(row.characteristics[0]!.zShown).toBeCloseTo(row.zLevel!, 12);
+    expect(row.status).toBe('short');
+    expect(row.zBasis).toBe('short-term');
+  });
+
+  it('never shows an unstable process as "meets, shown", however capable its figures', () => {
+    // Normal noise (sd 0.1) with a small level shift for the last 30 values: far inside the limits 7–13, but
+    // the individuals chart signals (a run on one side of the centre line).
+    const rng = new SeededRandom(3);
+    const values = Array.from({ length: 90 }, (_, i) => 10 + (i >= 60 ? 0.25 : 0) + 0.1 * rng.normal());
+    const rows = rankPortfolio(
+      records({
+        processes: [proc('p', 'vehicle-parts')],
+        characteristics: [measured('c', 'p')],
+        studies: [study('x', 'c', '2026-05', { kind: 'raw', values })]
+      }),
+      BUILT_IN_PROFILES,
+      { endPeriod: '2026-05', windowMonths: 1 }
+    );
+    const ch = rows[0]!.characteristics[0]!;
+    expect(ch.result!.stability!.stable).toBe(false);
+    expect(ch.bound! >= ch.required).toBe(true);
+    expect(ch.status).toBe('meets, not shown');
+  });
+});
+
+describe('one required level', () => {
+  it('every row carries the required level of its weakest characteristic, as requiredZ defines it', async () => {
+    const demo = (await import('../../../seed-data/demo-portfolio.json')).default;
+    const { parseDemoPortfolio } = await import('./demo-portfolio');
+    const r = parseDemoPortfolio(demo).records;
+    const end = r.studies.reduce((a, s) => (s.period > a ? s.period : a), '');
+    const rows = rankPortfolio(r, BUILT_IN_PROFILES, { endPeriod: end, windowMonths: 3 });
+    let checked = 0;
+    for (const row of rows) {
+      if (!row.weakest) continue;
+      expect(row.requiredZ).toBe(requiredZ(row.profile!, row.weakest.characteristic.riskClass));
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(20);
   });
 });

@@ -1,7 +1,7 @@
 import { normalCdf, normalSf, normalUpperQuantile } from '../stats/normal-distribution';
 import type { CapabilityResult } from '../stats/capability-result';
 import type { Characteristic, RiskClass } from './characteristic';
-import { profileFor, SHIFT_FOR_SHORT_TERM, type ContextProfile } from './context-profile';
+import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
 import type { ImprovementProject } from './improvement-project';
 import { addMonths } from './period';
 import type { Process } from './process';
@@ -18,9 +18,17 @@ import { windowData } from './window-study';
  * Comparable scale: every requirement is translated to a z-level — an index requirement k to z = 3k (the
  * nearer-limit distance, zMin = 3·Cpk), a ppm maximum to z = Q⁻¹(ppm/10⁶); a short-term context compares
  * short-term levels (z + 1.5) with its short-term requirement. The gap is z(estimate) − z(required): negative
- * means short. For counted data an index requirement is compared through the z-level (an index equivalent z/3).
+ * means short. Counted data are judged per unit, as the row shows them: the share of defective units (for
+ * defects, units with at least one defect, 1 − e^(−DPU)) — never the per-opportunity rate beside a per-unit
+ * yield. Against an index requirement, counted data are compared through their z-level (required index × 3).
+ *
+ * The status follows from the figures shown beside it (STATUS_RULE).
  */
 export type CharacteristicStatus = 'meets, shown' | 'meets, not shown' | 'short' | 'no recent data';
+
+/** How the status is decided, in the words the pages and the README show. */
+export const STATUS_RULE =
+  'Short: the estimate misses the required level. Meets, shown: the one-sided confidence bound also meets it and the process shows no sign of instability. Meets, not shown: the estimate meets it, but the bound does not, the data cannot show it, or the control chart shows signals.';
 
 export const STATUS_ORDER: CharacteristicStatus[] = [
   'short',
@@ -59,7 +67,12 @@ export interface CharacteristicRow {
   estimate?: number;
   /** The one-sided confidence bound in the same unit, where one exists. */
   bound?: number;
+  /** The required level in the measure's unit (an index, a z-level, or ppm as a maximum). */
   required: number;
+  /** The required level as a z-level, as the context reports it (short-term contexts add the shift). */
+  requiredZ?: number;
+  /** The characteristic's z-level as the context reports it, per unit (what the status was judged on). */
+  zShown?: number;
   /** z(estimate) − z(required), both as reported. */
   zGap?: number;
   /** Centering or spread (measured data): the index if centred today, and the sd that would meet the requirement if centred. */
@@ -79,8 +92,16 @@ export interface ProcessRow {
   ppm?: number;
   /** z-level of the combined yield, as the context reports it (shift added for short-term contexts). */
   zLevel?: number;
+  /** Whether z-levels of this row are long-term or short-term (the context's reporting). */
+  zBasis: 'long-term' | 'short-term';
   weakest?: CharacteristicRow;
   zGap?: number;
+  /** The required z-level of the weakest characteristic, as reported: the one definition pages and files show. */
+  requiredZ?: number;
+  /** Defective units per million if the weakest characteristic reached its required level (one-sided tail). */
+  ppmAtTarget?: number;
+  /** Yearly cost a project would save by bringing the process to that level (never negative). */
+  gainIfMet?: number;
   /** Cost of poor quality per year: (1 − yield) × monthly volume × 12 × cost per defective, in the process currency. */
   costPerYear?: number;
   /** Reported z-level of each month in the trend span (undefined where no data), oldest first. */
@@ -159,10 +180,10 @@ export interface PortfolioRecords {
 
 const RISK_WEIGHT: Record<RiskClass, number> = { standard: 0, key: 1, safety: 2 };
 
-/** Required z (as reported) for a profile and risk class. */
+/** Required z (as reported) for a profile and risk class: the one definition of the required level. */
 export function requiredZ(profile: ContextProfile, risk: RiskClass): number {
   const level = profile.levels[risk];
-  const shift = profile.reporting === 'short-term' ? SHIFT_FOR_SHORT_TERM : 0;
+  const shift = shortTermShift(profile);
   switch (profile.measure) {
     case 'index':
       return 3 * level + shift;
@@ -184,7 +205,41 @@ function badgesOf(r: CapabilityResult, profile: ContextProfile | undefined): Bad
   return b;
 }
 
-/** Judges one characteristic's window result against its context's requirement. */
+/**
+ * The figures a characteristic is judged on, per unit as its row shows them: the long-term z-level and its
+ * one-sided lower bound, and the fraction of units out of specification (defective) and its one-sided upper
+ * bound. For defects, a unit is defective when it has at least one defect: 1 − e^(−DPU).
+ */
+export function perUnitFigures(result: CapabilityResult): {
+  z: number;
+  zBound?: number;
+  fraction: number;
+  fractionBound?: number;
+} {
+  if (result.kind === 'defects') {
+    const fraction = 1 - result.yield;
+    const dpuBound = result.intervals.dpu?.upperBound;
+    const fractionBound = dpuBound === undefined ? undefined : 1 - Math.exp(-dpuBound);
+    return {
+      z: normalUpperQuantile(Math.min(1, Math.max(0, fraction))),
+      fraction,
+      ...(fractionBound !== undefined
+        ? { fractionBound, zBound: normalUpperQuantile(Math.min(1, fractionBound)) }
+        : {})
+    };
+  }
+  const fraction = result.ppmTotal !== undefined ? result.ppmTotal / 1e6 : 1 - result.yield;
+  const iv = result.intervals.ppmTotal ?? result.intervals.ppm;
+  const zBound = result.intervals.zLevel?.lowerBound;
+  return {
+    z: result.zLevel,
+    fraction,
+    ...(zBound !== undefined ? { zBound } : {}),
+    ...(iv?.upperBound !== undefined ? { fractionBound: iv.upperBound / 1e6 } : {})
+  };
+}
+
+/** Judges one characteristic's window result against its context's requirement (STATUS_RULE). */
 export function judgeCharacteristic(
   characteristic: Characteristic,
   result: CapabilityResult | undefined,
@@ -202,46 +257,45 @@ export function judgeCharacteristic(
       months,
       ...(result ? { result } : {})
     };
-  const shift = profile.reporting === 'short-term' ? SHIFT_FOR_SHORT_TERM : 0;
-  const zReported = result.zLevel + shift;
-  const zBound =
-    result.intervals.zLevel?.lowerBound !== undefined
-      ? result.intervals.zLevel.lowerBound + shift
-      : undefined;
+  const shift = shortTermShift(profile);
+  const unit = perUnitFigures(result);
+  const zReported = unit.z + shift;
+  const zBound = unit.zBound !== undefined ? unit.zBound + shift : undefined;
+  const needZ = requiredZ(profile, risk);
   let estimate: number;
   let bound: number | undefined;
   let meets: (v: number) => boolean;
-  let zEstimate: number;
+  let zEstimate = zReported;
   switch (profile.measure) {
     case 'index': {
-      const idx = result.cpk ?? result.ppk;
+      const measured = result.kind === 'measured' || result.kind === 'summary';
+      const idx = measured ? (result.cpk ?? result.ppk) : undefined;
       const idxBound =
         result.cpk !== undefined ? result.intervals.cpk?.lowerBound : result.intervals.ppk?.lowerBound;
-      // Counted data have no index: their z-level stands in as an index equivalent z/3.
-      estimate = idx ?? result.zLevel / 3;
-      bound = idx !== undefined ? idxBound : zBound !== undefined ? (zBound - shift) / 3 : undefined;
-      meets = (v) => v >= required;
-      zEstimate = 3 * estimate + shift;
+      // Counted data have no index: they are judged on their z-level against 3 × the required index.
+      estimate = idx ?? zReported;
+      bound = idx !== undefined ? idxBound : zBound;
+      const level = idx !== undefined ? required : needZ;
+      meets = (v) => v >= level;
+      if (idx !== undefined) zEstimate = 3 * idx + shift;
       break;
     }
     case 'zLevel':
       estimate = zReported;
       bound = zBound;
       meets = (v) => v >= required;
-      zEstimate = zReported;
       break;
     case 'ppm': {
-      estimate = result.ppmTotal ?? (1 - result.yield) * 1e6;
-      const iv = result.intervals.ppmTotal ?? result.intervals.ppm ?? result.intervals.dpmo;
-      bound = iv?.upperBound;
+      estimate = unit.fraction * 1e6;
+      bound = unit.fractionBound !== undefined ? unit.fractionBound * 1e6 : undefined;
       meets = (v) => v <= required;
-      zEstimate = zReported;
       break;
     }
   }
+  const unstable = result.stability !== undefined && !result.stability.stable;
   const status: CharacteristicStatus = !meets(estimate)
     ? 'short'
-    : bound !== undefined && meets(bound)
+    : bound !== undefined && meets(bound) && !unstable
       ? 'meets, shown'
       : 'meets, not shown';
   const row: CharacteristicRow = {
@@ -250,7 +304,9 @@ export function judgeCharacteristic(
     result,
     estimate,
     required,
-    zGap: zEstimate - requiredZ(profile, risk),
+    requiredZ: needZ,
+    zShown: zReported,
+    zGap: zEstimate - needZ,
     badges: badgesOf(result, profile),
     months,
     ...(bound !== undefined ? { bound } : {})
@@ -260,7 +316,7 @@ export function judgeCharacteristic(
   const usl = characteristic.usl;
   const sdNow = result.sdWithin ?? result.sdOverall;
   if (lsl !== undefined && usl !== undefined && sdNow !== undefined && sdNow > 0) {
-    const requiredIndex = (requiredZ(profile, risk) - shift) / 3;
+    const requiredIndex = (needZ - shift) / 3;
     const centredIndex = (usl - lsl) / (6 * sdNow);
     row.centering = {
       centredIndex,
@@ -270,6 +326,14 @@ export function judgeCharacteristic(
     };
   }
   return row;
+}
+
+/** Cost of poor quality per year: fraction defective × monthly volume × 12 × cost per defective unit. */
+export function costPerYear(
+  fraction: number,
+  process: Pick<Process, 'monthlyVolume' | 'costPerDefective'>
+): number {
+  return fraction * process.monthlyVolume * 12 * process.costPerDefective;
 }
 
 function slope(values: (number | undefined)[]): number | undefined {
@@ -325,7 +389,7 @@ export function rankPortfolio(
     const site = siteById.get(process.siteId);
     if (!site) continue;
     const profile = profileFor(profiles, process.contextId);
-    const shift = profile?.reporting === 'short-term' ? SHIFT_FOR_SHORT_TERM : 0;
+    const shift = shortTermShift(profile);
     const chars = (charsByProcess.get(process.id) ?? [])
       .slice()
       .sort((a, b) => a.name.localeCompare(b.name) || a.id.localeCompare(b.id));
@@ -383,6 +447,7 @@ export function rankPortfolio(
           )
         : 'no recent data',
       trend: [],
+      zBasis: zBasisOf(profile),
       badges: [...badges],
       projects: projectsByProcess.get(process.id) ?? [],
       priority: 0,
@@ -395,7 +460,12 @@ export function rankPortfolio(
       row.zLevel = normalUpperQuantile(Math.min(1, 1 - y)) + shift;
       row.weakest = withData.reduce((a, b) => ((b.zGap ?? Infinity) < (a.zGap ?? Infinity) ? b : a));
       row.zGap = row.weakest.zGap;
-      row.costPerYear = (1 - y) * process.monthlyVolume * 12 * process.costPerDefective;
+      row.costPerYear = costPerYear(1 - y, process);
+      if (row.weakest.requiredZ !== undefined) {
+        row.requiredZ = row.weakest.requiredZ;
+        row.ppmAtTarget = normalSf(row.weakest.requiredZ - shift) * 1e6;
+        row.gainIfMet = Math.max(0, row.costPerYear - costPerYear(row.ppmAtTarget / 1e6, process));
+      }
     }
     for (let m = 0; m < trendMonths; m += 1) {
       const period = addMonths(trendFirst, m);

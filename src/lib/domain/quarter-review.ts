@@ -1,6 +1,6 @@
 import { zChangeTest, type ZEstimate } from '../stats/z-change-test';
 import { canonicalJson } from './canonical-json';
-import type { ContextProfile } from './context-profile';
+import { shortTermShift, type ContextProfile } from './context-profile';
 import { PROJECT_PHASES } from './improvement-project';
 import { addMonths, periodsOfQuarter, quarterOf } from './period';
 import {
@@ -94,7 +94,7 @@ function estimateOf(c: CharacteristicRow, shift: number): ZEstimate {
   return { z: r.zLevel + shift, n: r.n * perUnit, kind: 'counted', p };
 }
 
-const shiftOf = (row: ProcessRow) => (row.profile?.reporting === 'short-term' ? 1.5 : 0);
+const shiftOf = (row: ProcessRow) => shortTermShift(row.profile);
 
 /** Change of one process between two quarters, on the characteristic that sets its level now. */
 export function moverOf(after: ProcessRow, before: ProcessRow | undefined): ReviewMover | undefined {
@@ -136,7 +136,9 @@ function lineOf(row: ProcessRow): ReviewProcessLine {
     site: row.site.name,
     status: row.status,
     zLevel: row.zLevel,
+    zBasis: row.zBasis,
     required: w ? w.required : undefined,
+    requiredZ: row.requiredZ,
     zGap: row.zGap,
     ppm: row.ppm,
     costPerYear: row.costPerYear,

@@ -30,7 +30,11 @@ const processLineSchema = z.object({
   site: text,
   status: z.string().max(40),
   zLevel: optNum,
+  /** Whether the z-levels of this line are long-term or short-term (absent in snapshots frozen before). */
+  zBasis: z.enum(['long-term', 'short-term']).optional(),
   required: optNum,
+  /** The required z-level as the ranking defines it (absent in snapshots frozen before it was kept). */
+  requiredZ: optNum,
   zGap: optNum,
   ppm: optNum,
   costPerYear: optNum,

@@ -66,16 +66,18 @@ describe('logging a month', () => {
     );
     expect(await storage.studies.forCharacteristic(charId)).toHaveLength(0);
     // The month under way may be logged as it goes.
-    expect((await storage.studies.logOne({ ...summary(10), period: currentPeriodIn('UTC') }, 'new')).action).toBe(
-      'created'
-    );
+    expect(
+      (await storage.studies.logOne({ ...summary(10), period: currentPeriodIn('UTC') }, 'new')).action
+    ).toBe('created');
   });
 
   it('judges "not begun" in the site\'s own time zone', () => {
     // 2026-12-31 23:30 UTC is already January 2027 in Auckland, still December in Honolulu.
     const at = Date.parse('2026-12-31T23:30:00Z');
     expect(futurePeriodProblem('2027-01', { name: 'A', timeZone: 'Pacific/Auckland' }, at)).toBeUndefined();
-    expect(futurePeriodProblem('2027-01', { name: 'H', timeZone: 'Pacific/Honolulu' }, at)).toMatch(/not begun/);
+    expect(futurePeriodProblem('2027-01', { name: 'H', timeZone: 'Pacific/Honolulu' }, at)).toMatch(
+      /not begun/
+    );
   });
 
   it('creates, then refuses a second entry unless told to replace or combine', async () => {

@@ -126,34 +126,38 @@ export class StudyRepository extends RecordRepository<Study> {
       }
     });
     const d = this.db;
-    return d.transaction('rw', [d.studies, d.characteristics, d.processes, d.sites, d.studyRevisions], async () => {
-      const outcomes: LogOutcome[] = [];
-      for (const fields of parsed) {
-        const characteristic = await characteristicFor(d, fields);
-        const existing = await this.liveForMonth(fields.characteristicId, fields.period);
-        if (!existing) {
-          const study = stampNew(editable(fields), this.ctx) as Study;
-          await d.studies.add(study);
-          outcomes.push({ study, action: 'created' });
-          continue;
+    return d.transaction(
+      'rw',
+      [d.studies, d.characteristics, d.processes, d.sites, d.studyRevisions],
+      async () => {
+        const outcomes: LogOutcome[] = [];
+        for (const fields of parsed) {
+          const characteristic = await characteristicFor(d, fields);
+          const existing = await this.liveForMonth(fields.characteristicId, fields.period);
+          if (!existing) {
+            const study = stampNew(editable(fields), this.ctx) as Study;
+            await d.studies.add(study);
+            outcomes.push({ study, action: 'created' });
+            continue;
+          }
+          if (mode === 'new') {
+            throw new ValidationError('Study', [
+              {
+                field: 'period',
+                message: `'${characteristic.name}' already has a study for ${fields.period}; replace or combine that one instead`
+              }
+            ]);
+          }
+          const data = mode === 'combine' ? combineStudyData(existing.data, fields.data) : fields.data;
+          const next = parseStudyFields({ ...editable(fields), data });
+          await this.keepRevision(existing, mode === 'combine' ? 'combined' : 'replaced');
+          const study = stampUpdate(existing, editable(next), this.ctx);
+          await d.studies.put(study);
+          outcomes.push({ study, previous: existing, action: mode === 'combine' ? 'combined' : 'replaced' });
         }
-        if (mode === 'new') {
-          throw new ValidationError('Study', [
-            {
-              field: 'period',
-              message: `'${characteristic.name}' already has a study for ${fields.period}; replace or combine that one instead`
-            }
-          ]);
-        }
-        const data = mode === 'combine' ? combineStudyData(existing.data, fields.data) : fields.data;
-        const next = parseStudyFields({ ...editable(fields), data });
-        await this.keepRevision(existing, mode === 'combine' ? 'combined' : 'replaced');
-        const study = stampUpdate(existing, editable(next), this.ctx);
-        await d.studies.put(study);
-        outcomes.push({ study, previous: existing, action: mode === 'combine' ? 'combined' : 'replaced' });
+        return outcomes;
       }
-      return outcomes;
-    });
+    );
   }
 
   async logOne(input: unknown, mode: LogMode): Promise<LogOutcome> {

@@ -60,15 +60,10 @@ export function zAgainstTargetOption(lines: readonly ReviewProcessLine[]): EChar
         symbol: 'rect',
         symbolSize: [3, 14],
         itemStyle: { color: TARGET },
-        data: rows.map((l) => (l.required === undefined ? null : round(requiredZ(l))))
+        data: rows.map((l) => (l.requiredZ === undefined ? null : round(l.requiredZ)))
       }
     ]
   };
-}
-
-/** The required level on the z scale the bars use: z-level minus the gap. */
-export function requiredZ(l: ReviewProcessLine): number {
-  return (l.zLevel ?? 0) - (l.zGap ?? 0);
 }
 
 /** Cost of poor quality per year, largest first, with the cumulative share: one currency per chart. */
