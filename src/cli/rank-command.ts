@@ -91,7 +91,9 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
     ''
   ];
   lines.push(
-    ['#', 'priority', 'status', 'z-level (LT/ST)', 'z gap', 'cost/yr', 'process', 'site', 'weakest'].join('\t')
+    ['#', 'priority', 'status', 'z-level (LT/ST)', 'z gap', 'cost/yr', 'process', 'site', 'weakest'].join(
+      '\t'
+    )
   );
   for (const r of out) {
     lines.push(

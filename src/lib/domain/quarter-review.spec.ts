@@ -72,3 +72,46 @@ describe('quarterly review', () => {
     expect(scoped.headline.processes).toBe(records.processes.filter((p) => p.siteId === one.id).length);
   });
 });
+
+describe('amounts in several currencies', () => {
+  const r = parseDemoPortfolio(demo).records;
+  const end = r.studies.reduce((a, s) => (s.period > a ? s.period : a), '');
+  const quarter = `${end.slice(0, 4)}-Q${Math.floor((Number(end.slice(5, 7)) - 1) / 3) + 1}`;
+
+  it('never adds EUR and INR: pipeline savings stay per currency without a reporting currency', () => {
+    const f = buildQuarterReview(r, BUILT_IN_PROFILES, { quarter });
+    const control = f.pipeline.find((p) => p.phase === 'Control')!;
+    // Demo Control projects: EUR 61 000 and 72 000, INR 5 400 000 (seed-data/demo-portfolio.json).
+    expect(control.savings).toEqual([
+      { currency: 'EUR', perYear: 133_000 },
+      { currency: 'INR', perYear: 5_400_000 }
+    ]);
+    expect(control.savingReporting).toBeUndefined();
+    expect(f.headline.costReporting).toBeUndefined();
+    expect(f.assumptions.find((a) => a.topic === 'currencies')!.explanation).toMatch(/never added across them/);
+  });
+
+  it('converts at the rates entered, states them, and gives no total while a currency lacks a rate', () => {
+    const reporting = {
+      currency: 'EUR',
+      rates: [
+        { currency: 'INR', rate: 0.011, asOf: '2026-11-28' },
+        { currency: 'USD', rate: 0.92, asOf: '2026-11-28' }
+      ]
+    };
+    const f = buildQuarterReview(r, BUILT_IN_PROFILES, { quarter, reporting });
+    const control = f.pipeline.find((p) => p.phase === 'Control')!;
+    // 133 000 EUR + 5 400 000 INR × 0.011 = 133 000 + 59 400 = 192 400 EUR (hand-checked).
+    expect(control.savingReporting!.amount).toBeCloseTo(192_400, 6);
+    expect(control.savings).toHaveLength(2);
+    expect(f.reporting!.statement).toBe(
+      'Reporting currency EUR, at the rates entered: 1 INR = 0.011 EUR (2026-11-28); 1 USD = 0.92 EUR (2026-11-28).'
+    );
+    const withoutUsd = buildQuarterReview(r, BUILT_IN_PROFILES, {
+      quarter,
+      reporting: { currency: 'EUR', rates: [reporting.rates[0]!] }
+    });
+    expect(withoutUsd.headline.costReporting).toBeUndefined();
+    expect(reviewFiguresSchema.safeParse(f).success).toBe(true);
+  });
+});

@@ -3,6 +3,7 @@ import { canonicalJson } from './canonical-json';
 import { shortTermShift, type ContextProfile } from './context-profile';
 import { PROJECT_PHASES } from './improvement-project';
 import { addMonths, periodsOfQuarter, quarterOf } from './period';
+import { moneyTotals, ratesStatement, type ReportingCurrency } from './reporting-currency';
 import {
   BADGE_EXPLANATIONS,
   rankPortfolio,
@@ -33,6 +34,8 @@ export interface ReviewOptions {
   siteIds?: readonly string[];
   trendQuarters?: number;
   cache?: FiguresCache;
+  /** Reporting currency and rates for converted totals; amounts are always also given per currency. */
+  reporting?: ReportingCurrency;
 }
 
 export function shiftQuarter(quarter: string, quarters: number): string {
@@ -46,7 +49,11 @@ const MEETS = new Set(['meets, shown', 'meets, not shown']);
  * those. `stale` counts reviewed processes some of whose characteristics reported nothing in the quarter,
  * `missing` the processes with no data at all. Cost is summed per currency (no conversion).
  */
-export function headlineOf(quarter: string, rows: readonly ProcessRow[]): ReviewHeadline {
+export function headlineOf(
+  quarter: string,
+  rows: readonly ProcessRow[],
+  reporting?: ReportingCurrency
+): ReviewHeadline {
   const reviewed = rows.filter((r) => r.status !== 'no recent data');
   const meeting = reviewed.filter((r) => MEETS.has(r.status)).length;
   const meetingShown = reviewed.filter((r) => r.status === 'meets, shown').length;
@@ -58,21 +65,20 @@ export function headlineOf(quarter: string, rows: readonly ProcessRow[]): Review
     meetingShown,
     share: reviewed.length ? meeting / reviewed.length : undefined,
     shareShown: reviewed.length ? meetingShown / reviewed.length : undefined,
-    cost: costByCurrency(reviewed),
+    ...costsOf(reviewed, reporting),
     stale: reviewed.filter((r) => r.badges.includes('incomplete')).length,
     missing: rows.length - reviewed.length
   };
 }
 
-function costByCurrency(rows: readonly ProcessRow[]): { currency: string; perYear: number }[] {
-  const sums = new Map<string, number>();
-  for (const r of rows) {
-    if (r.costPerYear === undefined) continue;
-    sums.set(r.process.currency, (sums.get(r.process.currency) ?? 0) + r.costPerYear);
-  }
-  return [...sums.entries()]
-    .sort(([a], [b]) => a.localeCompare(b))
-    .map(([currency, perYear]) => ({ currency, perYear }));
+function costsOf(rows: readonly ProcessRow[], reporting: ReportingCurrency | undefined) {
+  const totals = moneyTotals(
+    rows.flatMap((r) =>
+      r.costPerYear === undefined ? [] : [{ amount: r.costPerYear, currency: r.process.currency }]
+    ),
+    reporting
+  );
+  return { cost: totals.byCurrency, ...(totals.reporting ? { costReporting: totals.reporting } : {}) };
 }
 
 /** The characteristic that loses most (largest ppm): the one that sets a process's z-level. */
@@ -210,7 +216,7 @@ export function buildQuarterReview(
   const sites: ReviewSite[] = [...new Set(current.map((r) => r.site.id))]
     .map((siteId) => {
       const rows = current.filter((r) => r.site.id === siteId);
-      const h = headlineOf(quarter, rows);
+      const h = headlineOf(quarter, rows, options.reporting);
       const zLevels = rows.flatMap((r) =>
         r.zLevel !== undefined && Number.isFinite(r.zLevel) ? [r.zLevel] : []
       );
@@ -231,10 +237,15 @@ export function buildQuarterReview(
   const projects = current.flatMap((r) => r.projects.map((p) => ({ project: p, row: r })));
   const pipeline = PROJECT_PHASES.map((phase) => {
     const inPhase = projects.filter((p) => p.project.phase === phase);
+    const totals = moneyTotals(
+      inPhase.map((p) => ({ amount: p.project.expectedAnnualSaving, currency: p.row.process.currency })),
+      options.reporting
+    );
     return {
       phase,
       projects: inPhase.length,
-      expectedSaving: inPhase.reduce((a, p) => a + p.project.expectedAnnualSaving, 0)
+      savings: totals.byCurrency,
+      ...(totals.reporting ? { savingReporting: totals.reporting } : {})
     };
   });
   const control: ReviewControlProject[] = projects
@@ -275,6 +286,11 @@ export function buildQuarterReview(
       .map((r) => `${r.process.name} (${r.site.name})`)
   }));
   assumptions.push({
+    topic: 'currencies',
+    explanation: ratesStatement(options.reporting),
+    processes: []
+  });
+  assumptions.push({
     topic: 'no data',
     explanation:
       'No study was logged for any characteristic of these processes in the quarter; they are not judged.',
@@ -288,9 +304,9 @@ export function buildQuarterReview(
     previousQuarter,
     yearAgoQuarter,
     siteIds: [...(options.siteIds ?? [])].sort(),
-    headline: headlineOf(quarter, current),
-    previous: headlineOf(previousQuarter, previous),
-    yearAgo: headlineOf(yearAgoQuarter, ranked.get(yearAgoQuarter)!),
+    headline: headlineOf(quarter, current, options.reporting),
+    previous: headlineOf(previousQuarter, previous, options.reporting),
+    yearAgo: headlineOf(yearAgoQuarter, ranked.get(yearAgoQuarter)!, options.reporting),
     processes: current.map(lineOf),
     movers,
     improvers: improvers.slice(0, 10),
@@ -306,7 +322,16 @@ export function buildQuarterReview(
       }),
     pipeline,
     control,
-    assumptions
+    assumptions,
+    ...(options.reporting
+      ? {
+          reporting: {
+            currency: options.reporting.currency,
+            rates: options.reporting.rates,
+            statement: ratesStatement(options.reporting)
+          }
+        }
+      : {})
   };
 }
 

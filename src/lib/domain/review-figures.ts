@@ -10,6 +10,8 @@ const optNum = z.number().optional();
 const text = z.string().max(400);
 
 const costSchema = z.array(z.object({ currency: z.string().max(8), perYear: num })).max(50);
+/** A total in the reporting currency, given only when every currency involved has a rate. */
+const reportingAmount = z.object({ currency: z.string().max(8), amount: num }).optional();
 
 export const headlineSchema = z.object({
   quarter: z.string().max(10),
@@ -20,6 +22,7 @@ export const headlineSchema = z.object({
   share: optNum,
   shareShown: optNum,
   cost: costSchema,
+  costReporting: reportingAmount,
   stale: num,
   missing: num
 });
@@ -104,7 +107,27 @@ export const reviewFiguresSchema = z.object({
   shareTrend: z
     .array(z.object({ quarter: z.string().max(10), reviewed: num, share: optNum, shareShown: optNum }))
     .max(40),
-  pipeline: z.array(z.object({ phase: z.string().max(20), projects: num, expectedSaving: num })).max(10),
+  pipeline: z
+    .array(
+      z.object({
+        phase: z.string().max(20),
+        projects: num,
+        /** Expected yearly saving per currency (never added across currencies). */
+        savings: costSchema.optional(),
+        savingReporting: reportingAmount,
+        /** Snapshots frozen before per-currency savings hold one number here; it is no longer written. */
+        expectedSaving: optNum
+      })
+    )
+    .max(10),
+  /** The reporting currency and rates used for converted totals (absent when none is set). */
+  reporting: z
+    .object({
+      currency: z.string().max(8),
+      rates: z.array(z.object({ currency: z.string().max(8), rate: num, asOf: z.string().max(10) })).max(200),
+      statement: z.string().max(4000)
+    })
+    .optional(),
   control: z.array(controlSchema).max(10_000),
   assumptions: z
     .array(

@@ -8,6 +8,7 @@ import type { HybridClock } from '../domain/hybrid-clock';
 import type { RecordsByKind } from '../domain/record-kinds';
 import { loadBackupStatus, type BackupStatus } from './backup-status';
 import type { MergeChoices } from '../domain/change-set-merge';
+import { parseReportingCurrency, type ReportingCurrency } from '../domain/reporting-currency';
 import type { CollectedChanges, ExportScope, ImportPlan, ImportResult, PeerRecord } from './change-set-store';
 import { loadClock, loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
 import { ContextProfileRepository } from './context-profile-repository';
@@ -81,6 +82,10 @@ export interface CapstanStorage {
   loadDemo(file: unknown): Promise<DemoLoadResult>;
   deviceName(): Promise<string>;
   setDeviceName(name: string): Promise<string>;
+  /** The reporting currency and exchange rates of this device's reviews (device-local; undefined: none set). */
+  reportingCurrency(): Promise<ReportingCurrency | undefined>;
+  /** Validates and saves it (ValidationError names the field); undefined clears it. */
+  setReportingCurrency(value: unknown): Promise<ReportingCurrency | undefined>;
   close(): void;
 }
 
@@ -103,6 +108,7 @@ async function refuseNewerDatabase(name: string, options?: DexieOptions): Promis
 }
 
 const REMINDER_KEY = 'backupReminderDays';
+const REPORTING_CURRENCY_KEY = 'reportingCurrency';
 /** Nudge after a week of changes that are in no file: a month's logging is then at most a week at risk. */
 const DEFAULT_REMINDER_DAYS = 7;
 
@@ -176,6 +182,23 @@ export async function openStorage(
     loadDemo: (file) => loadDemoPortfolio(db, file),
     deviceName: () => loadDeviceName(db),
     setDeviceName: (name) => saveDeviceName(db, name),
+    reportingCurrency: async () => {
+      const v = (await db.deviceSettings.get(REPORTING_CURRENCY_KEY))?.value;
+      try {
+        return v === undefined ? undefined : parseReportingCurrency(v);
+      } catch {
+        return undefined;
+      }
+    },
+    setReportingCurrency: async (value) => {
+      if (value === undefined) {
+        await db.deviceSettings.delete(REPORTING_CURRENCY_KEY);
+        return undefined;
+      }
+      const parsed = parseReportingCurrency(value);
+      await db.deviceSettings.put({ key: REPORTING_CURRENCY_KEY, value: parsed });
+      return parsed;
+    },
     close: () => db.close()
   };
 }

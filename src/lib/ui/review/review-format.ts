@@ -5,8 +5,19 @@ export function formatShare(share: number | undefined): string {
   return share === undefined ? '–' : `${Math.round(share * 100)} %`;
 }
 
-export function formatCosts(cost: readonly { currency: string; perYear: number }[]): string {
-  return cost.length === 0 ? '–' : cost.map((c) => formatMoney(c.perYear, c.currency)).join(' + ');
+/**
+ * Amounts per currency side by side ("€8,945 · ₹2,100,000"), never joined by a plus sign: they are not added.
+ * With a total in the reporting currency (only given when every currency has a rate), it follows as "≈ …".
+ */
+export function formatCosts(
+  cost: readonly { currency: string; perYear: number }[],
+  reporting?: { currency: string; amount: number }
+): string {
+  if (cost.length === 0) return '–';
+  const each = cost.map((c) => formatMoney(c.perYear, c.currency)).join(' · ');
+  return reporting && cost.length > 1
+    ? `${each} (≈ ${formatMoney(reporting.amount, reporting.currency)})`
+    : each;
 }
 
 export function formatChange(v: number | undefined, digits = 2): string {
