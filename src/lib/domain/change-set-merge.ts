@@ -266,26 +266,52 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
     }
   }
 
-  // One live study per characteristic and month.
+  // One live study per characteristic and month — counting the studies that settling may bring back: those
+  // deleted together with a parent (same deletion time) that is live, or whose family may be kept. Where such
+  // a month meanwhile got another study (logged on a device that did not know of the deletion), the two are a
+  // same-month conflict too, settled once the family's choice is known.
+  const restorable = new Set<string>();
+  for (const id of candidates) {
+    const p = planned.get(id);
+    if (!p || !(isLive(p.record) || families.has(id))) continue;
+    const instants = new Set(
+      [local.record(id)?.deletedAt, plan.incoming.get(id)?.record.deletedAt].filter(
+        (x): x is string => x !== undefined
+      )
+    );
+    if (instants.size === 0) continue;
+    for (const d of planned.descendantsOf(p.kind, id)) {
+      if (d.kind === 'studies' && !isLive(d.record) && instants.has(d.record.deletedAt!))
+        restorable.add(d.record.id);
+    }
+  }
   const months: MergeConflict[] = [];
   const seenMonths = new Set<string>();
-  for (const record of incoming.studies) {
-    const now = planned.record(record.id) as Study | undefined;
-    if (!now || !isLive(now) || seenMonths.has(studyMonthKey(now))) continue;
-    const other = planned
-      .studiesOfMonth(now.characteristicId, now.period)
-      .find((s) => s.id !== now.id && isLive(s));
-    if (!other) continue;
-    seenMonths.add(studyMonthKey(now));
+  const monthsToCheck: Study[] = [
+    ...incoming.studies,
+    ...[...restorable].map((id) => planned.record(id) as Study)
+  ];
+  const fromFile = (x: Study) => plan.incoming.has(x.id) && !local.get(x.id);
+  for (const study of monthsToCheck) {
+    const key = studyMonthKey(study);
+    if (seenMonths.has(key)) continue;
+    const peers = planned
+      .studiesOfMonth(study.characteristicId, study.period)
+      .filter((st) => isLive(st) || restorable.has(st.id));
+    if (peers.length < 2) continue;
+    seenMonths.add(key);
+    const [a, b] = peers.sort(
+      (x, y) => Number(fromFile(x)) - Number(fromFile(y)) || (x.id < y.id ? -1 : 1)
+    ) as [Study, Study];
     months.push({
-      key: monthConflictKey(now),
+      key: monthConflictKey(study),
       type: 'same-month',
       kind: 'studies',
       nature: 'same-month',
-      local: other,
-      incoming: now,
-      fields: differingFields(other, now),
-      canCombine: canCombineStudies(other, now)
+      local: a,
+      incoming: b,
+      fields: differingFields(a, b),
+      canCombine: canCombineStudies(a, b)
     });
   }
 
@@ -390,29 +416,6 @@ export function settleMerge(
         put(kind, settleConflict(decision, keep ? live : live === 'local' ? 'incoming' : 'local'));
       }
       familyParents.push(c.key);
-    } else {
-      const here = c.local as Study;
-      const there = c.incoming as Study;
-      const choice: ConflictChoice | 'newer' =
-        pick ?? (rule === 'newer' ? 'newer' : rule === 'local' ? 'local' : 'incoming');
-      if (choice === 'combine') {
-        if (!c.canCombine)
-          throw new MergeRefused(
-            `The two studies of ${there.period} cannot be combined: ${here.data.kind} and ${there.data.kind} data do not pool`
-          );
-        const [first, second] = [current(here.id), current(there.id)].sort((a, b) =>
-          a.id < b.id ? -1 : 1
-        ) as [Study, Study];
-        const data = combineStudyData(first.data, second.data);
-        put('studies', stampUpdate(first, { ...editableOf(first), data } as Editable<Study>, ctx));
-        put('studies', stampDeleted(second, ctx));
-      } else {
-        // Ties between two different studies fall to the lower id, so both sides decide alike.
-        const order = compareEdits(here, there) || (here.id < there.id ? 1 : -1);
-        const keepHere = choice === 'newer' ? order > 0 : choice === 'local';
-        const loser = keepHere ? there : here;
-        put('studies', stampDeleted(current(loser.id), ctx));
-      }
     }
   }
 
@@ -454,6 +457,34 @@ export function settleMerge(
     }
   }
 
+  // One study per month, settled on the state the families left: a pair where one side is no longer live
+  // (its family was deleted) needs nothing more.
+  for (const c of plan.conflicts) {
+    if (c.type !== 'same-month') continue;
+    const pick = choices.perConflict?.[c.key];
+    const rule = choices.rule ?? 'newer';
+    const here = current(c.local!.id) as Study;
+    const there = current(c.incoming!.id) as Study;
+    if (!isLive(here) || !isLive(there)) continue;
+    const choice: ConflictChoice | 'newer' =
+      pick ?? (rule === 'newer' ? 'newer' : rule === 'local' ? 'local' : 'incoming');
+    if (choice === 'combine') {
+      if (!c.canCombine)
+        throw new MergeRefused(
+          `The two studies of ${there.period} cannot be combined: ${here.data.kind} and ${there.data.kind} data do not pool`
+        );
+      const [first, second] = [here, there].sort((a, b) => (a.id < b.id ? -1 : 1)) as [Study, Study];
+      const data = combineStudyData(first.data, second.data);
+      put('studies', stampUpdate(first, { ...editableOf(first), data } as Editable<Study>, ctx));
+      put('studies', stampDeleted(second, ctx));
+    } else {
+      // Ties between two different studies fall to the lower id, so both sides decide alike.
+      const order = compareEdits(here, there) || (here.id < there.id ? 1 : -1);
+      const keepHere = choice === 'newer' ? order > 0 : choice === 'local';
+      put('studies', stampDeleted(keepHere ? there : here, ctx));
+    }
+  }
+
   const out: IndexedRecord[] = [];
   for (const [id, kind] of written) out.push({ kind, record: current(id) });
   assertConsistent(work, out);
@@ -480,7 +511,7 @@ function assertConsistent(work: RecordIndex, writes: readonly IndexedRecord[]): 
       const live = work.studiesOfMonth(s.characteristicId, s.period).filter(isLive);
       if (live.length > 1) {
         throw new MergeRefused(
-          `Merging would leave two live studies for ${s.period}; nothing was written — preview the file again`
+          `Merging would leave two live studies for ${s.period} (${live.map((x) => x.id).join(', ')}); nothing was written — preview the file again`
         );
       }
     }
