@@ -220,7 +220,7 @@ describe('capstan check and merge', async () => {
   const { changeSetOf, encodeExchangeFile, decodeExchangeFile } =
     await import('../lib/exchange/exchange-file');
   const { travelling } = await import('../lib/domain/record-meta');
-  const { stampUpdate } = await import('../lib/domain/record-meta');
+  const { stampNew, stampUpdate } = await import('../lib/domain/record-meta');
   const { datedFromToday, parseDemoPortfolio } = await import('../lib/domain/demo-portfolio');
   const demoJson = JSON.parse(
     readFileSync(new URL('../../seed-data/demo-portfolio.json', import.meta.url), 'utf8')
@@ -344,9 +344,52 @@ describe('capstan check and merge', async () => {
     );
   });
 
+  it('merge treats one month logged in both files as a conflict (exit 3), and --prefer leaves one study', async () => {
+    const measured = demoRecords.characteristics.find((c) => c.dataKind === 'measured')!;
+    const logged = async (deviceId: string, mean: number, name: string) => {
+      const ctx = { deviceId, now: () => new Date('2026-11-20T10:00:00Z'), newId: () => crypto.randomUUID() };
+      const study = stampNew(
+        {
+          characteristicId: measured.id,
+          period: '2020-01',
+          data: { kind: 'summary' as const, n: 30, mean, sd: 0.1 },
+          enteredBy: deviceId
+        },
+        ctx
+      );
+      return writeSet(name, { ...base, studies: [...base.studies, study] });
+    };
+    const a = await logged('office', 10, 'month-a.capstan.json');
+    const b = await logged('site-lead', 10.2, 'month-b.capstan.json');
+    const out = join(dir, 'month-merged.capstan.json');
+    const stop = await run('merge', a, b, '-o', out);
+    expect(stop.code).toBe(3);
+    expect(stop.out).toMatch(/This month was logged on both devices/);
+    expect(existsSync(out)).toBe(false);
+    const ok = await run('merge', a, b, '-o', out, '--prefer', 'incoming');
+    expect(ok.code).toBe(0);
+    const merged = await decodeExchangeFile(new Uint8Array(readFileSync(out)));
+    const live = merged.records.studies.filter((x) => x.period === '2020-01' && !x.deletedAt);
+    expect(live).toHaveLength(1);
+    expect(live[0]!.data).toMatchObject({ mean: 10.2 });
+    expect((await run('check', out)).code).toBe(0);
+  });
+
   it('rank reads an exchange file and ranks it as the demo file', async () => {
-    const fromExchange = JSON.parse((await run('rank', basePath, '--quarter', '2026-Q3', '--json')).out);
-    const fromDemo = JSON.parse((await run('rank', demoFile(), '--quarter', '2026-Q3', '--json')).out);
+    // The exchange file holds the demo dated from today: the same window, moved by the same months, gives the
+    // same rows.
+    const { addMonths } = await import('../lib/domain/period');
+    const last = (studies: { period: string }[]) =>
+      studies.reduce((a, x) => (x.period > a ? x.period : a), '');
+    const index = (p: string) => Number(p.slice(0, 4)) * 12 + Number(p.slice(5, 7));
+    const months = index(last(demoRecords.studies)) - index(last(demoJson.records.studies));
+    const period = addMonths('2026-09', months);
+    const fromExchange = JSON.parse(
+      (await run('rank', basePath, '--period', period, '--window', '3', '--json')).out
+    );
+    const fromDemo = JSON.parse(
+      (await run('rank', demoFile(), '--period', '2026-09', '--window', '3', '--json')).out
+    );
     expect(fromExchange.rows).toEqual(fromDemo.rows);
   });
 

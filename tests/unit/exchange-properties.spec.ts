@@ -245,14 +245,15 @@ describe('merge of record sets (properties)', () => {
           // A record conflict (not a family) is raised only where both sides changed the record differently.
           if (c.type === 'record') expect(shouldConflict(c.key, A, B)).toBe(true);
           // A family is raised only where one side deleted the parent.
-          if (c.type === 'family') expect([c.local, c.incoming].some((v) => v?.deletedAt !== undefined)).toBe(true);
+          if (c.type === 'family')
+            expect([c.local, c.incoming].some((v) => v?.deletedAt !== undefined)).toBe(true);
         }
-        for (const r of allRecords(B.records)) if (shouldConflict(r.id, A, B)) expect(reported.has(r.id)).toBe(true);
+        for (const r of allRecords(B.records))
+          if (shouldConflict(r.id, A, B)) expect(reported.has(r.id)).toBe(true);
       }),
       { numRuns: RUNS }
     );
   });
-
 });
 
 describe('sync through the database (properties)', { timeout: 120_000 }, () => {
@@ -362,5 +363,4 @@ describe('sync through the database (properties)', { timeout: 120_000 }, () => {
       { numRuns: RUNS }
     );
   });
-
 });

@@ -47,13 +47,35 @@ type Op =
 
 const device = fc.integer({ min: 0, max: 2 });
 const opArb: fc.Arbitrary<Op> = fc.oneof(
-  { weight: 5, arbitrary: fc.record({ op: fc.constant('log' as const), device, ch: fc.nat(3), month: fc.nat(2), data: fc.nat(1000), mode: fc.constantFrom('replace' as const, 'combine' as const) }) },
+  {
+    weight: 5,
+    arbitrary: fc.record({
+      op: fc.constant('log' as const),
+      device,
+      ch: fc.nat(3),
+      month: fc.nat(2),
+      data: fc.nat(1000),
+      mode: fc.constantFrom('replace' as const, 'combine' as const)
+    })
+  },
   { weight: 1, arbitrary: fc.record({ op: fc.constant('rename' as const), device, target: fc.nat(5) }) },
   { weight: 1, arbitrary: fc.record({ op: fc.constant('removeSite' as const), device, target: fc.nat(1) }) },
   { weight: 1, arbitrary: fc.record({ op: fc.constant('undoRemove' as const), device }) },
   { weight: 1, arbitrary: fc.record({ op: fc.constant('addProcess' as const), device, target: fc.nat(1) }) },
-  { weight: 1, arbitrary: fc.record({ op: fc.constant('deleteStudy' as const), device, ch: fc.nat(3), month: fc.nat(2) }) },
-  { weight: 4, arbitrary: fc.record({ op: fc.constant('send' as const), from: device, to: device, everything: fc.boolean(), settle: fc.nat(1000) }) },
+  {
+    weight: 1,
+    arbitrary: fc.record({ op: fc.constant('deleteStudy' as const), device, ch: fc.nat(3), month: fc.nat(2) })
+  },
+  {
+    weight: 4,
+    arbitrary: fc.record({
+      op: fc.constant('send' as const),
+      from: device,
+      to: device,
+      everything: fc.boolean(),
+      settle: fc.nat(1000)
+    })
+  },
   { weight: 1, arbitrary: fc.record({ op: fc.constant('fastFile' as const), to: device }) }
 );
 
@@ -71,7 +93,8 @@ afterAll(async () => {
 
 function dataFor(seed: number, counted: boolean): StudyData {
   if (counted) return { kind: 'defectives', units: 100 + (seed % 900), defectives: seed % 7 };
-  if (seed % 3 === 0) return { kind: 'raw', values: Array.from({ length: 8 }, (_, i) => 10 + ((seed + i * 37) % 50) / 100) };
+  if (seed % 3 === 0)
+    return { kind: 'raw', values: Array.from({ length: 8 }, (_, i) => 10 + ((seed + i * 37) % 50) / 100) };
   return { kind: 'summary', n: 5 + (seed % 40), mean: 10 + (seed % 100) / 200, sd: 0.1 + (seed % 30) / 100 };
 }
 
@@ -84,7 +107,8 @@ function allNumbersFinite(value: unknown): boolean {
 async function allRecords(s: CapstanStorage): Promise<Map<string, { kind: RecordKind; record: RecordMeta }>> {
   const { records } = await s.exchange.collect({ kind: 'everything' });
   const out = new Map<string, { kind: RecordKind; record: RecordMeta }>();
-  for (const kind of RECORD_KINDS) for (const r of records[kind] as RecordMeta[]) out.set(r.id, { kind, record: r });
+  for (const kind of RECORD_KINDS)
+    for (const r of records[kind] as RecordMeta[]) out.set(r.id, { kind, record: r });
   return out;
 }
 
@@ -95,7 +119,9 @@ describe('random multi-device histories', { timeout: 900_000 }, () => {
     await fc.assert(
       fc.asyncProperty(fc.array(opArb, { minLength: 4, maxLength: 16 }), async (generated) => {
         // CAPSTAN_HISTORY replays one history (a counterexample printed by a failing run).
-        const ops: Op[] = process.env.CAPSTAN_HISTORY ? (JSON.parse(process.env.CAPSTAN_HISTORY) as Op[]) : generated;
+        const ops: Op[] = process.env.CAPSTAN_HISTORY
+          ? (JSON.parse(process.env.CAPSTAN_HISTORY) as Op[])
+          : generated;
         for (const s of devices) await closeDevice(s);
         clock = T0;
         vi.setSystemTime(clock);
@@ -170,7 +196,12 @@ describe('random multi-device histories', { timeout: 900_000 }, () => {
             if (op.op === 'log') {
               const c = chars[op.ch]!;
               const outcome = await s.studies.logOne(
-                { characteristicId: c.id, period: MONTHS[op.month]!, data: dataFor(op.data, c.counted), enteredBy: `d${op.device}` },
+                {
+                  characteristicId: c.id,
+                  period: MONTHS[op.month]!,
+                  data: dataFor(op.data, c.counted),
+                  enteredBy: `d${op.device}`
+                },
                 op.mode
               );
               entered.set(outcome.study.id, op.device);
@@ -180,7 +211,8 @@ describe('random multi-device histories', { timeout: 900_000 }, () => {
               const all = [...live, ...procs];
               const r = all[op.target % Math.max(1, all.length)];
               if (!r) continue;
-              if ('timeZone' in r) await s.sites.update(r.id, { name: `${r.name}'`, region: r.region, timeZone: r.timeZone });
+              if ('timeZone' in r)
+                await s.sites.update(r.id, { name: `${r.name}'`, region: r.region, timeZone: r.timeZone });
               else
                 await s.processes.update(r.id, {
                   siteId: r.siteId,
@@ -221,7 +253,11 @@ describe('random multi-device histories', { timeout: 900_000 }, () => {
             }
           } catch (error) {
             // A refusal the app would show (a deleted characteristic, a stale edit) — nothing to check here.
-            if (!(error instanceof Error) || !/does not exist|was changed elsewhere|deleted/.test(error.message)) throw error;
+            if (
+              !(error instanceof Error) ||
+              !/does not exist|was changed elsewhere|deleted/.test(error.message)
+            )
+              throw error;
           }
         }
 
@@ -250,7 +286,9 @@ describe('random multi-device histories', { timeout: 900_000 }, () => {
           return r !== undefined && r.record.deletedAt === undefined;
         };
         // 2. One live study per characteristic and month.
-        const studies = [...records.values()].filter((r) => r.kind === 'studies').map((r) => r.record as Study);
+        const studies = [...records.values()]
+          .filter((r) => r.kind === 'studies')
+          .map((r) => r.record as Study);
         expect(liveMonthClashes(studies)).toEqual([]);
         for (const { kind, record } of records.values()) {
           // 3. No live record under a deleted or missing parent.
@@ -295,12 +333,15 @@ function ident(d: number) {
 }
 
 /** Settles conflicts as a person might: each by a choice of its own, or all by one rule (from the seed). */
-function settleRandomly(seed: number): (c: { key: string; type: string; canCombine?: boolean }[]) => MergeChoices {
+function settleRandomly(
+  seed: number
+): (c: { key: string; type: string; canCombine?: boolean }[]) => MergeChoices {
   return (conflicts) => {
     if (seed % 4 === 0) return { rule: (['newer', 'local', 'incoming'] as const)[seed % 3]! };
     const perConflict: Record<string, ConflictChoice> = {};
     conflicts.forEach((c, i) => {
-      const options: ConflictChoice[] = c.type === 'same-month' && c.canCombine ? ['local', 'incoming', 'combine'] : ['local', 'incoming'];
+      const options: ConflictChoice[] =
+        c.type === 'same-month' && c.canCombine ? ['local', 'incoming', 'combine'] : ['local', 'incoming'];
       perConflict[c.key] = options[(seed + i * 7) % options.length]!;
     });
     return { perConflict };
@@ -325,9 +366,20 @@ async function importAll(
   const choices = typeof settle === 'function' ? settle(plan.conflicts) : settle;
   if (process.env.CAPSTAN_HISTORY)
     console.log(
-      'import into', s.deviceId.slice(0, 4), 'from', set.header.exportedBy.deviceName,
-      plan.conflicts.map((c) => [c.type, c.nature, c.kind, c.local?.id.slice(0, 8), c.incoming?.id.slice(0, 8)]),
-      set.records.studies.map((x) => `${x.id.slice(0, 8)} ${x.period} ${x.deletedAt ? 'dead' : 'live'}`).join(' | '),
+      'import into',
+      s.deviceId.slice(0, 4),
+      'from',
+      set.header.exportedBy.deviceName,
+      plan.conflicts.map((c) => [
+        c.type,
+        c.nature,
+        c.kind,
+        c.local?.id.slice(0, 8),
+        c.incoming?.id.slice(0, 8)
+      ]),
+      set.records.studies
+        .map((x) => `${x.id.slice(0, 8)} ${x.period} ${x.deletedAt ? 'dead' : 'live'}`)
+        .join(' | '),
       JSON.stringify(choices)
     );
   const result = await s.exchange.apply(plan, choices, {

@@ -88,7 +88,9 @@ describe('amounts in several currencies', () => {
     ]);
     expect(control.savingReporting).toBeUndefined();
     expect(f.headline.costReporting).toBeUndefined();
-    expect(f.assumptions.find((a) => a.topic === 'currencies')!.explanation).toMatch(/never added across them/);
+    expect(f.assumptions.find((a) => a.topic === 'currencies')!.explanation).toMatch(
+      /never added across them/
+    );
   });
 
   it('converts at the rates entered, states them, and gives no total while a currency lacks a rate', () => {
