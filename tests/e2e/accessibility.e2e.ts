@@ -1,3 +1,4 @@
+import { DEMO_QUARTER } from './demo-dates';
 import { expect, test, type Page } from '@playwright/test';
 import { createRequire } from 'node:module';
 import { startStaticServer, type RunningServer } from './static-server';
@@ -78,7 +79,7 @@ test('every main page passes an automated accessibility check with no serious vi
       'quarterly review',
       async () => {
         await nav('Quarterly review').click();
-        await page.getByTestId('quarter').selectOption('2026-Q3');
+        await page.getByTestId('quarter').selectOption(DEMO_QUARTER);
         await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
       }
     ],

@@ -5,13 +5,14 @@ import { join } from 'node:path';
 import { canonicalJson } from '../../src/lib/domain/canonical-json';
 import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../support/chromium.mjs';
+import { QUIET_MONTH } from './demo-dates';
 import { startStaticServer, waitForServiceWorker, type RunningServer } from './static-server';
 
 /**
  * Two devices in two separate Chromium profiles (own user-data directories, so own IndexedDB): the quality
  * office and a site lead, meeting only through files.
  */
-const MONTH = '2027-01';
+const MONTH = QUIET_MONTH;
 let server: RunningServer;
 const work = mkdtempSync(join(tmpdir(), 'capstan-exchange-e2e-'));
 const profiles: { context: BrowserContext; dir: string }[] = [];
@@ -179,7 +180,7 @@ test('a site lead and the quality office stay in step through files, and a cross
   await openFile(office.page, crossing);
   const conflict = office.page.getByTestId('conflict');
   await expect(conflict).toHaveCount(1);
-  await expect(conflict).toContainText('edited on both sides');
+  await expect(conflict).toContainText('Edited on both devices');
   await expect(conflict.locator('tr').filter({ hasText: 'levels' })).toContainText('"key":2');
   await expect(conflict.locator('tr').filter({ hasText: 'levels' })).toContainText('"key":1.5');
   await expect(office.page.getByTestId('confirm-merge')).toBeDisabled();
@@ -204,6 +205,73 @@ test('a site lead and the quality office stay in step through files, and a cross
   await expect(site.page.getByTestId('backup-status')).toContainText('Last file saved from this device');
 });
 
+async function logSummary(page: Page, n: string, mean: string) {
+  await nav(page, 'Monthly log').click();
+  await page.getByTestId('log-site').selectOption({ label: 'North Ridge Machining' });
+  await page.getByLabel('Reporting month').fill(MONTH);
+  await page
+    .getByRole('button', { name: 'Log Leak rate (Gearbox housing leak test — test bench 1)' })
+    .click();
+  const panel = page.getByTestId('entry-panel');
+  await panel.getByRole('textbox', { name: 'n', exact: true }).fill(n);
+  await panel.getByRole('textbox', { name: 'Mean', exact: true }).fill(mean);
+  await panel.getByRole('textbox', { name: 'Standard deviation', exact: true }).fill('0.45');
+  await panel.getByRole('button', { name: 'Save study' }).click();
+  await expect(page.getByTestId('saved-notice')).toContainText(`Saved ${MONTH}`);
+}
+
+test('one month logged on two devices is a conflict shown with both studies, and combining keeps one study', async () => {
+  test.setTimeout(180_000);
+  const office = await device('office', 'Quality office');
+  await nav(office.page, 'Portfolio').click();
+  await office.page.getByTestId('load-demo').click();
+  await expect(office.page.getByTestId('portfolio-table')).toBeVisible();
+  const setup = await saveFile(office.page, { site: 'North Ridge Machining' }, 'm1-setup');
+  const site = await device('site', 'North Ridge lead');
+  await openFile(site.page, setup);
+  await confirmMerge(site.page);
+
+  // The site lead logs the month offline; the office, not knowing, logs the same month.
+  await site.context.setOffline(true);
+  await logSummary(site.page, '60', '2.40');
+  await logSummary(office.page, '80', '2.31');
+  const results = await saveFile(site.page, { recipient: 'Quality office' }, 'm2-results');
+
+  await openFile(office.page, results);
+  const conflict = office.page.getByTestId('conflict');
+  await expect(conflict).toHaveCount(1);
+  await expect(conflict).toContainText('This month was logged on both devices');
+  await expect(conflict).toContainText(
+    `Study of ${MONTH}, Leak rate — Gearbox housing leak test — test bench 1 — North Ridge Machining`
+  );
+  await expect(conflict.locator('tr').filter({ hasText: /^n/ }).first()).toContainText('80');
+  await expect(conflict.locator('tr').filter({ hasText: /^n/ }).first()).toContainText('60');
+  await expect(conflict.locator('tr').filter({ hasText: 'entered by' })).toContainText('Quality office');
+  await expect(conflict.locator('tr').filter({ hasText: 'entered by' })).toContainText('North Ridge lead');
+  await expect(office.page.getByTestId('confirm-merge')).toBeDisabled();
+  await conflict.getByRole('radio', { name: /Combine both/ }).check();
+  await confirmMerge(office.page);
+
+  // One study for the month, with both samples pooled; the process page loads.
+  await nav(office.page, 'Portfolio').click();
+  await office.page
+    .getByTestId('portfolio-table')
+    .getByText('Gearbox housing leak test — test bench 1')
+    .first()
+    .click();
+  await expect(office.page.getByRole('heading', { level: 1 })).toContainText('Gearbox housing leak test');
+  const back = await saveFile(office.page, { site: 'North Ridge Machining' }, 'm3-office');
+  const studies = (await recordsOf(back)).studies.filter((x) => x.period === MONTH && !x.deletedAt);
+  expect(studies).toHaveLength(1);
+  expect(studies[0]!.data).toMatchObject({ kind: 'summary', n: 140 });
+
+  // The settled month travels back to the site without another question.
+  await site.context.setOffline(false);
+  await openFile(site.page, back);
+  await expect(site.page.getByTestId('conflict')).toHaveCount(0);
+  await confirmMerge(site.page);
+});
+
 test('text from an imported file is shown as text everywhere, never as markup', async () => {
   test.setTimeout(120_000);
   const { buildMarkupFile } = await import('./markup-file');
@@ -212,10 +280,11 @@ test('text from an imported file is shown as text everywhere, never as markup', 
   const office = await device('markup', 'Office');
   await openFile(office.page, path);
   await confirmMerge(office.page);
-  const injected = '#x-site, #x-img, #x-proc, #x-ch, #x-proj, #x-unit, #x-note, #x-device, img[src="x"]';
+  const injected =
+    '#x-site, #x-img, #x-img2, #x-script, #x-proc, #x-ch, #x-proj, #x-unit, #x-note, #x-device, img[src="x"]';
   const page = office.page;
   await nav(page, 'Portfolio').click();
-  await expect(page.getByTestId('portfolio-table')).toContainText('<b id="x-site">Bold</b> Works');
+  await expect(page.getByTestId('portfolio-table')).toContainText('<b id="x-site">Bold</b> Works<script');
   await expect(page.locator(injected)).toHaveCount(0);
   await page.getByTestId('portfolio-table').getByText('"><b id="x-proc">Casting').first().click();
   await expect(page.getByRole('heading', { level: 1 })).toContainText('"><b id="x-proc">Casting');
@@ -234,6 +303,7 @@ test('text from an imported file is shown as text everywhere, never as markup', 
     await page.waitForTimeout(300);
     await expect(page.locator(injected)).toHaveCount(0);
   }
+  expect(await page.evaluate(() => document.body.dataset.pwned)).toBeUndefined();
 });
 
 test('changes in no saved file for longer than the set days bring a reminder, which a saved file clears', async ({

@@ -1,7 +1,10 @@
 import { expect, test, type Page } from '@playwright/test';
+import { addMonths } from '../../src/lib/domain/period';
+import { QUIET_MONTH } from './demo-dates';
 import { startStaticServer, type RunningServer } from './static-server';
 
-const MONTH = '2027-02';
+const MONTH = QUIET_MONTH;
+const [YEAR, MM] = MONTH.split('-') as [string, string];
 let server: RunningServer;
 test.beforeEach(async () => {
   server = await startStaticServer();
@@ -41,12 +44,12 @@ test('imports a CSV with semicolons and decimal commas, mapped by column, after 
     'Merkmal;Datum;Wert',
     ...Array.from(
       { length: 30 },
-      (_, i) => `Cap removal torque;${String((i % 28) + 1).padStart(2, '0')}.02.2027;1,${70 + (i % 9)}`
+      (_, i) => `Cap removal torque;${String((i % 28) + 1).padStart(2, '0')}.${MM}.${YEAR};1,${70 + (i % 9)}`
     ),
     ...Array.from(
       { length: 25 },
       (_, i) =>
-        `Oat bar baking — oven 1 / Moisture content;2027-02-${String((i % 20) + 1).padStart(2, '0')};10,${10 + i}`
+        `Oat bar baking — oven 1 / Moisture content;${MONTH}-${String((i % 20) + 1).padStart(2, '0')};10,${10 + i}`
     )
   ];
   await page.getByTestId('import-file').setInputFiles(csv('februar.csv', rows.join('\r\n')));
@@ -105,7 +108,7 @@ test('a million-row file is read in the background: the page answers clicks, and
   await expect(page.getByTestId('import-progress')).toBeVisible();
   // While the worker reads, the page still handles input.
   await page.getByRole('button', { name: '‹ Earlier month' }).click();
-  await expect(page.getByLabel('Reporting month')).toHaveValue('2027-01');
+  await expect(page.getByLabel('Reporting month')).toHaveValue(addMonths(MONTH, -1));
   await expect(page.getByTestId('import-progress')).toBeVisible();
   await page.getByTestId('import-cancel').click();
   await expect(page.getByTestId('import-message')).toHaveText('Reading cancelled. Nothing was imported.');

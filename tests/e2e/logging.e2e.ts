@@ -1,8 +1,9 @@
 import { expect, test, type Page } from '@playwright/test';
+import { QUIET_MONTH } from './demo-dates';
 import { startStaticServer, waitForServiceWorker, type RunningServer } from './static-server';
 
 // A month with no demo data, so every characteristic starts "not yet logged" whatever today's date is.
-const MONTH = '2027-01';
+const MONTH = QUIET_MONTH;
 // A German locale: decimal comma and point as thousands separator, as many sites type.
 test.use({ locale: 'de-DE' });
 

@@ -2,9 +2,10 @@ import { stampNew, type WriteContext } from '../../src/lib/domain/record-meta';
 import { changeSetOf, encodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 
 /**
- * A valid exchange file whose every name carries markup that would create elements if any part of the app
- * rendered it as HTML (invented data: a fictional foundry). Harmless tags pass the import's markup check, so
- * they reach every page; the test then proves none of them became an element.
+ * A valid exchange file whose every name carries markup that would create elements or run code if any part of
+ * the app rendered it as HTML (invented data: a fictional foundry): plain tags, event handlers, a script, the
+ * slash-separated `<img/src=x/onerror=…>` and an entity-written `javascript:` link. The reader does not screen
+ * text for markup (no screen is complete); the test proves none of it ever becomes an element or runs.
  */
 export async function buildMarkupFile(): Promise<Uint8Array> {
   let n = 0;
@@ -14,14 +15,18 @@ export async function buildMarkupFile(): Promise<Uint8Array> {
     newId: () => `00000000-0000-4000-8000-${String(++n).padStart(12, '0')}`
   };
   const site = stampNew(
-    { name: '<b id="x-site">Bold</b> Works', region: '<img src=x id="x-img">', timeZone: 'UTC' },
+    {
+      name: '<b id="x-site">Bold</b> Works<script id="x-script">document.body.dataset.pwned = "1"</script>',
+      region: '<img src=x id="x-img" onerror="document.body.dataset.pwned = 1">',
+      timeZone: 'UTC'
+    },
     ctx
   );
   const process = stampNew(
     {
       siteId: site.id,
       name: '"><b id="x-proc">Casting',
-      owner: '<i>owner</i>',
+      owner: '<img/src=x/id=x-img2/onerror=document.body.dataset.pwned=1>',
       contextId: 'vehicle-parts',
       monthlyVolume: 2000,
       costPerDefective: 9,
@@ -53,7 +58,7 @@ export async function buildMarkupFile(): Promise<Uint8Array> {
           values: Array.from({ length: 30 }, () => Math.round((10 + next()) * 1000) / 1000)
         },
         enteredBy: '<b>lead</b>',
-        note: '<b id="x-note">note</b>'
+        note: '<a id="x-note" href="&#106;avascript:document.body.dataset.pwned=1">note</a>'
       },
       ctx
     )

@@ -1,3 +1,4 @@
+import { DEMO_QUARTER } from './demo-dates';
 import { expect, test } from '@playwright/test';
 import { readFileSync } from 'node:fs';
 import { startStaticServer, type RunningServer } from './static-server';
@@ -59,7 +60,7 @@ test('every area of the navigation shows stored data, and charts arrive only whe
   await expect(page.getByTestId('open-count')).toContainText('characteristics');
 
   await page.getByRole('link', { name: 'Quarterly review' }).click();
-  await page.getByTestId('quarter').selectOption('2026-Q3');
+  await page.getByTestId('quarter').selectOption(DEMO_QUARTER);
   await expect(page.getByTestId('reporting-share')).toContainText('%');
   await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
   expect(scripts.length).toBeGreaterThan(beforeReview);

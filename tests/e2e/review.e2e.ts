@@ -4,7 +4,8 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { BUILT_IN_PROFILES } from '../../src/lib/domain/context-profile';
-import { parseDemoPortfolio } from '../../src/lib/domain/demo-portfolio';
+import { periodsOfQuarter } from '../../src/lib/domain/period';
+import { DEMO_QUARTER, demoAsLoaded } from './demo-dates';
 import { rankPortfolio } from '../../src/lib/domain/portfolio-ranking';
 import { startStaticServer, type RunningServer } from './static-server';
 
@@ -13,7 +14,7 @@ import { startStaticServer, type RunningServer } from './static-server';
  * section note, printing to PDF through Chromium (sections, pages, a rendered page that is not blank), and a
  * frozen snapshot that notices later changes.
  */
-const QUARTER = '2026-Q3';
+const QUARTER = DEMO_QUARTER;
 let server: RunningServer;
 const work = mkdtempSync(join(tmpdir(), 'capstan-review-e2e-'));
 test.beforeEach(async () => {
@@ -24,10 +25,11 @@ test.afterAll(() => rmSync(work, { recursive: true, force: true }));
 
 /** Independent of the review code: the portfolio ranking for the quarter's three months, counted by hand. */
 function expectedHeadline() {
-  const demo = parseDemoPortfolio(
-    JSON.parse(readFileSync(new URL('../../seed-data/demo-portfolio.json', import.meta.url), 'utf8'))
-  );
-  const rows = rankPortfolio(demo.records, BUILT_IN_PROFILES, { endPeriod: '2026-09', windowMonths: 3 });
+  const demo = demoAsLoaded();
+  const rows = rankPortfolio(demo.records, BUILT_IN_PROFILES, {
+    endPeriod: periodsOfQuarter(QUARTER)[2]!,
+    windowMonths: 3
+  });
   const reviewed = rows.filter((r) => r.status !== 'no recent data');
   const meeting = reviewed.filter(
     (r) => r.status === 'meets, shown' || r.status === 'meets, not shown'

@@ -1,3 +1,4 @@
+import { DEMO_QUARTER } from './demo-dates';
 import { expect, test } from '@playwright/test';
 import { startStaticServer, waitForServiceWorker, type RunningServer } from './static-server';
 
@@ -41,7 +42,7 @@ test('a full tour of the app raises no Content-Security-Policy violation', async
   await nav('Monthly log').click();
   await expect(page.getByTestId('open-count')).toBeVisible();
   await nav('Quarterly review').click();
-  await page.getByTestId('quarter').selectOption('2026-Q3');
+  await page.getByTestId('quarter').selectOption(DEMO_QUARTER);
   await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
   await nav('File exchange').click();
   const [download] = await Promise.all([

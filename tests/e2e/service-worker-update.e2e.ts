@@ -1,3 +1,4 @@
+import { QUIET_MONTH } from './demo-dates';
 import { expect, test } from '@playwright/test';
 import { execFileSync } from 'node:child_process';
 import { cpSync, mkdtempSync, rmSync } from 'node:fs';
@@ -51,7 +52,7 @@ test('a new version is offered, not forced; the unsaved entry and the data survi
 
   await nav('Monthly log').click();
   await page.getByTestId('log-site').selectOption({ label: 'Harbour Foods Filling' });
-  await page.getByLabel('Reporting month').fill('2027-01');
+  await page.getByLabel('Reporting month').fill(QUIET_MONTH);
   await page.getByRole('button', { name: 'Log Cap removal torque (Sauce jar capping — capper 2)' }).click();
   const panel = page.getByTestId('entry-panel');
   await panel.getByRole('textbox', { name: 'n', exact: true }).fill('36');
@@ -73,7 +74,7 @@ test('a new version is offered, not forced; the unsaved entry and the data survi
   await expect(page.getByTestId('portfolio-table').locator('tbody tr')).toHaveCount(32);
   await nav('Monthly log').click();
   await page.getByTestId('log-site').selectOption({ label: 'Harbour Foods Filling' });
-  await page.getByLabel('Reporting month').fill('2027-01');
+  await page.getByLabel('Reporting month').fill(QUIET_MONTH);
   await page.getByRole('button', { name: 'Log Cap removal torque (Sauce jar capping — capper 2)' }).click();
   await expect(page.getByText('Restored the entry you had not saved')).toBeVisible();
   await expect(panel.getByRole('textbox', { name: 'Mean', exact: true })).toHaveValue('1.77');

@@ -28,6 +28,17 @@ describe('the decimal mark of a block of numbers (one rule for pasting and files
     expect(inferDecimalMark(['12,5'], '.').mark).toBe(',');
   });
 
+  it('asks only where the locale would read a cell as thousands', () => {
+    // 24,995 in a decimal-comma locale is a decimal, as its writer means it; in a point locale it is asked about.
+    expect(inferDecimalMark(['24,995', '24,991'], ',')).toEqual({ mark: ',', ambiguous: false });
+    expect(inferDecimalMark(['24,995', '24,991'], '.')).toEqual({
+      mark: '.',
+      ambiguous: true,
+      example: '24,995'
+    });
+    expect(inferDecimalMark(['1.234'], ',')).toEqual({ mark: ',', ambiguous: true, example: '1.234' });
+  });
+
   it('never reads a lead group of 0 as thousands: 0,213 is not 213 under any stated mark', () => {
     expect(parseLocaleNumber('0,213', '.')).toBeUndefined();
     expect(parseLocaleNumber('0,213', ',')).toBe(0.213);

@@ -4,10 +4,11 @@
  * - `12,5`, `0,213`, `1,2345` can only be a decimal comma; `12.5`, `0.213` only a decimal point;
  * - `1.234,5` and `1,234.5`: the last separator is the decimal mark;
  * - `1,234,567` (two groups) can only be grouping, so the mark is the other one; likewise `1.234.567`;
- * - `1,234` and `1.234` (one group of three digits after a non-zero lead) are ambiguous: grouping or decimal.
- * A block with evidence for one mark only takes it; with no evidence the person's locale decides, and if
- * ambiguous cells are present the person must be asked (`ambiguous`); with evidence for both, the person is
- * asked as well.
+ * - `1,234` and `1.234` (one group of three digits after a non-zero lead) could be either.
+ * A block with evidence for one mark only takes it. With no evidence the person's locale decides: cells like
+ * `24,995` in a decimal-comma locale read as decimals, as that person means them; but where the locale would
+ * read such a cell as thousands (`1,234` in a decimal-point locale, the pasted-from-another-country case) the
+ * person must be asked (`ambiguous`). With evidence for both marks, the person is asked as well.
  */
 export interface DecimalMarkReading {
   mark: '.' | ',';
@@ -50,7 +51,8 @@ export function inferDecimalMark(cells: Iterable<string>, fallback: '.' | ','): 
     const e = evidenceOf(cell);
     if (e === '.') point++;
     else if (e === ',') comma++;
-    else if (e === 'ambiguous') example ??= cell.trim();
+    // Ambiguous only where the locale would read the separator as grouping.
+    else if (e === 'ambiguous' && !cell.includes(fallback)) example ??= cell.trim();
   }
   if (point > 0 && comma > 0) {
     return { mark: point >= comma ? '.' : ',', ambiguous: true, example: example ?? 'the values' };

@@ -93,24 +93,27 @@ export function studyDataFromForm(form: EntryForm, decimal: DecimalMark = 'auto'
     }
     case 'raw': {
       const localeMark = decimal === ',' ? ',' : '.';
-      const pasted = parsePastedValues(form.raw, form.rawDecimal || 'auto', localeMark);
-      if (pasted.decimal.ambiguous) {
-        const example = pasted.decimal.example ?? '';
-        const asPoint = parseLocaleNumber(example, '.');
-        const asComma = parseLocaleNumber(example, ',');
+      // The question stays on screen once answered, so the answer can be changed.
+      const open = parsePastedValues(form.raw, 'auto', localeMark).decimal;
+      const askDecimal = open.ambiguous
+        ? {
+            example: open.example ?? '',
+            withPoint: String(parseLocaleNumber(open.example ?? '', '.') ?? '—'),
+            withComma: String(parseLocaleNumber(open.example ?? '', ',') ?? '—')
+          }
+        : undefined;
+      if (askDecimal && !form.rawDecimal) {
         problems.push({
           field: 'raw',
-          message: `'${example}' can be read two ways: say whether these values use a decimal point or a decimal comma`
+          message: `'${askDecimal.example}' can be read two ways: say whether these values use a decimal point or a decimal comma`
         });
-        return {
-          problems,
-          askDecimal: {
-            example,
-            withPoint: asPoint === undefined ? '—' : String(asPoint),
-            withComma: asComma === undefined ? '—' : String(asComma)
-          }
-        };
+        return { problems, askDecimal };
       }
+      const pasted = parsePastedValues(
+        form.raw,
+        askDecimal ? (form.rawDecimal as '.' | ',') : 'auto',
+        localeMark
+      );
       for (const p of pasted.problems)
         problems.push({ field: 'raw', message: `line ${p.line}: ${p.message}` });
       if (pasted.values.length === 0 && problems.length === 0)
@@ -118,8 +121,10 @@ export function studyDataFromForm(form: EntryForm, decimal: DecimalMark = 'auto'
       const decimalMark = pasted.decimal.mark;
       const groups = pasted.subgroups ? new Set(pasted.subgroups).size : 0;
       const rawSummary = `${pasted.values.length} value${pasted.values.length === 1 ? '' : 's'}${groups ? ` in ${groups} subgroups` : ''}${pasted.header ? `; header '${pasted.header.join(', ')}' skipped` : ''}`;
-      if (problems.length) return { problems, rawSummary, decimalMark };
+      if (problems.length)
+        return { problems, rawSummary, decimalMark, ...(askDecimal ? { askDecimal } : {}) };
       return {
+        ...(askDecimal ? { askDecimal } : {}),
         data: {
           kind: 'raw',
           values: pasted.values,
