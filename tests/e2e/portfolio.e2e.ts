@@ -38,7 +38,7 @@ test('loads the demo portfolio and lists every process; a click opens its proces
     const figures = page.getByRole('region', {
       name: new RegExp(`Capability figures: ${c.name}, latest month`)
     });
-    await expect(figures).toContainText('z-level (one-tail equivalent)');
+    await expect(figures).toContainText('z-level, long-term (one-tail equivalent)');
     await expect(figures.getByRole('heading', { name: 'Assumptions' })).toBeVisible();
     await expect(figures).toContainText('qualified people prevail');
   }

@@ -112,7 +112,7 @@ test('the review of a demo quarter shows the right headline, keeps a note and pr
     page.getByRole('button', { name: `Download capstan-review-${QUARTER}-shortfalls.csv` }).click()
   );
   expect(csv.bytes.toString('utf8').split('\r\n')[0]).toBe(
-    'rank,process,site,z-level,required z,gap,ppm,cost per year,currency,weakest,what would help'
+    'rank,process,site,z-level,z-level basis,required z,gap,ppm,cost per year,currency,weakest,what would help'
   );
 
   const pdfPath = join(work, 'review.pdf');
