@@ -1,10 +1,9 @@
 import { writeFile } from 'node:fs/promises';
 import { basename } from 'node:path';
-import { KIND_LABEL } from '../lib/domain/record-kinds';
+import { KIND_LABEL, type RecordsByKind } from '../lib/domain/record-kinds';
 import type { ConflictRule } from '../lib/domain/record-merge';
 import { summariseConflict } from '../lib/domain/conflict-summary';
 import { RecordIndex } from '../lib/domain/record-index';
-import type { RecordsByKind } from '../lib/domain/record-kinds';
 import { mergeRecordSets } from '../lib/domain/record-set-merge';
 import { changeSetOf, encodeExchangeFile } from '../lib/exchange/exchange-file';
 import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';

@@ -50,8 +50,8 @@ describe('bad exchange files', () => {
       const message = await offer(new Uint8Array(readFileSync(new URL(entry.file, dir))));
       expect(message).toContain(entry.expect);
       expect(message).not.toContain('\n');
-      // eslint-disable-next-line no-control-regex
       expect(message, 'no control character from the file reaches the message').not.toMatch(
+        // eslint-disable-next-line no-control-regex
         /[\u0000-\u001f\u007f-\u009f]/
       );
       expect(message.length).toBeLessThan(400);

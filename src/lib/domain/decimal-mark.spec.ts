@@ -3,7 +3,6 @@ import { inferDecimalMark } from './decimal-mark';
 import { implausibleEntry, studyDataFromForm, emptyEntryForm } from './entry-form';
 import { parseLocaleNumber } from './locale-number';
 import { parsePastedValues } from './pasted-values';
-import { detectDelimiter, readMeasurementCsv } from '../exchange/measurement-csv';
 
 describe('the decimal mark of a block of numbers (one rule for pasting and files)', () => {
   it.each([
@@ -70,12 +69,6 @@ describe('pasted values with decimal commas in a point-decimal browser', () => {
       kind: 'raw',
       values: [1234, 1250, 1241]
     });
-  });
-
-  it('reads a one-column file of decimal commas as one column', () => {
-    const text = 'Wert\n0,213\n0,198\n0,207\n';
-    expect(detectDelimiter(text)).toBe(';');
-    expect(readMeasurementCsv(text).values).toEqual([0.213, 0.198, 0.207]);
   });
 });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { CsvInputError, readMeasurementCsv } from './measurement-csv';
+import { CsvInputError, detectDelimiter, readMeasurementCsv } from './measurement-csv';
 
 describe('measurement CSV reading', () => {
   it('reads comma CSV with a header and picks the first numeric column', () => {
@@ -40,5 +40,13 @@ describe('measurement CSV reading', () => {
       "No value column 'width'; the columns are 'a', 'b'"
     );
     expect(() => readMeasurementCsv('   \n')).toThrow('The file is empty');
+  });
+});
+
+describe('decimal commas in a one-column file', () => {
+  it('reads a one-column file of decimal commas as one column', () => {
+    const text = 'Wert\n0,213\n0,198\n0,207\n';
+    expect(detectDelimiter(text)).toBe(';');
+    expect(readMeasurementCsv(text).values).toEqual([0.213, 0.198, 0.207]);
   });
 });
