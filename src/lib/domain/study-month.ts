@@ -1,4 +1,4 @@
-import { compareEdits } from './record-merge';
+import { compareEdits } from './edit-order';
 import { isLive } from './record-meta';
 import type { Study } from './study';
 

@@ -8,7 +8,7 @@ import type { HybridClock } from '../domain/hybrid-clock';
 import type { RecordsByKind } from '../domain/record-kinds';
 import { loadBackupStatus, type BackupStatus } from './backup-status';
 import type { MergeChoices } from '../domain/change-set-merge';
-import { parseReportingCurrency, type ReportingCurrency } from '../domain/reporting-currency';
+import type { ReportingCurrency } from '../domain/reporting-currency';
 import type { CollectedChanges, ExportScope, ImportPlan, ImportResult, PeerRecord } from './change-set-store';
 import { loadClock, loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
 import { ContextProfileRepository } from './context-profile-repository';
@@ -16,7 +16,7 @@ import { EntryDraftRepository } from './entry-draft-repository';
 import { createImprovementProjectRepository } from './improvement-project-repository';
 import { createProcessRepository } from './process-repository';
 import type { RecordRepository } from './record-repository';
-import { MonthClashRepository } from './month-clash-repository';
+import type { MonthSettlement, PendingMonth } from './month-clash-repository';
 import { QuarterReviewRepository } from './quarter-review-repository';
 import { CURRENT_SCHEMA_VERSION } from './schema-versions';
 import { BLOCKED_MESSAGE, explainOpenError, explainStorageError } from './storage-errors';
@@ -48,7 +48,10 @@ export interface CapstanStorage {
   readonly profiles: ContextProfileRepository;
   readonly reviews: QuarterReviewRepository;
   /** Months holding two live studies from before schema v7, waiting for a person (pending conflicts). */
-  readonly monthClashes: MonthClashRepository;
+  readonly monthClashes: {
+    list(): Promise<PendingMonth[]>;
+    settle(key: string, choice: MonthSettlement): Promise<void>;
+  };
   /** Read models for the pages; each is safe to run inside a live query. */
   readonly read: {
     processOverviews(): Promise<ProcessOverview[]>;
@@ -144,7 +147,12 @@ export async function openStorage(
     drafts: new EntryDraftRepository(db),
     profiles: new ContextProfileRepository(db, ctx),
     reviews: new QuarterReviewRepository(db, ctx),
-    monthClashes: new MonthClashRepository(db, ctx),
+    // Loaded on first use: only the File exchange page lists pending months.
+    monthClashes: {
+      list: async () => new (await import('./month-clash-repository')).MonthClashRepository(db, ctx).list(),
+      settle: async (key, choice) =>
+        new (await import('./month-clash-repository')).MonthClashRepository(db, ctx).settle(key, choice)
+    },
     read: {
       processOverviews: () => listProcessOverviews(db),
       portfolioRecords: () => loadPortfolioRecords(db),
@@ -182,10 +190,12 @@ export async function openStorage(
     loadDemo: (file) => loadDemoPortfolio(db, file),
     deviceName: () => loadDeviceName(db),
     setDeviceName: (name) => saveDeviceName(db, name),
+    // Loaded on first use: only Settings and the review need the rates.
     reportingCurrency: async () => {
       const v = (await db.deviceSettings.get(REPORTING_CURRENCY_KEY))?.value;
+      if (v === undefined) return undefined;
       try {
-        return v === undefined ? undefined : parseReportingCurrency(v);
+        return (await import('../domain/reporting-currency')).parseReportingCurrency(v);
       } catch {
         return undefined;
       }
@@ -195,7 +205,7 @@ export async function openStorage(
         await db.deviceSettings.delete(REPORTING_CURRENCY_KEY);
         return undefined;
       }
-      const parsed = parseReportingCurrency(value);
+      const parsed = (await import('../domain/reporting-currency')).parseReportingCurrency(value);
       await db.deviceSettings.put({ key: REPORTING_CURRENCY_KEY, value: parsed });
       return parsed;
     },
