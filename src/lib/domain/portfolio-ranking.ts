@@ -5,7 +5,6 @@ import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './con
 import type { ImprovementProject } from './improvement-project';
 import { addMonths } from './period';
 import type { Process } from './process';
-import type { Site } from './site';
 import type { Study } from './study';
 import { capabilityOfStudy } from './study-capability';
 import { windowData } from './window-study';
@@ -30,7 +29,6 @@ import {
   type Badge,
   type CharacteristicRow,
   type CharacteristicStatus,
-  type FiguresCache,
   type PortfolioRecords,
   type ProcessRow,
   type RankingOptions,
