@@ -6,23 +6,37 @@ import ts from 'typescript-eslint';
 import svelteConfig from '../svelte.config.js';
 
 /**
- * Layer rules: dependencies point inwards (ui → domain/storage/exchange → stats). Each layer lists what it
- * must not import; a violation is an error, not a warning.
+ * Layer rules: dependencies point inwards (ui → exchange → storage → domain → stats; workers use domain and
+ * stats; the command line uses stats, domain and exchange). Each layer lists what it must not import, as
+ * gitignore-style patterns that match at any folder depth and through the `$lib` alias (the storage
+ * pattern catches `../../storage/x` and `$lib/storage/x` alike). A violation is an error. tests/unit/layer-rules.spec.ts
+ * lints a probe file for every rule, so that no rule can silently open again.
  */
-const layer = (files, forbidden, why) => ({
+const layer = (files, forbidden, why, names = []) => ({
   files,
   rules: {
     'no-restricted-imports': [
       'error',
       {
-        patterns: forbidden.map((group) => ({
-          group: [group],
-          message: `${why} (layer rule, see DEVELOPERS.md)`
-        }))
+        patterns: [
+          ...forbidden.map((group) => ({
+            group: [group],
+            message: `${why} (layer rule, see DEVELOPERS.md)`
+          })),
+          ...names.map(({ group, importNames }) => ({
+            group: [group],
+            importNames,
+            message: `${why} (layer rule, see DEVELOPERS.md)`
+          }))
+        ]
       }
     ]
   }
 });
+
+/** Every folder of a layer, however it is reached. */
+const any = (folder) => [`**/${folder}`, `**/${folder}/**`, `$lib/${folder}`, `$lib/${folder}/**`];
+const DATABASE = ['**/storage/database', '**/storage/schema-versions', '**/storage/local-sequence'];
 
 /** The browser-side frameworks: only UI code and pages may import them. */
 const FRAMEWORKS = ['svelte', 'svelte/*', 'echarts', 'echarts/*', '$app/*'];
@@ -66,37 +80,57 @@ export default ts.config(
   },
   layer(
     ['src/lib/stats/**'],
-    ['$lib/*', '../domain/*', '../storage/*', '../exchange/*', '../ui/*', 'dexie', ...FRAMEWORKS],
-    'stats is pure numeric code: no domain, storage, UI, Svelte, Dexie or ECharts'
+    [
+      ...any('domain'),
+      ...any('storage'),
+      ...any('exchange'),
+      ...any('ui'),
+      ...any('workers'),
+      ...any('cli'),
+      '$lib/**',
+      'dexie',
+      ...FRAMEWORKS
+    ],
+    'stats is pure numeric code: no domain, storage, exchange, UI, workers, Svelte, Dexie or ECharts'
   ),
   layer(
     ['src/lib/domain/**'],
-    ['$lib/*', '../storage/*', '../exchange/*', '../ui/*', 'dexie', ...FRAMEWORKS],
-    'domain is pure: it may use stats, never storage, exchange or UI'
+    [
+      ...any('storage'),
+      ...any('exchange'),
+      ...any('ui'),
+      ...any('workers'),
+      ...any('cli'),
+      '$lib/**',
+      'dexie',
+      ...FRAMEWORKS
+    ],
+    'domain is pure: it may use stats, never storage, exchange, UI or workers'
   ),
   layer(
     ['src/lib/storage/**'],
-    ['$lib/*', '../ui/*', '../exchange/*', ...FRAMEWORKS],
-    'storage may use domain and stats, never UI or exchange'
+    [...any('exchange'), ...any('ui'), ...any('workers'), ...any('cli'), '$lib/**', ...FRAMEWORKS],
+    'storage may use domain and stats, never exchange, UI or workers'
   ),
   layer(
     ['src/lib/exchange/**'],
-    ['$lib/*', '../ui/*', 'dexie', ...FRAMEWORKS],
-    'exchange may use domain, storage types and stats, never UI or Dexie directly'
+    [...any('ui'), ...any('workers'), ...any('cli'), ...DATABASE, '$lib/**', 'dexie', ...FRAMEWORKS],
+    'exchange may use domain, storage repositories and types, and stats — never the database, UI or workers'
   ),
   layer(
-    ['src/lib/ui/**'],
-    ['dexie', '../storage/database', '../storage/schema-versions'],
-    'UI reaches data only through the storage repositories'
+    ['src/lib/workers/**'],
+    [...any('storage'), ...any('ui'), ...any('cli'), '$lib/**', 'dexie', ...FRAMEWORKS],
+    'workers compute on stats, domain and exchange; they never write to IndexedDB (the page commits)'
   ),
   layer(
-    ['src/routes/**'],
-    ['dexie', '$lib/storage/database', '$lib/storage/schema-versions'],
-    'pages reach data only through the storage repositories'
+    ['src/lib/ui/**', 'src/routes/**'],
+    [...DATABASE, ...any('cli'), 'dexie'],
+    'UI and pages reach data only through the storage repositories, never the database',
+    [{ group: '**/storage/storage', importNames: ['databaseOf'] }]
   ),
   layer(
     ['src/cli/**'],
-    ['$lib/*', '../lib/ui/*', 'dexie', ...FRAMEWORKS],
-    'the command line runs in Node on stats, domain and exchange'
+    [...any('ui'), ...any('storage'), ...any('workers'), '$lib/**', 'dexie', ...FRAMEWORKS],
+    'the command line runs in Node on stats, domain and exchange (there is no browser database)'
   )
 );

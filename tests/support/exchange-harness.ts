@@ -1,7 +1,7 @@
 import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 import { prepareExport } from '../../src/lib/exchange/export-change-set';
 import type { ExportScope } from '../../src/lib/storage/change-set-store';
-import { openStorage, type CapstanStorage } from '../../src/lib/storage/storage';
+import { openStorage, type CapstanStorage, databaseOf } from '../../src/lib/storage/storage';
 
 /** Helpers for exchange tests on fake-indexeddb: devices are separately named databases. */
 let counter = 0;
@@ -12,8 +12,8 @@ export async function openDevice(label: string): Promise<CapstanStorage> {
 }
 
 export async function closeDevice(s: CapstanStorage): Promise<void> {
-  s.db.close();
-  await s.db.delete();
+  databaseOf(s).close();
+  await databaseOf(s).delete();
 }
 
 /** The fixed identity used when a test compares two exports byte for byte. */

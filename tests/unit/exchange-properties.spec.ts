@@ -22,7 +22,7 @@ import {
   encodeExchangeFile,
   exchangeText
 } from '../../src/lib/exchange/exchange-file';
-import type { CapstanStorage } from '../../src/lib/storage/storage';
+import { databaseOf, type CapstanStorage } from '../../src/lib/storage/storage';
 import { closeDevice, openDevice } from '../support/exchange-harness';
 
 /**
@@ -275,11 +275,11 @@ describe('sync through the database (properties)', { timeout: 120_000 }, () => {
   };
   async function reset(...devices: CapstanStorage[]) {
     for (const s of devices)
-      await s.db.transaction(
+      await databaseOf(s).transaction(
         'rw',
-        RECORD_KINDS.map((k) => s.db.table(k)),
+        RECORD_KINDS.map((k) => databaseOf(s).table(k)),
         async () => {
-          for (const k of RECORD_KINDS) await s.db.table(k).clear();
+          for (const k of RECORD_KINDS) await databaseOf(s).table(k).clear();
         }
       );
   }

@@ -6,7 +6,7 @@ import { canonicalExport } from '../support/exchange-harness';
 import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 import { prepareExport } from '../../src/lib/exchange/export-change-set';
 import { explainStorageError, StorageProblem } from '../../src/lib/storage/storage-errors';
-import { openStorage, type CapstanStorage } from '../../src/lib/storage/storage';
+import { openStorage, type CapstanStorage, databaseOf } from '../../src/lib/storage/storage';
 import { CURRENT_SCHEMA_VERSION } from '../../src/lib/storage/schema-versions';
 
 /**
@@ -16,8 +16,8 @@ import { CURRENT_SCHEMA_VERSION } from '../../src/lib/storage/schema-versions';
 const opened: CapstanStorage[] = [];
 afterEach(async () => {
   for (const s of opened.splice(0)) {
-    s.db.close();
-    await s.db.delete();
+    databaseOf(s).close();
+    await databaseOf(s).delete();
   }
 });
 
@@ -61,9 +61,9 @@ describe('storage faults', () => {
     await target.sites.create({ name: 'Plant kept', region: '', timeZone: 'UTC' });
     const before = await canonicalExport(target);
     // Sites and processes would be written first; the disk fills up at the studies.
-    target.db.use(fullDisk('studies'));
-    target.db.close();
-    await target.db.open();
+    databaseOf(target).use(fullDisk('studies'));
+    databaseOf(target).close();
+    await databaseOf(target).open();
     const changeSet = await decodeExchangeFile(file);
     const plan = await target.exchange.preview(changeSet.records);
     const error = await target.exchange
@@ -75,7 +75,7 @@ describe('storage faults', () => {
       /^The import was not saved: this device's storage for Capstan is full, and nothing of it was written/
     );
     expect(await canonicalExport(target)).toBe(before);
-    expect(await target.db.processes.count()).toBe(0);
+    expect(await databaseOf(target).processes.count()).toBe(0);
   });
 
   it('a full disk during a save leaves the stored month as it was, and the page can say so', async () => {
@@ -84,9 +84,9 @@ describe('storage faults', () => {
     await s.loadDemo(demo);
     const characteristic = demo.records.characteristics[0]!;
     const before = await canonicalExport(s);
-    s.db.use(fullDisk('studies'));
-    s.db.close();
-    await s.db.open();
+    databaseOf(s).use(fullDisk('studies'));
+    databaseOf(s).close();
+    await databaseOf(s).open();
     const error = await s.studies
       .logOne(
         {
@@ -142,6 +142,6 @@ describe('storage faults', () => {
     old.close();
     const storage = await opening;
     opened.push(storage);
-    expect(storage.db.verno).toBe(CURRENT_SCHEMA_VERSION);
+    expect(databaseOf(storage).verno).toBe(CURRENT_SCHEMA_VERSION);
   });
 });

@@ -1,7 +1,7 @@
 import 'fake-indexeddb/auto';
 import { describe, expect, it } from 'vitest';
 import { BUILT_IN_PROFILES } from '../domain/context-profile';
-import { openStorage } from './storage';
+import { openStorage, databaseOf } from './storage';
 
 describe('context profile repository', () => {
   it('stores an edit over a built-in, revises it, and resets to the default', async () => {
@@ -30,6 +30,6 @@ describe('context profile repository', () => {
       /lowercase letters/
     );
     storage.close();
-    await storage.db.delete();
+    await databaseOf(storage).delete();
   });
 });

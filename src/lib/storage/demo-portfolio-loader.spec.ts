@@ -4,13 +4,13 @@ import demo from '../../../seed-data/demo-portfolio.json';
 import { ValidationError } from '../domain/validation-error';
 import { isPortfolioEmpty, loadDemoPortfolio } from './demo-portfolio-loader';
 import { listProcessOverviews, summariseDatabase } from './portfolio-overview';
-import { openStorage } from './storage';
+import { openStorage, databaseOf } from './storage';
 
 describe('demo portfolio loading', () => {
   it('loads every record into an empty database and refuses a second load', async () => {
     const storage = await openStorage('capstan-demo-test');
-    expect(await isPortfolioEmpty(storage.db)).toBe(true);
-    const result = await loadDemoPortfolio(storage.db, demo);
+    expect(await isPortfolioEmpty(databaseOf(storage))).toBe(true);
+    const result = await loadDemoPortfolio(databaseOf(storage), demo);
     expect(result).toEqual({
       sites: demo.records.sites.length,
       processes: demo.records.processes.length,
@@ -18,23 +18,23 @@ describe('demo portfolio loading', () => {
       studies: demo.records.studies.length,
       projects: demo.records.projects.length
     });
-    const rows = await listProcessOverviews(storage.db);
+    const rows = await listProcessOverviews(databaseOf(storage));
     expect(rows).toHaveLength(demo.records.processes.length);
     expect(rows.every((r) => r.characteristics.length >= 1 && r.characteristics.length <= 3)).toBe(true);
-    await expect(loadDemoPortfolio(storage.db, demo)).rejects.toThrow(/only into an empty database/);
-    const summary = await summariseDatabase(storage.db);
+    await expect(loadDemoPortfolio(databaseOf(storage), demo)).rejects.toThrow(/only into an empty database/);
+    const summary = await summariseDatabase(databaseOf(storage));
     expect(summary.tables.find((t) => t.name === 'Studies')?.live).toBe(demo.records.studies.length);
     storage.close();
-    await storage.db.delete();
+    await databaseOf(storage).delete();
   });
 
   it('refuses a damaged file without writing anything', async () => {
     const storage = await openStorage('capstan-demo-bad');
     const damaged = structuredClone(demo) as { records: { studies: { period: string }[] } };
     damaged.records.studies[5]!.period = '2025-14';
-    await expect(loadDemoPortfolio(storage.db, damaged)).rejects.toBeInstanceOf(ValidationError);
-    expect(await isPortfolioEmpty(storage.db)).toBe(true);
+    await expect(loadDemoPortfolio(databaseOf(storage), damaged)).rejects.toBeInstanceOf(ValidationError);
+    expect(await isPortfolioEmpty(databaseOf(storage))).toBe(true);
     storage.close();
-    await storage.db.delete();
+    await databaseOf(storage).delete();
   });
 });

@@ -1,12 +1,14 @@
 import 'fake-indexeddb/auto';
 import { afterEach, describe, expect, it } from 'vitest';
 import { stampNew } from '../domain/record-meta';
-import { openStorage, type CapstanStorage } from './storage';
+import { openStorage, type CapstanStorage, databaseOf } from './storage';
 
 let storage: CapstanStorage | undefined;
 afterEach(async () => {
-  storage?.db.close();
-  if (storage) await storage.db.delete();
+  if (storage) {
+    databaseOf(storage).close();
+    await databaseOf(storage).delete();
+  }
   storage = undefined;
 });
 
@@ -55,8 +57,8 @@ async function withPendingMonth() {
     },
     ctx('office')
   );
-  await storage.db.studies.bulkAdd([a, b]);
-  await storage.db.monthClashes.add({
+  await databaseOf(storage).studies.bulkAdd([a, b]);
+  await databaseOf(storage).monthClashes.add({
     key: `${ch.id}|2026-02`,
     studyIds: [a.id, b.id].sort(),
     detectedAt: '2026-03-05T00:00:00.000Z'
@@ -80,7 +82,7 @@ describe('months logged twice before v7', () => {
     await s.monthClashes.settle((await s.monthClashes.list())[0]!.key, { keep: b.id });
     expect(await s.studies.get(b.id)).toBeDefined();
     expect(await s.studies.get(a.id)).toBeUndefined();
-    expect((await s.db.studies.get(a.id))!.deletedAt).toBeDefined();
+    expect((await databaseOf(s).studies.get(a.id))!.deletedAt).toBeDefined();
     expect(await s.monthClashes.list()).toHaveLength(0);
   });
 

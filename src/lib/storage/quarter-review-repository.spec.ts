@@ -5,15 +5,15 @@ import { BUILT_IN_PROFILES } from '../domain/context-profile';
 import { parseDemoPortfolio } from '../domain/demo-portfolio';
 import { buildQuarterReview } from '../domain/quarter-review';
 import { ValidationError } from '../domain/validation-error';
-import { openStorage, type CapstanStorage } from './storage';
+import { openStorage, type CapstanStorage, databaseOf } from './storage';
 
 let storage: CapstanStorage;
 beforeEach(async () => {
   storage = await openStorage(`reviews-${Math.random()}`);
 });
 afterEach(async () => {
-  storage.db.close();
-  await storage.db.delete();
+  databaseOf(storage).close();
+  await databaseOf(storage).delete();
 });
 
 describe('quarterly review records', () => {
@@ -25,7 +25,7 @@ describe('quarterly review records', () => {
     const second = await storage.reviews.saveNote('2026-Q3', [a, b], 'movers', 'Two real improvers.');
     expect(second.rev).toBe(2);
     expect(second.notes).toEqual({ headline: 'Better than Q2.', movers: 'Two real improvers.' });
-    expect(await storage.db.reviews.count()).toBe(1);
+    expect(await databaseOf(storage).reviews.count()).toBe(1);
     expect(await storage.reviews.find('2026-Q3', [a])).toBeUndefined();
   });
 

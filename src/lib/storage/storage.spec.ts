@@ -1,7 +1,7 @@
 import 'fake-indexeddb/auto';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { ValidationError } from '../domain/validation-error';
-import { openStorage, type CapstanStorage } from './storage';
+import { openStorage, type CapstanStorage, databaseOf } from './storage';
 
 let storage: CapstanStorage;
 let dbName: string;
@@ -14,13 +14,13 @@ beforeEach(async () => {
 });
 
 afterEach(async () => {
-  storage.db.close();
-  await storage.db.delete();
+  databaseOf(storage).close();
+  await databaseOf(storage).delete();
 });
 
 /** Every row of every table, tombstones included: what "unchanged" is measured against. */
 async function everything(s: CapstanStorage) {
-  const d = s.db;
+  const d = databaseOf(s);
   return {
     sites: await d.sites.toArray(),
     processes: await d.processes.toArray(),
@@ -160,7 +160,7 @@ describe('repositories', () => {
     const tombstone = await storage.sites.remove(site.id);
     expect(tombstone.deletedAt).toBeDefined();
     expect(await storage.sites.get(site.id)).toBeUndefined();
-    expect(await storage.db.sites.get(site.id)).toMatchObject({ id: site.id, rev: 2 });
+    expect(await databaseOf(storage).sites.get(site.id)).toMatchObject({ id: site.id, rev: 2 });
     await storage.sites.restore(site.id);
     expect((await storage.sites.get(site.id))?.rev).toBe(3);
   });

@@ -35,9 +35,12 @@ import {
 } from './portfolio-overview';
 import { loadQuarterCoverage, type QuarterCoverage } from './quarter-coverage';
 
-/** Everything the app may do with stored data, as typed repositories over one open database. */
+/**
+ * Everything the app may do with stored data, as typed repositories over one open database. The database itself
+ * is not part of it: pages and components never touch tables (tests, tools and benchmarks reach it through
+ * `databaseOf`, which lint forbids in UI code and pages).
+ */
 export interface CapstanStorage {
-  readonly db: CapstanDatabase;
   readonly deviceId: string;
   readonly sites: SiteRepository;
   readonly processes: RecordRepository<Process>;
@@ -94,6 +97,15 @@ export interface CapstanStorage {
 
 const changeSets = () => import('./change-set-store');
 
+const databases = new WeakMap<CapstanStorage, CapstanDatabase>();
+
+/** The database behind a storage object: for tests, tools and benchmarks only (lint keeps it out of UI code). */
+export function databaseOf(storage: CapstanStorage): CapstanDatabase {
+  const db = databases.get(storage);
+  if (!db) throw new Error('This storage object was not opened by openStorage');
+  return db;
+}
+
 /**
  * Dexie 4 opens a database of a higher version than it declares, adding what it misses: that would let this app
  * write into data shaped by a newer one. So the stored version is read first (without opening or creating
@@ -135,8 +147,7 @@ export async function openStorage(
   const deviceId = await loadDeviceId(db);
   const clock = await loadClock(db, deviceId);
   const ctx = writeContextFor(deviceId, clock);
-  return {
-    db,
+  const storage: CapstanStorage = {
     deviceId,
     clock,
     sites: new SiteRepository(db, ctx),
@@ -211,4 +222,6 @@ export async function openStorage(
     },
     close: () => db.close()
   };
+  databases.set(storage, db);
+  return storage;
 }

@@ -4,7 +4,7 @@ import { addMonths, currentPeriodIn, futurePeriodProblem } from '../domain/perio
 import type { SummaryData } from '../domain/study';
 import { ValidationError } from '../domain/validation-error';
 import { EntryDraftRepository } from './entry-draft-repository';
-import { openStorage, type CapstanStorage } from './storage';
+import { openStorage, type CapstanStorage, databaseOf } from './storage';
 
 let storage: CapstanStorage;
 let charId: string;
@@ -48,7 +48,7 @@ beforeEach(async () => {
 
 afterEach(async () => {
   storage.close();
-  await storage.db.delete();
+  await databaseOf(storage).delete();
 });
 
 const summary = (mean: number, sd = 0.2, nn = 30) => ({
@@ -115,7 +115,7 @@ describe('logging a month', () => {
   });
 
   it('a batch with one bad entry writes nothing, and names the entry', async () => {
-    const before = await storage.db.studies.count();
+    const before = await databaseOf(storage).studies.count();
     const batch = [
       summary(10),
       {
@@ -128,7 +128,7 @@ describe('logging a month', () => {
     const error = await storage.studies.logMany(batch, 'new').catch((e: unknown) => e);
     expect(error).toBeInstanceOf(ValidationError);
     expect((error as ValidationError).problems[0]?.field).toBe('[2].data.defectives');
-    expect(await storage.db.studies.count()).toBe(before);
+    expect(await databaseOf(storage).studies.count()).toBe(before);
   });
 
   it('keeps drafts per characteristic and month until cleared', async () => {
