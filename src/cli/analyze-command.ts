@@ -14,7 +14,8 @@ import {
 import { toJson, toTable } from './figure-report';
 import type { CliIo } from './cli-io';
 
-const MODELS: ModelChoice[] = ['auto', ...CANDIDATE_ORDER, 'quantile'];
+/** Every model the command accepts: the engine's list of models, plus automatic choice and the quantile method. */
+export const MODELS: readonly ModelChoice[] = ['auto', ...CANDIDATE_ORDER, 'quantile'];
 const ESTIMATORS: SigmaEstimator[] = ['rbar', 'sbar', 'pooled', 'moving-range'];
 const KNOWN = [
   'lsl',

@@ -1,5 +1,5 @@
 import { CsvInputError } from '../lib/exchange/measurement-csv';
-import { analyzeCommand } from './analyze-command';
+import { analyzeCommand, MODELS } from './analyze-command';
 import { checkCommand } from './check-command';
 import { mergeCommand } from './merge-command';
 import { UsageError } from './cli-arguments';
@@ -12,7 +12,7 @@ export const USAGE = `Capstan command line — capability figures with their ass
 
   analyze FILE.csv --lsl L --usl U [--target T] [--subgroup-size K | --subgroup-column NAME]
           [--estimator rbar|sbar|pooled|moving-range]
-          [--model auto|normal|lognormal|weibull|gamma|exponential|boxcox|johnson|quantile]
+          [--model ${MODELS.join('|')}]
           [--confidence 0.95] [--column NAME] [--delimiter ,|;|tab] [--decimal .|,]
           [--shift 1.5] [--min-index 1.33] [--json]
   counts  --units N (--defectives D | --defects D [--opportunities O]) [--confidence 0.95] [--shift 1.5] [--json]

@@ -71,7 +71,10 @@ describe('stamps from the far future', () => {
     const a = await device('a');
     const { site } = await plant(a);
     // As an older version would have stored it, before such stamps were refused.
-    await databaseOf(a).sites.put({ ...(await databaseOf(a).sites.get(site.id))!, clock: `9999999999999-9999-${a.deviceId}` });
+    await databaseOf(a).sites.put({
+      ...(await databaseOf(a).sites.get(site.id))!,
+      clock: `9999999999999-9999-${a.deviceId}`
+    });
     const edited = await a.sites.update(site.id, {
       name: 'Tessel Works 2',
       region: 'North',

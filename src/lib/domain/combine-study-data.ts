@@ -1,3 +1,4 @@
+import { poolMoments, summariseMoments } from '../stats/pooled-moments';
 import type { DefectivesData, DefectsData, RawData, StudyData, SummaryData } from './study';
 import { ValidationError } from './validation-error';
 
@@ -33,30 +34,18 @@ function combineRaw(a: RawData, b: RawData): RawData {
   return { kind: 'raw', values, subgroups: [...ids(a, 'earlier'), ...ids(b, 'added')] };
 }
 
-/** Summary of raw values: n, mean and sample sd by the same pairwise rule, one value at a time. */
+/** Summary of raw values: n, mean and sample sd (stats/pooled-moments.ts). */
 export function summariseValues(values: readonly number[]): SummaryData {
-  let n = 0;
-  let mean = 0;
-  let m2 = 0;
-  for (const x of values) {
-    n += 1;
-    const delta = x - mean;
-    mean += delta / n;
-    m2 += delta * (x - mean);
-  }
-  return { kind: 'summary', n, mean, sd: n > 1 ? Math.sqrt(m2 / (n - 1)) : 0 };
+  return { kind: 'summary', ...summariseMoments(values) };
 }
 
 function asSummary(d: RawData | SummaryData): SummaryData {
   return d.kind === 'summary' ? d : summariseValues(d.values);
 }
 
+/** Two summaries merged exactly (stats/pooled-moments.ts, Chan, Golub & LeVeque). */
 export function poolSummaries(a: SummaryData, b: SummaryData): SummaryData {
-  const n = a.n + b.n;
-  const delta = b.mean - a.mean;
-  const mean = a.mean + (delta * b.n) / n;
-  const m2 = a.sd * a.sd * (a.n - 1) + b.sd * b.sd * (b.n - 1) + (delta * delta * a.n * b.n) / n;
-  return { kind: 'summary', n, mean, sd: Math.sqrt(m2 / (n - 1)) };
+  return { kind: 'summary', ...poolMoments(a, b) };
 }
 
 function addDefectives(a: DefectivesData, b: DefectivesData): DefectivesData {

@@ -1,4 +1,6 @@
 import { normalCdf, normalSf, normalUpperQuantile } from '../stats/normal-distribution';
+import { summariseMoments } from '../stats/pooled-moments';
+import { leastSquaresSlope } from '../stats/trend-slope';
 import type { CapabilityResult } from '../stats/capability-result';
 import type { Characteristic, RiskClass } from './characteristic';
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
@@ -49,10 +51,8 @@ export function quickYield(study: Study, c: Characteristic): number | undefined 
   let sd: number;
   if (d.kind === 'summary') ({ mean: m, sd } = d);
   else {
-    const n = d.values.length;
-    if (n < 2) return undefined;
-    m = d.values.reduce((a, b) => a + b, 0) / n;
-    sd = Math.sqrt(d.values.reduce((a, b) => a + (b - m) ** 2, 0) / (n - 1));
+    if (d.values.length < 2) return undefined;
+    ({ mean: m, sd } = summariseMoments(d.values));
   }
   if (!(sd > 0)) return undefined;
   const below = c.lsl !== undefined ? normalCdf((c.lsl - m) / sd) : 0;
@@ -218,17 +218,6 @@ export function costPerYear(
   return fraction * process.monthlyVolume * 12 * process.costPerDefective;
 }
 
-function slope(values: (number | undefined)[]): number | undefined {
-  const pts = values
-    .map((v, i) => [i, v] as const)
-    .filter((p): p is readonly [number, number] => p[1] !== undefined && Number.isFinite(p[1]));
-  if (pts.length < 3) return undefined;
-  const mx = pts.reduce((a, p) => a + p[0], 0) / pts.length;
-  const my = pts.reduce((a, p) => a + p[1], 0) / pts.length;
-  const sxx = pts.reduce((a, p) => a + (p[0] - mx) ** 2, 0);
-  return pts.reduce((a, p) => a + (p[0] - mx) * (p[1] - my), 0) / sxx;
-}
-
 function statusRank(s: CharacteristicStatus): number {
   return STATUS_ORDER.indexOf(s);
 }
@@ -358,7 +347,7 @@ export function rankPortfolio(
           : undefined
       );
     }
-    const sl = slope(row.trend);
+    const sl = leastSquaresSlope(row.trend);
     if (sl !== undefined) row.trendSlope = sl;
     const notShown = withData.some((r) => r.status !== 'meets, shown') ? 1 : 0;
     row.priority =

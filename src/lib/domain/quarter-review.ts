@@ -1,3 +1,4 @@
+import { median } from '../stats/quantiles';
 import { zChangeTest, type ZEstimate } from '../stats/z-change-test';
 import { canonicalJson } from './canonical-json';
 import { shortTermShift, type ContextProfile } from './context-profile';
@@ -124,13 +125,6 @@ export function moverOf(after: ProcessRow, before: ProcessRow | undefined): Revi
     pValue: test?.pValue,
     beyondNoise: test?.beyondNoise
   };
-}
-
-function median(xs: number[]): number | undefined {
-  if (!xs.length) return undefined;
-  const s = [...xs].sort((a, b) => a - b);
-  const m = Math.floor(s.length / 2);
-  return s.length % 2 ? s[m] : (s[m - 1]! + s[m]!) / 2;
 }
 
 function lineOf(row: ProcessRow): ReviewProcessLine {

@@ -1,3 +1,4 @@
+import { pooledWithinSd } from '../stats/pooled-moments';
 import { poolSummaries, summariseValues } from './combine-study-data';
 import type { Study, StudyData, SummaryData } from './study';
 
@@ -41,9 +42,8 @@ export function windowData(studies: readonly Study[]): WindowData | undefined {
       s.data.kind === 'summary' ? s.data : summariseValues((s.data as { values: number[] }).values)
     );
     const pooled = parts.reduce((a, b) => poolSummaries(a, b));
-    const df = parts.reduce((a, p) => a + p.n - 1, 0);
-    const ss = parts.reduce((a, p) => a + (p.n - 1) * p.sd * p.sd, 0);
-    return { data: pooled, months, ...(df > 0 ? { sdWithin: Math.sqrt(ss / df) } : {}) };
+    const sdWithin = pooledWithinSd(parts);
+    return { data: pooled, months, ...(sdWithin !== undefined ? { sdWithin } : {}) };
   }
   if (kinds.size === 1 && kinds.has('defectives')) {
     let units = 0;

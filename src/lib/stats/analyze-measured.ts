@@ -304,6 +304,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
         zMinWithin: withinTails?.zMin
       })
     );
+    result.modelParameters = { mean: mu, sd: sdOverall };
     result.modelLabel = `normal (mean ${mu.toPrecision(6)}, overall sd ${sdOverall.toPrecision(4)})`;
     result.method = `normal model; ${sdWithin !== undefined ? SIGMA_ESTIMATOR_LABELS[estimator] : 'no within sigma'}; overall sigma for Pp/Ppk, ppm, yield and z-level`;
     assumptions.unshift('normal model');
@@ -328,6 +329,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
       );
     }
     result.modelLabel = model.label;
+    result.modelParameters = { ...model.parameters };
     result.method = `${model.label}; ppm from the model's tails; Pp/Ppk by the percentile method of ISO 22514-2`;
     assumptions.unshift(`non-normal model: ${model.label}`);
     assumptions.push(

@@ -65,6 +65,8 @@ export interface CapabilityResult {
   zLevelShortTerm?: number;
   model: string;
   modelLabel: string;
+  /** The chosen model's parameters (a fitted model is rebuilt from them by `modelFromParameters`, never refitted). */
+  modelParameters?: Record<string, number>;
   method: string;
   assumptions: string[];
   warnings: string[];

@@ -1,14 +1,14 @@
 import { andersonDarlingNormal, andersonDarlingNormalP, andersonDarlingStatistic } from './anderson-darling';
 import type { ModelCandidate } from './capability-result';
 import { mean, sampleSd } from './moments';
-import { fitBoxCox } from './models/box-cox-fit';
-import { fitExponential } from './models/exponential-fit';
-import type { FitRefusal, FittedModel, ModelName } from './models/fitted-model';
-import { fitGamma } from './models/gamma-fit';
-import { fitJohnson } from './models/johnson-fit';
-import { fitLognormal } from './models/lognormal-fit';
+import { boxCoxModel, fitBoxCox } from './models/box-cox-fit';
+import { exponentialModel, fitExponential } from './models/exponential-fit';
+import { MODEL_NAMES, type FitRefusal, type FittedModel, type ModelName } from './models/fitted-model';
+import { fitGamma, gammaModel } from './models/gamma-fit';
+import { fitJohnson, johnsonModel, type JohnsonParameters } from './models/johnson-fit';
+import { fitLognormal, lognormalModel } from './models/lognormal-fit';
 import { normalModel } from './models/normal-model';
-import { fitWeibull } from './models/weibull-fit';
+import { fitWeibull, weibullModel } from './models/weibull-fit';
 
 /**
  * Fits candidate models and judges each by the Anderson–Darling statistic of its fitted CDF on the data.
@@ -23,15 +23,7 @@ import { fitWeibull } from './models/weibull-fit';
  *   from memory (the gamma one depends a little on the shape; 0.752 is its large-shape value).
  * Candidates are ranked accepted first, then by A² (smaller fits better); ties keep the order listed here.
  */
-export const CANDIDATE_ORDER: ModelName[] = [
-  'normal',
-  'lognormal',
-  'weibull',
-  'gamma',
-  'exponential',
-  'boxcox',
-  'johnson'
-];
+export const CANDIDATE_ORDER: readonly ModelName[] = MODEL_NAMES;
 
 export interface ModelSearchResult {
   candidates: ModelCandidate[];
@@ -41,6 +33,29 @@ export interface ModelSearchResult {
 
 export function isRefusal(f: FittedModel | FitRefusal): f is FitRefusal {
   return 'reason' in f;
+}
+
+/**
+ * A model rebuilt from the parameters a result carries (`CapabilityResult.modelParameters`), without fitting
+ * again: what the charts draw is exactly the model the figures came from.
+ */
+export function modelFromParameters(name: ModelName, p: Record<string, number>): FittedModel {
+  switch (name) {
+    case 'normal':
+      return normalModel(p.mean!, p.sd!);
+    case 'lognormal':
+      return lognormalModel(p.mu!, p.sigma!);
+    case 'weibull':
+      return weibullModel(p.shape!, p.scale!);
+    case 'gamma':
+      return gammaModel(p.shape!, p.scale!);
+    case 'exponential':
+      return exponentialModel(p.mean!);
+    case 'boxcox':
+      return boxCoxModel(p.lambda!, p.mean!, p.sd!);
+    case 'johnson':
+      return johnsonModel(p as JohnsonParameters);
+  }
 }
 
 export function fitModel(

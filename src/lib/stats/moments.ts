@@ -9,22 +9,14 @@ export function mean(values: ArrayLike<number>): number {
   const n = values.length;
   if (n === 0) throw new RangeError('mean requires at least one value');
   const first = neumaierSum(values) / n;
-  let sum = 0;
-  let compensation = 0;
-  for (let i = 0; i < n; i += 1) {
-    const v = (values[i] as number) - first;
-    const t = sum + v;
-    if (Math.abs(sum) >= Math.abs(v)) compensation += sum - t + v;
-    else compensation += v - t + sum;
-    sum = t;
-  }
-  return first + (sum + compensation) / n;
+  return first + neumaierSum(values, first) / n;
 }
 
 /**
  * Sample variance with divisor n − 1, by the corrected two-pass algorithm
  * s² = (Σ(x − m)² − (Σ(x − m))²/n) / (n − 1) (Chan, Golub & LeVeque 1983, "Algorithms for computing the sample
- * variance", The American Statistician 37(3), eq. 1.7), both sums compensated. Never the one-pass Σx² − n·m²,
+ * variance", The American Statistician 37(3), eq. 1.7), both sums compensated (Neumaier's step, as in
+ * neumaierSum, fused into one pass). Never the one-pass Σx² − n·m²,
  * which the NIST StRD NumAcc sets show to lose all digits.
  * Throws for fewer than two values. Example: sampleVariance([2, 4, 4, 4, 5, 5, 7, 9]) === 32 / 7.
  */

@@ -23,3 +23,12 @@ export function sortedCopy(values: ArrayLike<number>): Float64Array {
   out.sort();
   return out;
 }
+
+/** Median: the middle value, or the mean of the two middle values (undefined for no values). */
+export function median(values: ArrayLike<number>): number | undefined {
+  const n = values.length;
+  if (n === 0) return undefined;
+  const s = sortedCopy(values);
+  const m = Math.floor(n / 2);
+  return n % 2 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
+}

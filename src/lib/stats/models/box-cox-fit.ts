@@ -1,5 +1,5 @@
 import { sampleVariance, mean } from '../moments';
-import { normalCdf, normalQuantile, normalSf } from '../normal-distribution';
+import { normalCdf, normalPdf, normalQuantile, normalSf } from '../normal-distribution';
 import { formatParameter, type FitRefusal, type FittedModel } from './fitted-model';
 
 /** y(λ) = (x^λ − 1)/λ, or ln x at λ = 0 (Box & Cox 1964, JRSS B 26). */
@@ -83,6 +83,14 @@ export function fitBoxCox(values: ArrayLike<number>): FittedModel | FitRefusal {
   const mu = mean(y);
   const sigma = Math.sqrt(sampleVariance(y, mu));
   if (!(sigma > 0)) return { name: 'boxcox', reason: 'the transformed values have no spread' };
+  return boxCoxModel(lambda, mu, sigma);
+}
+
+/**
+ * The Box-Cox model: y = (x^λ − 1)/λ (ln x at λ = 0) normal with mean μ and sd σ. Density by the change of
+ * variable, f(x) = φ((y − μ)/σ)/σ · x^(λ−1).
+ */
+export function boxCoxModel(lambda: number, mu: number, sigma: number): FittedModel {
   const zOf = (x: number) => (boxCoxTransform(x, lambda) - mu) / sigma;
   // For λ > 0 the transformed scale ends at −1/λ (x = 0): the normal model's mass beyond it belongs to no
   // positive x. It is reported, and counted at x ≤ 0, so that tails and quantiles stay consistent.
@@ -92,6 +100,7 @@ export function fitBoxCox(values: ArrayLike<number>): FittedModel | FitRefusal {
     label: `Box-Cox (λ ${formatParameter(lambda)}; transformed mean ${formatParameter(mu)}, sd ${formatParameter(sigma)})`,
     parameters: { lambda, mean: mu, sd: sigma, massAtZero },
     cdf: (x) => (x <= 0 ? massAtZero : normalCdf(zOf(x))),
+    pdf: (x) => (x <= 0 ? 0 : (normalPdf(zOf(x)) / sigma) * x ** (lambda - 1)),
     sf: (x) => (x <= 0 ? 1 - massAtZero : normalSf(zOf(x))),
     quantile: (p) => {
       const yq = mu + sigma * normalQuantile(p);

@@ -1,5 +1,19 @@
+/**
+ * The distribution models the engine fits, in the order the model search tries them and ties are broken: the
+ * one list of model names (the search, the command line's `--model` and its usage text all read it).
+ */
+export const MODEL_NAMES = [
+  'normal',
+  'lognormal',
+  'weibull',
+  'gamma',
+  'exponential',
+  'boxcox',
+  'johnson'
+] as const;
+export type ModelName = (typeof MODEL_NAMES)[number];
+
 /** What every distribution fit returns: a model the engine can take tail fractions and quantiles from. */
-export type ModelName = 'normal' | 'lognormal' | 'weibull' | 'gamma' | 'exponential' | 'boxcox' | 'johnson';
 
 export interface FittedModel {
   name: ModelName;
@@ -7,6 +21,8 @@ export interface FittedModel {
   label: string;
   parameters: Record<string, number>;
   cdf(x: number): number;
+  /** The density f(x) = F′(x), in closed form (charts draw it over a histogram). */
+  pdf(x: number): number;
   /** 1 − F(x), computed directly where the family allows it. */
   sf(x: number): number;
   quantile(p: number): number;

@@ -1,3 +1,4 @@
+import jStat from 'jstat';
 import { gammaQuantile, regularizedGamma } from '../incomplete-gamma';
 import { digamma, trigamma } from '../special-functions';
 import { formatParameter, type FitRefusal, type FittedModel } from './fitted-model';
@@ -31,11 +32,18 @@ export function fitGamma(values: ArrayLike<number>): FittedModel | FitRefusal {
     k = next;
   }
   const theta = m / k;
+  return gammaModel(k, theta);
+}
+
+/** The gamma model with shape k and scale θ; density x^(k−1) e^(−x/θ) / (Γ(k) θ^k), on the log scale. */
+export function gammaModel(k: number, theta: number): FittedModel {
+  const logNorm = jStat.gammaln(k) + k * Math.log(theta);
   return {
     name: 'gamma',
     label: `gamma (shape ${formatParameter(k)}, scale ${formatParameter(theta)})`,
     parameters: { shape: k, scale: theta },
     cdf: (x) => (x <= 0 ? 0 : regularizedGamma(k, x / theta).p),
+    pdf: (x) => (x <= 0 ? 0 : Math.exp((k - 1) * Math.log(x) - x / theta - logNorm)),
     sf: (x) => (x <= 0 ? 1 : regularizedGamma(k, x / theta).q),
     quantile: (p) => gammaQuantile(p, k, theta)
   };

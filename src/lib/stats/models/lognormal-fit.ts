@@ -1,4 +1,4 @@
-import { normalCdf, normalQuantile, normalSf } from '../normal-distribution';
+import { normalCdf, normalPdf, normalQuantile, normalSf } from '../normal-distribution';
 import { formatParameter, type FitRefusal, type FittedModel } from './fitted-model';
 
 /**
@@ -18,11 +18,17 @@ export function fitLognormal(values: ArrayLike<number>): FittedModel | FitRefusa
   for (let i = 0; i < n; i += 1) ss += (Math.log(values[i] as number) - mu) ** 2;
   const sigma = Math.sqrt(ss / n);
   if (!(sigma > 0)) return { name: 'lognormal', reason: 'the logarithms have no spread' };
+  return lognormalModel(mu, sigma);
+}
+
+/** The lognormal model with log-scale mean μ and sd σ; density φ((ln x − μ)/σ)/(σx). */
+export function lognormalModel(mu: number, sigma: number): FittedModel {
   return {
     name: 'lognormal',
     label: `lognormal (μ ${formatParameter(mu)}, σ ${formatParameter(sigma)} on the log scale)`,
     parameters: { mu, sigma },
     cdf: (x) => (x <= 0 ? 0 : normalCdf((Math.log(x) - mu) / sigma)),
+    pdf: (x) => (x <= 0 ? 0 : normalPdf((Math.log(x) - mu) / sigma) / (sigma * x)),
     sf: (x) => (x <= 0 ? 1 : normalSf((Math.log(x) - mu) / sigma)),
     quantile: (p) => Math.exp(mu + sigma * normalQuantile(p))
   };

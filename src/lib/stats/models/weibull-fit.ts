@@ -54,11 +54,17 @@ export function fitWeibull(values: ArrayLike<number>): FittedModel | FitRefusal 
   let a = 0;
   for (let i = 0; i < n; i += 1) a += Math.exp(k * (logs[i] as number));
   const scale = max * (a / n) ** (1 / k);
+  return weibullModel(k, scale);
+}
+
+/** The Weibull model with shape k and scale λ; density (k/λ)(x/λ)^(k−1) e^(−(x/λ)^k). */
+export function weibullModel(k: number, scale: number): FittedModel {
   return {
     name: 'weibull',
     label: `Weibull (shape ${formatParameter(k)}, scale ${formatParameter(scale)})`,
     parameters: { shape: k, scale },
     cdf: (x) => (x <= 0 ? 0 : -Math.expm1(-((x / scale) ** k))),
+    pdf: (x) => (x <= 0 ? 0 : (k / scale) * (x / scale) ** (k - 1) * Math.exp(-((x / scale) ** k))),
     sf: (x) => (x <= 0 ? 1 : Math.exp(-((x / scale) ** k))),
     quantile: (p) => scale * (-Math.log1p(-p)) ** (1 / k)
   };
