@@ -6,41 +6,18 @@ import { readExchangeFile } from './exchange-file-input';
 import { BUILT_IN_PROFILES } from '../lib/domain/context-profile';
 import { parseDemoPortfolio } from '../lib/domain/demo-portfolio';
 import { isPeriod, periodsOfQuarter } from '../lib/domain/period';
-import { rankPortfolio, type ProcessRow } from '../lib/domain/portfolio-ranking';
+import {
+  portfolioColumn,
+  portfolioRowObject,
+  zWithBasis,
+  type PortfolioColumnKey
+} from '../lib/domain/portfolio-columns';
+import { rankPortfolio } from '../lib/domain/portfolio-ranking';
 import { ValidationError } from '../lib/domain/validation-error';
 import { integerFlag, parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
 
 const KNOWN = ['period', 'quarter', 'window', 'json'];
-
-/** The numbers of one row as the JSON output and the table show them (same figures, same order as the app). */
-function summarise(row: ProcessRow, rank: number) {
-  const weakest = row.weakest;
-  return {
-    rank,
-    process: row.process.name,
-    site: row.site.name,
-    context: row.profile?.label ?? row.process.contextId,
-    status: row.status,
-    yield: row.yield,
-    ppm: row.ppm,
-    zLevel: row.zLevel,
-    zBasis: row.zBasis,
-    requiredZ: row.requiredZ,
-    zGap: row.zGap,
-    weakest: weakest?.characteristic.name,
-    rulingEstimate: weakest?.estimate,
-    rulingBound: weakest?.bound,
-    required: weakest?.required,
-    measure: row.profile?.measure,
-    costPerYear: row.costPerYear,
-    currency: row.process.currency,
-    trendSlope: row.trendSlope,
-    badges: row.badges,
-    projects: row.projects.map((p) => `${p.phase}: ${p.title}`),
-    priority: row.priority
-  };
-}
 
 const f = (v: number | undefined, digits = 2) =>
   v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
@@ -75,7 +52,8 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
   const endPeriod = period ?? quarterMonths?.[2] ?? latest;
   if (!endPeriod) throw new UsageError(`'${file}' holds no studies to rank`);
   const rows = rankPortfolio(records, profiles, { endPeriod, windowMonths: window });
-  const out = rows.map((r, i) => summarise(r, i + 1));
+  // JSON: one object per row keyed by the portfolio's column keys (domain/portfolio-columns.ts).
+  const out = rows.map((r, i) => portfolioRowObject(r, i + 1));
   if (args.flags.has('json')) {
     io.stdout(
       JSON.stringify(
@@ -90,26 +68,39 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
     `Portfolio for the ${window} month${window === 1 ? '' : 's'} ending ${endPeriod} (${out.length} processes), highest priority first`,
     ''
   ];
-  lines.push(
-    ['#', 'priority', 'status', 'z-level (LT/ST)', 'z gap', 'cost/yr', 'process', 'site', 'weakest'].join(
-      '\t'
-    )
-  );
-  for (const r of out) {
+  const printed: PortfolioColumnKey[] = [
+    'rank',
+    'priority',
+    'status',
+    'zLevel',
+    'zGap',
+    'costPerYear',
+    'process',
+    'site',
+    'weakest'
+  ];
+  lines.push(printed.map((k) => (k === 'zLevel' ? 'z-level (LT/ST)' : portfolioColumn(k).label)).join('\t'));
+  rows.forEach((row, i) => {
     lines.push(
-      [
-        r.rank,
-        f(r.priority),
-        r.status,
-        r.zLevel === undefined ? '–' : `${f(r.zLevel)} ${r.zBasis === 'short-term' ? 'ST' : 'LT'}`,
-        f(r.zGap),
-        r.costPerYear === undefined ? '–' : `${Math.round(r.costPerYear)} ${r.currency}`,
-        r.process,
-        r.site,
-        r.weakest ?? '–'
-      ].join('\t')
+      printed
+        .map((k) => {
+          if (k === 'zLevel') return zWithBasis(row, (z) => f(z));
+          if (k === 'costPerYear')
+            return row.costPerYear === undefined
+              ? '–'
+              : `${Math.round(row.costPerYear)} ${row.process.currency}`;
+          const v = portfolioColumn(k).value(row, i + 1);
+          return typeof v === 'number'
+            ? k === 'rank'
+              ? String(v)
+              : f(v)
+            : v === undefined
+              ? '–'
+              : String(v);
+        })
+        .join('\t')
     );
-  }
+  });
   lines.push(
     '',
     profiles === BUILT_IN_PROFILES

@@ -1,4 +1,5 @@
-import type { ProcessRow } from '../domain/portfolio-ranking';
+import { PORTFOLIO_COLUMNS } from '../domain/portfolio-columns';
+import type { ProcessRow } from '../domain/portfolio-terms';
 import type { Study } from '../domain/study';
 import { toCsv, type CsvCell } from './spreadsheet-csv';
 
@@ -7,55 +8,11 @@ export function portfolioCsv(
   rows: readonly ProcessRow[],
   window: { endPeriod: string; windowMonths: number }
 ): string {
-  const header = [
-    'rank',
-    'process',
-    'site',
-    'context',
-    'status',
-    'z-level (as reported)',
-    'z-level basis',
-    'required z-level',
-    'z gap',
-    'weakest characteristic',
-    'ruling estimate',
-    'one-sided bound',
-    'required',
-    'measure',
-    'yield',
-    'ppm',
-    'cost per year',
-    'currency',
-    'trend slope (z per month)',
-    'assumptions',
-    'projects',
-    'priority',
-    'window ends',
-    'window months'
-  ];
+  const header = [...PORTFOLIO_COLUMNS.map((c) => c.header), 'window ends', 'window months'];
+  const cell = (v: ReturnType<(typeof PORTFOLIO_COLUMNS)[number]['value']>): CsvCell =>
+    Array.isArray(v) ? v.join('; ') : (v as CsvCell);
   const body: CsvCell[][] = rows.map((r, i) => [
-    i + 1,
-    r.process.name,
-    r.site.name,
-    r.profile?.label ?? r.process.contextId,
-    r.status,
-    r.zLevel,
-    r.zBasis,
-    r.requiredZ,
-    r.zGap,
-    r.weakest?.characteristic.name,
-    r.weakest?.estimate,
-    r.weakest?.bound,
-    r.weakest?.required,
-    r.profile?.measure,
-    r.yield,
-    r.ppm,
-    r.costPerYear,
-    r.process.currency,
-    r.trendSlope,
-    r.badges.join('; '),
-    r.projects.map((p) => `${p.phase}: ${p.title}`).join('; '),
-    r.priority,
+    ...PORTFOLIO_COLUMNS.map((c) => cell(c.value(r, i + 1))),
     window.endPeriod,
     window.windowMonths
   ]);
