@@ -2,7 +2,8 @@ import type { ConflictChoice, MergeConflict } from './change-set-merge';
 import { countOfKind, KIND_LABEL, type RecordKind } from './record-kinds';
 import { compareEdits, editTimeOf, newerReason } from './record-merge';
 import type { RecordMeta } from './record-meta';
-import type { Study, StudyData } from './study';
+import type { Study } from './study';
+import { dataRows } from './study-description';
 
 /**
  * A conflict as a person reads it: what the record is (named through its parents, never by id alone), what each
@@ -50,49 +51,6 @@ function studyTitle(study: Study, lookup: RecordLookup): string {
   return `${study.period}, ${namePath('characteristics', characteristic, lookup)}`;
 }
 
-const number = (v: number) =>
-  Number.isInteger(v) ? v.toLocaleString('en') : String(Number(v.toPrecision(6)));
-
-/** The figures of a study's data, as rows a person can compare. */
-export function dataRows(data: StudyData): [string, string][] {
-  switch (data.kind) {
-    case 'raw': {
-      let sum = 0;
-      for (const v of data.values) sum += v;
-      const mean = sum / data.values.length;
-      let ss = 0;
-      for (const v of data.values) ss += (v - mean) ** 2;
-      const sd = data.values.length > 1 ? Math.sqrt(ss / (data.values.length - 1)) : 0;
-      return [
-        ['data', `${data.values.length} measured values`],
-        ['n', number(data.values.length)],
-        ['mean', number(mean)],
-        ['sd', number(sd)]
-      ];
-    }
-    case 'summary':
-      return [
-        ['data', 'summary (n, mean, sd)'],
-        ['n', number(data.n)],
-        ['mean', number(data.mean)],
-        ['sd', number(data.sd)]
-      ];
-    case 'defectives':
-      return [
-        ['data', 'defective units'],
-        ['units inspected', number(data.units)],
-        ['defective units', number(data.defectives)]
-      ];
-    case 'defects':
-      return [
-        ['data', 'defects'],
-        ['units inspected', number(data.units)],
-        ['defects', number(data.defects)],
-        ['opportunities per unit', number(data.opportunitiesPerUnit)]
-      ];
-  }
-}
-
 function fieldText(value: unknown): string {
   if (value === undefined || value === null || value === '') return '—';
   if (typeof value === 'object') {
@@ -127,6 +85,8 @@ function countsText(counts: Partial<Record<RecordKind, number>> | undefined): st
     .map(([k, n]) => countOfKind(k as RecordKind, n ?? 0));
   return parts.length ? parts.join(', ') : 'none';
 }
+
+export { dataRows } from './study-description';
 
 export function summariseConflict(
   c: MergeConflict,

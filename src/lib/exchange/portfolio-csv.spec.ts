@@ -4,7 +4,8 @@ import demo from '../../../seed-data/demo-portfolio.json';
 import { BUILT_IN_PROFILES } from '../domain/context-profile';
 import { parseDemoPortfolio } from '../domain/demo-portfolio';
 import { rankPortfolio } from '../domain/portfolio-ranking';
-import { portfolioCsv, studyCsv } from './portfolio-csv';
+import { portfolioCsv } from './portfolio-csv';
+import { studyCsv } from './study-csv';
 
 describe('portfolio and study CSV', () => {
   const records = parseDemoPortfolio(demo).records;
