@@ -251,9 +251,10 @@ async function checkParsed(parsed: unknown, text: string, nowMs: number): Promis
       `The file has format version ${top.formatVersion}, made by a newer Capstan; this app reads version ${EXCHANGE_FORMAT_VERSION} — update the app, then import it`
     );
   }
-  if (top.formatVersion !== EXCHANGE_FORMAT_VERSION) {
+  const restore = RESTORE_FROM[top.formatVersion];
+  if (!restore) {
     throw new ExchangeFileError(
-      `Format version ${top.formatVersion} is not one Capstan ever wrote (expected ${EXCHANGE_FORMAT_VERSION})`
+      `Format version ${top.formatVersion} is not one Capstan ever wrote (this app reads ${EXCHANGE_FORMAT_VERSIONS_READ.join(', ')})`
     );
   }
   if (typeof top.sha256 !== 'string' || !/^[0-9a-f]{64}$/.test(top.sha256)) {
@@ -278,7 +279,7 @@ async function checkParsed(parsed: unknown, text: string, nowMs: number): Promis
       'The content hash does not match: the file was changed or damaged after it was exported'
     );
   }
-  const result = exchangeFileSchema.safeParse(parsed);
+  const result = exchangeFileSchema.safeParse(restore(parsed as Record<string, unknown>));
   if (!result.success) {
     const issues = result.error.issues;
     const first = issues[0]!;
@@ -293,6 +294,19 @@ async function checkParsed(parsed: unknown, text: string, nowMs: number): Promis
   if (problem) throw new ExchangeFileError(problem);
   return { header, records };
 }
+
+/**
+ * Reading older format versions: each version Capstan ever wrote maps to a function that turns a file of that
+ * version (after its hash is checked) into the current shape — fill defaults, rename, move — before the schema
+ * validates it; fields a newer version adds to records are kept by `restoreUnknownFields`. Version 1 is the
+ * current one, so it is read as it is. A new version adds its entry here and a fixture file under
+ * tests/fixtures/exchange-format/.
+ */
+const RESTORE_FROM: Record<number, (file: Record<string, unknown>) => unknown> = {
+  1: (file) => file
+};
+
+export const EXCHANGE_FORMAT_VERSIONS_READ = Object.keys(RESTORE_FROM).map(Number);
 
 /** Suggested file name: who, what and when, safe on every file system. */
 export function exchangeFileName(header: ExchangeHeader, gzip: boolean): string {
