@@ -8,8 +8,10 @@ import type { CapabilityResult } from '../stats/capability-result';
 export function entryFlags(result: CapabilityResult): string[] {
   const flags: string[] = [];
   if (result.stability && !result.stability.stable) flags.push('not shown to be stable');
-  if (result.warnings.some((w) => w.includes('physical'))) flags.push('values outside physical bounds');
-  if (result.warnings.some((w) => w.startsWith('All values are identical'))) flags.push('no spread');
+  const codes = new Set(result.warningCodes);
+  if (codes.has('below-physical-minimum') || codes.has('above-physical-maximum'))
+    flags.push('values outside physical bounds');
+  if (codes.has('no-spread')) flags.push('no spread');
   if (result.model === 'observed' && result.kind === 'measured') flags.push('no distribution model fits');
   return flags;
 }

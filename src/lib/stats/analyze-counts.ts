@@ -1,3 +1,4 @@
+import { WarningList } from './result-warnings';
 import type { CapabilityResult } from './capability-result';
 import { clopperPearson, poissonCountInterval } from './confidence-bounds';
 import { normalUpperQuantile } from './normal-distribution';
@@ -46,14 +47,15 @@ export function analyzeDefectives(
     'counted data: each unit is defective or not, independently and with the same probability (binomial)',
     `interval: exact Clopper–Pearson at ${Math.round(level * 1000) / 10} %`
   ];
-  const warnings: string[] = [];
+  const warnings = new WarningList();
   const zero = defectives === 0;
   if (zero) {
     assumptions.push(
       `no defective seen: the z-level shown is the lower bound, from the one-sided upper bound p ≤ ${ci.upperBound.toPrecision(3)}`
     );
   }
-  if (units < 100) warnings.push(`Only ${units} units inspected: the interval on the defective rate is wide`);
+  if (units < 100)
+    warnings.add('few-units', `Only ${units} units inspected: the interval on the defective rate is wide`);
   const result: CapabilityResult = {
     kind: 'defectives',
     n: units,
@@ -66,7 +68,8 @@ export function analyzeDefectives(
     modelLabel: 'binomial count of defectives',
     method: 'fraction defective d/n; z-level = Q⁻¹(p)',
     assumptions,
-    warnings,
+    warnings: warnings.texts,
+    warningCodes: warnings.codes,
     intervals: {
       p: { lower: ci.lower, upper: ci.upper, upperBound: ci.upperBound, level },
       ppm: { lower: ci.lower * 1e6, upper: ci.upper * 1e6, upperBound: ci.upperBound * 1e6, level },
@@ -135,6 +138,7 @@ export function analyzeDefects(
     method: 'DPMO = 10⁶·defects/(units × opportunities); z-level = Q⁻¹(DPMO/10⁶)',
     assumptions,
     warnings: [],
+    warningCodes: [],
     intervals: {
       dpu: { lower: ci.lower / units, upper: ci.upper / units, upperBound: ci.upperBound / units, level },
       dpmo: {

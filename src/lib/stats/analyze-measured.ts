@@ -16,6 +16,7 @@ import {
   withinSigma,
   type SigmaEstimator
 } from './sigma-estimators';
+import { WarningList } from './result-warnings';
 import { SIGMA_SHIFT } from './sigma-level';
 import { checkSpecification, type Specification } from './specification';
 import { individualsStability, subgroupStability, type StabilityResult } from './stability';
@@ -102,7 +103,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     throw new RangeError(`Confidence must lie strictly between 0 and 1, got ${level}`);
 
   const assumptions: string[] = [];
-  const warnings: string[] = [];
+  const warnings = new WarningList();
   const intervals: Record<string, FigureInterval> = {};
   const sorted = sortedCopy(values);
   const mu = meanOf(values);
@@ -116,12 +117,14 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
   const ppmObserved = (outside / n) * 1e6;
 
   if (options.physicalMin !== undefined && (sorted[0] as number) < options.physicalMin) {
-    warnings.push(
+    warnings.add(
+      'below-physical-minimum',
       `Some values lie below the physical minimum of ${options.physicalMin} declared for this characteristic: check the data`
     );
   }
   if (options.physicalMax !== undefined && (sorted[n - 1] as number) > options.physicalMax) {
-    warnings.push(
+    warnings.add(
+      'above-physical-maximum',
       `Some values lie above the physical maximum of ${options.physicalMax} declared for this characteristic: check the data`
     );
   }
@@ -137,7 +140,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     );
   }
   if (!(sdOverall > 0)) {
-    warnings.push(
+    warnings.add(
+      'no-spread',
       'All values are identical: the spread is zero, so no capability index or model tail can be computed'
     );
     const ci = clopperPearson(outside, n, level);
@@ -161,7 +165,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
       modelLabel: 'observed fraction (no spread)',
       method: 'observed fraction out of specification; z-level from its upper confidence bound',
       assumptions: ['z-level from the upper confidence bound of the observed fraction (Clopper–Pearson)'],
-      warnings,
+      warnings: warnings.texts,
+      warningCodes: warnings.codes,
       intervals
     };
   }
@@ -178,7 +183,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     }
     groups = consecutiveSubgroups(values, options.subgroupSize);
     if (groups.length * options.subgroupSize < n) {
-      warnings.push(
+      warnings.add(
+        'incomplete-subgroup',
         `The last ${n - groups.length * options.subgroupSize} values do not fill a subgroup of ${options.subgroupSize} and are left out of the within sigma`
       );
     }
@@ -191,7 +197,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     throw new RangeError((error as Error).message, { cause: error });
   }
   if (!(sdWithin > 0)) {
-    warnings.push(
+    warnings.add(
+      'no-within-spread',
       'The within-subgroup spread is zero (repeated identical readings): Cp and Cpk are not computed'
     );
     sdWithin = undefined;
@@ -202,7 +209,11 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
 
   // Normality and stability.
   const normality = n >= 3 ? andersonDarlingNormal(sorted, mu, sdOverall) : undefined;
-  if (n < 8) warnings.push(`Only ${n} values: the normality test has little power and its p-value is rough`);
+  if (n < 8)
+    warnings.add(
+      'few-values-for-normality',
+      `Only ${n} values: the normality test has little power and its p-value is rough`
+    );
   let stability: StabilityResult | undefined;
   try {
     stability =
@@ -215,7 +226,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     stability = undefined;
   }
   if (stability && !stability.stable) {
-    warnings.push(
+    warnings.add(
+      'not-shown-stable',
       `Not shown to be stable — capability may not predict future output (${stability.description})`
     );
   }
@@ -251,7 +263,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     const search = searchModels(sorted, mu, sdOverall, [requested]);
     candidates = search.candidates;
     if (!candidates[0]?.accepted)
-      warnings.push(
+      warnings.add(
+        'requested-model-fits-poorly',
         `The requested ${requested} model does not fit these data well (${candidates[0]?.note ?? ''})`
       );
   }
@@ -273,7 +286,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     modelLabel: '',
     method: '',
     assumptions,
-    warnings,
+    warnings: warnings.texts,
+    warningCodes: warnings.codes,
     intervals,
     ppmObserved,
     probabilityPlot: probabilityPlot(sorted),
@@ -309,7 +323,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     result.method = `normal model; ${sdWithin !== undefined ? SIGMA_ESTIMATOR_LABELS[estimator] : 'no within sigma'}; overall sigma for Pp/Ppk, ppm, yield and z-level`;
     assumptions.unshift('normal model');
     if (normality && normality.p < 0.05)
-      warnings.push(
+      warnings.add(
+        'normality-rejected',
         `Normality is rejected (Anderson–Darling p = ${normality.p.toPrecision(2)}): the normal-model ppm may be far off in the tails`
       );
     addNormalIntervals(result, n, level, spec.target);
@@ -324,7 +339,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
       })
     );
     if ((model.parameters.massAtZero ?? 0) > 1e-9) {
-      warnings.push(
+      warnings.add(
+        'model-mass-below-zero',
         `The Box-Cox model puts ${(model.parameters.massAtZero! * 100).toPrecision(2)} % of its mass at or below zero, where no value can lie: its lower tail is unreliable`
       );
     }
@@ -337,7 +353,8 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     );
     assumptions.push('z-values are normal equivalents of the model tail fractions');
     assumptions.push('Cp/Cpk are not reported: within-sigma indices assume a normal model');
-    warnings.push(
+    warnings.add(
+      'no-model-interval',
       'No confidence interval is given for model-based figures; judge them with the sample size in mind'
     );
   } else {
@@ -373,11 +390,13 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     if (outside === 0)
       assumptions.push('no value outside the limits: the z-level is the lower confidence bound');
     if (requested !== 'quantile')
-      warnings.push(
+      warnings.add(
+        'no-model-fits',
         'None of the candidate models fits these data: ppm is the observed fraction, with a wide interval'
       );
     if (n < 1000)
-      warnings.push(
+      warnings.add(
+        'rough-percentiles',
         `Sample quantiles X0.00135 and X0.99865 need far more than ${n} values to be estimated; these Pp/Ppk are rough`
       );
   }
@@ -388,10 +407,11 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
       width && result.ppk
         ? ` (the ${Math.round(level * 100)} % interval for ${result.intervals.ppk ? 'Ppk' : 'Cpk'} runs from ${width.lower.toFixed(2)} to ${width.upper.toFixed(2)})`
         : '';
-    warnings.push(`Only ${n} values: intervals are wide${spread}; 30 or more are advised`);
+    warnings.add('small-sample', `Only ${n} values: intervals are wide${spread}; 30 or more are advised`);
   }
   if (distinct < Math.min(10, n)) {
-    warnings.push(
+    warnings.add(
+      'coarse-resolution',
       `Only ${distinct} distinct values: the measurement resolution may be too coarse for these limits`
     );
   }
@@ -441,6 +461,7 @@ function addRequirement(result: CapabilityResult, threshold: number, level: numb
     result.warnings.push(
       `Whether ${index === 'cpk' ? 'Cpk' : 'Ppk'} ≥ ${threshold} cannot be shown: no interval exists for this model`
     );
+    result.warningCodes.push('requirement-not-testable');
     return;
   }
   result.requirement = { index, threshold, level, estimate, lowerBound: bound, shown: bound >= threshold };

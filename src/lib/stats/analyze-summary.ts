@@ -1,3 +1,4 @@
+import { WarningList } from './result-warnings';
 import { cpm as cpmIndex, indices } from './capability-indices';
 import type { CapabilityResult } from './capability-result';
 import { bissellInterval, cpmInterval, spreadIndexInterval, type IndexInterval } from './confidence-bounds';
@@ -34,7 +35,7 @@ export function analyzeSummary(n: number, mu: number, sd: number, options: Summa
     'summary only: normality and stability not checked',
     'overall sigma as reported (sample standard deviation, n − 1); no within sigma, so no Cp/Cpk'
   ];
-  const warnings: string[] = [];
+  const warnings = new WarningList();
   const base: CapabilityResult = {
     kind: 'summary',
     n,
@@ -46,11 +47,15 @@ export function analyzeSummary(n: number, mu: number, sd: number, options: Summa
     modelLabel: `normal (mean ${mu}, sd ${sd}) from the reported summary`,
     method: 'normal model from the reported n, mean and standard deviation',
     assumptions,
-    warnings,
+    warnings: warnings.texts,
+    warningCodes: warnings.codes,
     intervals: {}
   };
   if (sd === 0) {
-    warnings.push('The reported standard deviation is zero: no index or tail fraction can be computed');
+    warnings.add(
+      'no-spread',
+      'The reported standard deviation is zero: no index or tail fraction can be computed'
+    );
     const inside = (spec.lsl === undefined || mu >= spec.lsl) && (spec.usl === undefined || mu <= spec.usl);
     return { ...base, yield: inside ? 1 : 0, zLevel: inside ? Infinity : -Infinity };
   }
@@ -87,7 +92,10 @@ export function analyzeSummary(n: number, mu: number, sd: number, options: Summa
     );
   }
   if (n < 30)
-    warnings.push(`Only ${n} values behind the summary: intervals are wide; 30 or more are advised`);
+    warnings.add(
+      'small-sample',
+      `Only ${n} values behind the summary: intervals are wide; 30 or more are advised`
+    );
   if (options.sdWithin !== undefined && options.sdWithin > 0) {
     const within = indices(mu, options.sdWithin, spec);
     result.sdWithin = options.sdWithin;

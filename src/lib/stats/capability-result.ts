@@ -1,3 +1,4 @@
+import type { WarningCode } from './result-warnings';
 import type { NormalityTest } from './anderson-darling';
 import type { SigmaEstimator } from './sigma-estimators';
 import type { StabilityResult } from './stability';
@@ -70,6 +71,8 @@ export interface CapabilityResult {
   method: string;
   assumptions: string[];
   warnings: string[];
+  /** The code of each warning, in the same order: what code reads (flags, badges); the sentences are for people. */
+  warningCodes: WarningCode[];
   intervals: Record<string, FigureInterval>;
   normality?: NormalityTest;
   stability?: StabilityResult;
