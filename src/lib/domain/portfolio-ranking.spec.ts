@@ -194,7 +194,7 @@ describe('ranking', () => {
     expect(after).toEqual(['y', 'x']);
   });
 
-  it('tells centering from spread', () => {
+  it('tells centring from spread', () => {
     const r = rankPortfolio(
       records({
         processes: [proc('p', 'vehicle-parts')],
@@ -204,7 +204,7 @@ describe('ranking', () => {
       BUILT_IN_PROFILES,
       { endPeriod: '2026-06', windowMonths: 1 }
     )[0]!;
-    const c = r.characteristics[0]!.centering!;
+    const c = r.characteristics[0]!.centring!;
     // Off-centre by 1.5 with sd 0.5: short now (Ppk 1.0), but centred it would reach Pp = 6/3 = 2.0.
     expect(r.status).toBe('short');
     expect(c.centringMeets).toBe(true);

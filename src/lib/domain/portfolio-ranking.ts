@@ -193,14 +193,14 @@ export function judgeCharacteristic(
     months,
     ...(bound !== undefined ? { bound } : {})
   };
-  // Centering or spread, for measured data with both limits, judged against the requirement as an index.
+  // Centring or spread, for measured data with both limits, judged against the requirement as an index.
   const lsl = characteristic.lsl;
   const usl = characteristic.usl;
   const sdNow = result.sdWithin ?? result.sdOverall;
   if (lsl !== undefined && usl !== undefined && sdNow !== undefined && sdNow > 0) {
     const requiredIndex = (needZ - shift) / 3;
     const centredIndex = (usl - lsl) / (6 * sdNow);
-    row.centering = {
+    row.centring = {
       centredIndex,
       sdNow,
       sdNeeded: (usl - lsl) / (6 * requiredIndex),

@@ -61,8 +61,8 @@ export interface CharacteristicRow {
   zShown?: number;
   /** z(estimate) − z(required), both as reported. */
   zGap?: number;
-  /** Centering or spread (measured data): the index if centred today, and the sd that would meet the requirement if centred. */
-  centering?: { centredIndex: number; sdNow: number; sdNeeded: number; centringMeets: boolean };
+  /** Centring or spread (measured data): the index if centred today, and the sd that would meet the requirement if centred. */
+  centring?: { centredIndex: number; sdNow: number; sdNeeded: number; centringMeets: boolean };
   badges: Badge[];
   months: number;
 }

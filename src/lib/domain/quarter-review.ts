@@ -129,7 +129,7 @@ export function moverOf(after: ProcessRow, before: ProcessRow | undefined): Revi
 
 function lineOf(row: ProcessRow): ReviewProcessLine {
   const w = row.weakest;
-  const centering = w?.centering;
+  const centring = w?.centring;
   return {
     processId: row.process.id,
     process: row.process.name,
@@ -146,7 +146,7 @@ function lineOf(row: ProcessRow): ReviewProcessLine {
     weakest: w?.characteristic.name,
     // For a shortfall: would centring alone meet the target, or must the spread shrink?
     spreadOrCentre:
-      centering && row.status === 'short' ? (centering.centringMeets ? 'centring' : 'spread') : undefined,
+      centring && row.status === 'short' ? (centring.centringMeets ? 'centring' : 'spread') : undefined,
     priority: row.priority
   };
 }
