@@ -109,13 +109,35 @@ export default ts.config(
   ),
   layer(
     ['src/lib/storage/**'],
-    [...any('exchange'), ...any('ui'), ...any('workers'), ...any('cli'), '$lib/**', ...FRAMEWORKS],
-    'storage may use domain and stats, never exchange, UI or workers'
+    [
+      ...any('exchange'),
+      ...any('spreadsheet'),
+      ...any('ui'),
+      ...any('workers'),
+      ...any('cli'),
+      '$lib/**',
+      ...FRAMEWORKS
+    ],
+    'storage may use domain and stats, never exchange, spreadsheets, UI or workers'
   ),
   layer(
     ['src/lib/exchange/**'],
     [...any('ui'), ...any('workers'), ...any('cli'), ...DATABASE, '$lib/**', 'dexie', ...FRAMEWORKS],
     'exchange may use domain, storage repositories and types, and stats — never the database, UI or workers'
+  ),
+  layer(
+    ['src/lib/spreadsheet/**'],
+    [
+      ...any('storage'),
+      ...any('exchange'),
+      ...any('ui'),
+      ...any('workers'),
+      ...any('cli'),
+      '$lib/**',
+      'dexie',
+      ...FRAMEWORKS
+    ],
+    'spreadsheet files (CSV in and out) use domain and stats only; the page commits what they read'
   ),
   layer(
     ['src/lib/workers/**'],

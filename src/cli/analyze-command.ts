@@ -1,5 +1,5 @@
 import { readFile } from 'node:fs/promises';
-import { readMeasurementCsv } from '../lib/exchange/measurement-csv';
+import { readMeasurementCsv } from '../lib/spreadsheet/measurement-csv';
 import { analyzeMeasured, type ModelChoice } from '../lib/stats/analyze-measured';
 import { CANDIDATE_ORDER } from '../lib/stats/model-search';
 import type { SigmaEstimator } from '../lib/stats/sigma-estimators';

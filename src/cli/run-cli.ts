@@ -1,4 +1,4 @@
-import { CsvInputError } from '../lib/exchange/measurement-csv';
+import { CsvInputError } from '../lib/spreadsheet/measurement-csv';
 import { analyzeCommand, MODELS } from './analyze-command';
 import { checkCommand } from './check-command';
 import { mergeCommand } from './merge-command';

@@ -3,7 +3,7 @@
  * chunks, rows into the import accumulator), timed, with peak memory sampled after every chunk. Prints only.
  */
 import Papa from 'papaparse';
-import { MeasurementImportAccumulator } from '../../src/lib/exchange/measurement-import';
+import { MeasurementImportAccumulator } from '../../src/lib/spreadsheet/measurement-import';
 import type { BenchRow } from './engine-bench';
 
 export function runCsvImportBench(): BenchRow[] {

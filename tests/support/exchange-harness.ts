@@ -40,7 +40,7 @@ export async function canonicalExport(s: CapstanStorage): Promise<string> {
 }
 
 /** Decodes, previews and applies a file, settling conflicts by `rule` if given. */
-export async function importBytes(
+export async function receiveBytes(
   s: CapstanStorage,
   bytes: Uint8Array,
   rule?: 'newer' | 'local' | 'incoming'

@@ -11,7 +11,7 @@ import {
   exchangeText
 } from '../../src/lib/exchange/exchange-file';
 import { databaseOf, type CapstanStorage } from '../../src/lib/storage/storage';
-import { closeDevice, exportBytes, importBytes, openDevice } from '../support/exchange-harness';
+import { closeDevice, exportBytes, receiveBytes, openDevice } from '../support/exchange-harness';
 
 /**
  * The sync paths of the trust issue, each at the level where it went wrong: a far-future stamp, a device named
@@ -84,7 +84,7 @@ describe('stamps from the far future', () => {
     expect(Math.abs(wall - Date.now())).toBeLessThan(60_000);
     expect(edited.clock).toMatch(/^\d{13}-\d{4}-/);
     const b = await device('b');
-    const { changeSet } = await importBytes(b, await exportBytes(a));
+    const { changeSet } = await receiveBytes(b, await exportBytes(a));
     expect(changeSet.records.sites).toHaveLength(1);
   });
 });
@@ -131,7 +131,7 @@ describe('a site deleted on one device and renamed on another', () => {
         },
         'new'
       );
-      await importBytes(lead, await exportBytes(office));
+      await receiveBytes(lead, await exportBytes(office));
       await office.sites.removeWithContents(site.id);
       await lead.sites.update(site.id, {
         name: 'Tessel Works (renamed)',
@@ -159,7 +159,7 @@ describe('a site deleted on one device and renamed on another', () => {
       expect((await lead.studies.forCharacteristic(ch.id)).length).toBe(keep ? 1 : 0);
       if (keep) expect((await lead.sites.list())[0]!.name).toBe('Tessel Works (renamed)');
       // Sent back, the outcome reaches the office whole, with no further question.
-      const back = await importBytes(office, await exportBytes(lead));
+      const back = await receiveBytes(office, await exportBytes(lead));
       expect(back.plan.conflicts).toHaveLength(0);
       expect((await office.characteristics.list()).length).toBe(keep ? 1 : 0);
       expect((await office.studies.forCharacteristic(ch.id)).length).toBe(keep ? 1 : 0);
@@ -182,7 +182,7 @@ describe('fields from a newer version', () => {
     const text = await exchangeText(
       changeSetOf(file.header, { ...file.records, characteristics: newer as never })
     );
-    await importBytes(b, new TextEncoder().encode(text));
+    await receiveBytes(b, new TextEncoder().encode(text));
     // Edited here by a version that does not know the fields: they stay.
     const ch = (await b.characteristics.list())[0]!;
     const {
@@ -198,7 +198,7 @@ describe('fields from a newer version', () => {
     } = ch as typeof ch & { localSeq?: number };
     void [_i, _c, _u, _r, _d, _v, _k, _l];
     await b.characteristics.update(ch.id, { ...fields, usl: 2.12 });
-    await importBytes(c, await exportBytes(b));
+    await receiveBytes(c, await exportBytes(b));
     const passed = (await c.characteristics.list())[0] as unknown as Record<string, unknown>;
     expect(passed.drawingRef).toBe('DWG-2207 rev C');
     expect(canonicalJson(passed.gauge)).toBe('{"id":"G-14"}');
@@ -211,7 +211,7 @@ describe('one month logged on two devices', () => {
     const office = await device('office');
     const lead = await device('lead');
     const { ch } = await plant(office);
-    await importBytes(lead, await exportBytes(office));
+    await receiveBytes(lead, await exportBytes(office));
     await office.studies.logOne(
       {
         characteristicId: ch.id,
@@ -256,7 +256,7 @@ describe('one month logged on two devices', () => {
     const kept = await office.studies.forCharacteristic(ch.id);
     expect(kept).toHaveLength(1);
     expect(kept[0]!.data).toMatchObject({ kind: 'summary', n: 50 });
-    await importBytes(lead, await exportBytes(office));
+    await receiveBytes(lead, await exportBytes(office));
     const travel = (x: RecordMeta) => canonicalJson({ ...x, localSeq: undefined });
     expect((await lead.studies.forCharacteristic(ch.id)).map(travel)).toEqual(kept.map(travel));
   });

@@ -19,7 +19,10 @@ describe('entry flags', () => {
 
 describe('flags read warning codes, never the wording', () => {
   it('flags a value outside the physical bounds by its code, whatever the sentence says', () => {
-    const r = analyzeMeasured([-0.1, 0.2, 0.3, 0.25, 0.22, 0.31, 0.28, 0.27], { spec: { usl: 0.4 }, physicalMin: 0 });
+    const r = analyzeMeasured([-0.1, 0.2, 0.3, 0.25, 0.22, 0.31, 0.28, 0.27], {
+      spec: { usl: 0.4 },
+      physicalMin: 0
+    });
     expect(r.warningCodes).toContain('below-physical-minimum');
     const reworded = { ...r, warnings: r.warnings.map(() => 'some other wording') };
     expect(entryFlags(reworded)).toContain('values outside physical bounds');

@@ -5,7 +5,7 @@ import {
   canonicalExport,
   closeDevice,
   exportBytes,
-  importBytes,
+  receiveBytes,
   openDevice
 } from '../../../tests/support/exchange-harness';
 import type { CapstanStorage } from '../storage/storage';
@@ -28,11 +28,11 @@ describe('exchange files between devices', () => {
     await a.loadDemo(demo);
     const file = await exportBytes(a);
     const b = await device('b');
-    const { plan } = await importBytes(b, file);
+    const { plan } = await receiveBytes(b, file);
     expect(plan.counts.new).toBe(demo.records.studies.length + 42 + 32 + 5 + 8 - plan.counts.deleted);
     expect(await canonicalExport(b)).toBe(await canonicalExport(a));
     // Importing the same file again changes nothing.
-    const again = await importBytes(b, file);
+    const again = await receiveBytes(b, file);
     expect(again.plan.counts).toMatchObject({ new: 0, updated: 0, deleted: 0, conflict: 0 });
     expect(again.result.written).toBe(0);
   });
@@ -61,7 +61,7 @@ describe('exchange files between devices', () => {
     await a.reviews.saveNote('2026-Q3', [], 'movers', 'Gate oxide improved for real.');
     await a.reviews.freeze('2026-Q3', [], figures, '2026-10-10T08:00:00.000Z');
     const b = await device('b');
-    const { plan } = await importBytes(b, await exportBytes(a));
+    const { plan } = await receiveBytes(b, await exportBytes(a));
     expect(plan.countsByKind.reviews.new).toBe(1);
     const there = await b.reviews.find('2026-Q3', []);
     expect(there?.notes.movers).toBe('Gate oxide improved for real.');
@@ -110,12 +110,12 @@ describe('exchange files between devices', () => {
       },
       'new'
     );
-    const up = await importBytes(hq, await exportBytes(site, { kind: 'changes', peerId: hq.deviceId }));
+    const up = await receiveBytes(hq, await exportBytes(site, { kind: 'changes', peerId: hq.deviceId }));
     expect(up.plan.counts.new).toBe(4);
 
     // The manager tightens the limits and sends everything for that site back.
     await hq.characteristics.update(ch.id, { ...stripMeta(ch), usl: 19 });
-    const down = await importBytes(site, await exportBytes(hq, { kind: 'site', siteId: plant.id }));
+    const down = await receiveBytes(site, await exportBytes(hq, { kind: 'site', siteId: plant.id }));
     expect(down.plan.counts).toMatchObject({ updated: 1, conflict: 0 });
     expect((await site.characteristics.get(ch.id))?.usl).toBe(19);
     expect(await canonicalExport(site)).toBe(await canonicalExport(hq));
@@ -142,7 +142,7 @@ describe('exchange files between devices', () => {
       { deviceId: site.deviceId, name: 'site', at: '2026-12-01T00:00:00Z' }
     );
     expect((await hq.characteristics.get(ch.id))?.name).toBe('Seal force (site)');
-    const back = await importBytes(site, await exportBytes(hq, { kind: 'changes', peerId: site.deviceId }));
+    const back = await receiveBytes(site, await exportBytes(hq, { kind: 'changes', peerId: site.deviceId }));
     expect(back.plan.counts.conflict).toBe(0);
     expect(await canonicalExport(site)).toBe(await canonicalExport(hq));
   });
@@ -151,14 +151,14 @@ describe('exchange files between devices', () => {
     const a = await device('a');
     const b = await device('b');
     const s = await a.sites.create({ name: 'Plant West', region: '', timeZone: 'UTC' });
-    await importBytes(b, await exportBytes(a));
+    await receiveBytes(b, await exportBytes(a));
     await a.sites.remove(s.id);
     await b.sites.update(s.id, { name: 'Plant West 2', region: '', timeZone: 'UTC' });
-    const { plan } = await importBytes(b, await exportBytes(a), 'local');
+    const { plan } = await receiveBytes(b, await exportBytes(a), 'local');
     expect(plan.conflicts[0]!.nature).toBe('deleted-there');
     expect((await b.sites.get(s.id))?.name).toBe('Plant West 2');
     // Sending the settled record back restores it on the deleting side, as an explicit outcome.
-    await importBytes(a, await exportBytes(b));
+    await receiveBytes(a, await exportBytes(b));
     expect((await a.sites.get(s.id))?.name).toBe('Plant West 2');
   });
 

@@ -153,7 +153,7 @@ export async function listPeers(db: CapstanDatabase): Promise<PeerRecord[]> {
  * What a preview found: the merge plan (domain/change-set-merge.ts) and the part of this device's records it was
  * made from, so that applying it settles against exactly what was shown.
  */
-export interface ImportPlan extends MergePlan {
+export interface ReceivePlan extends MergePlan {
   snapshot: RecordIndex;
 }
 
@@ -231,7 +231,7 @@ async function snapshotFor(db: CapstanDatabase, records: RecordsByKind): Promise
  * Works out, without writing, what merging a change set would do to every record. Refuses (ChangeSetRefused)
  * an id that this device holds as a different kind of record.
  */
-export async function previewChangeSet(db: CapstanDatabase, records: RecordsByKind): Promise<ImportPlan> {
+export async function previewChangeSet(db: CapstanDatabase, records: RecordsByKind): Promise<ReceivePlan> {
   const tables = RECORD_KINDS.map((k) => tableOf(db, k));
   return db.transaction('r', tables, async () => {
     const snapshot = await snapshotFor(db, records);
@@ -244,7 +244,7 @@ export async function previewChangeSet(db: CapstanDatabase, records: RecordsByKi
   });
 }
 
-export interface ImportResult {
+export interface ReceiveResult {
   counts: Record<MergeKind, number>;
   written: number;
 }
@@ -256,12 +256,12 @@ export interface ImportResult {
  */
 export async function applyChangeSet(
   db: CapstanDatabase,
-  plan: ImportPlan,
+  plan: ReceivePlan,
   choices: MergeChoices,
   ctx: WriteContext,
   clock: HybridClock,
   source: { deviceId: string; name: string; at: string }
-): Promise<ImportResult> {
+): Promise<ReceiveResult> {
   let writes: IndexedRecord[];
   try {
     writes = settleMerge(plan.snapshot, plan, choices, ctx);

@@ -9,7 +9,13 @@ import type { RecordsByKind } from '../domain/record-kinds';
 import { loadBackupStatus, type BackupStatus } from './backup-status';
 import type { MergeChoices } from '../domain/change-set-merge';
 import type { ReportingCurrency } from '../domain/reporting-currency';
-import type { CollectedChanges, ExportScope, ImportPlan, ImportResult, PeerRecord } from './change-set-store';
+import type {
+  CollectedChanges,
+  ExportScope,
+  ReceivePlan,
+  ReceiveResult,
+  PeerRecord
+} from './change-set-store';
 import { loadClock, loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
 import { ContextProfileRepository } from './context-profile-repository';
 import { EntryDraftRepository } from './entry-draft-repository';
@@ -73,12 +79,12 @@ export interface CapstanStorage {
       collected: CollectedChanges,
       peer?: { deviceId: string; name: string }
     ): Promise<void>;
-    preview(records: RecordsByKind): Promise<ImportPlan>;
+    preview(records: RecordsByKind): Promise<ReceivePlan>;
     apply(
-      plan: ImportPlan,
+      plan: ReceivePlan,
       choices: MergeChoices,
       source: { deviceId: string; name: string; at: string }
-    ): Promise<ImportResult>;
+    ): Promise<ReceiveResult>;
     peers(): Promise<PeerRecord[]>;
     backupStatus(): Promise<BackupStatus>;
     reminderDays(): Promise<number>;

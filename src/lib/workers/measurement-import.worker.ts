@@ -10,7 +10,7 @@ import {
   MeasurementImportAccumulator,
   type ImportContext,
   type ImportMapping
-} from '../exchange/measurement-import';
+} from '../spreadsheet/measurement-import';
 
 export interface ImportRequest {
   file: File;

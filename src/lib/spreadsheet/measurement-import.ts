@@ -37,7 +37,7 @@ export interface BadRow {
   reason: string;
 }
 
-export interface ImportResult {
+export interface ReceiveResult {
   groups: ImportGroup[];
   goodRows: number;
   badRows: BadRow[];
@@ -121,7 +121,7 @@ export class MeasurementImportAccumulator {
     this.goodRows += 1;
   }
 
-  result(): ImportResult {
+  result(): ReceiveResult {
     const groups = [...this.groups.values()].sort(
       (a, b) => a.period.localeCompare(b.period) || a.characteristicId.localeCompare(b.characteristicId)
     );
