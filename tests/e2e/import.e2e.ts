@@ -60,6 +60,12 @@ test('imports a CSV with semicolons and decimal commas, mapped by column, after 
   await expect(page.getByTestId('map-period').locator('option:checked')).toHaveText('Datum');
   await page.getByTestId('import-read').click();
   await expect(page.getByTestId('import-summary')).toHaveText('55 values in 2 studies.');
+  // Back to the columns keeps the file: the mapping can be mended without picking it again.
+  await page.getByTestId('import-back').click();
+  await expect(page.getByText('februar.csv')).toBeVisible();
+  await expect(page.getByTestId('map-value').locator('option:checked')).toHaveText('Wert');
+  await page.getByTestId('import-read').click();
+  await expect(page.getByTestId('import-summary')).toHaveText('55 values in 2 studies.');
   await page.getByTestId('import-commit').click();
   await expect(page.getByTestId('import-message')).toContainText('Imported 55 values: 2 studies created');
   const row = (name: string) => page.locator('tbody tr').filter({ hasText: name });

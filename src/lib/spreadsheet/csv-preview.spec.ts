@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { guessColumn, previewCsv } from './csv-preview';
+import { guessColumn, guessMapping, previewCsv } from './csv-preview';
 
 describe('CSV preview', () => {
   it('detects semicolons, decimal commas and a header, and drops a cut-off last line', () => {
@@ -18,5 +18,14 @@ describe('CSV preview', () => {
     const p = previewCsv('1.5\n1.6\n1.7\n');
     expect(p.hasHeader).toBe(false);
     expect(p.columns).toEqual(['column 1']);
+  });
+});
+
+describe('a first mapping of German headers', () => {
+  it('never takes a date column for the values: "Datum" holds digits but no numbers', () => {
+    const p = previewCsv('Datum;Messwert\n03.09.2026;10,2\n04.09.2026;10,4\n05.09.2026;10,1\n');
+    const guess = guessMapping(p);
+    expect(p.columns[guess.value]).toBe('Messwert');
+    expect(p.columns[guess.period]).toBe('Datum');
   });
 });

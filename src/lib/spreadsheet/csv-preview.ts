@@ -44,6 +44,29 @@ export function previewCsv(
   return { delimiter, decimal, hasHeader, columns, rows: (hasHeader ? rest : rows).slice(0, 8) };
 }
 
+/**
+ * A first mapping of the columns from the header words, and for the value column else the first column whose
+ * cells are all numbers — not merely digits: a date column such as "Datum" holds digits but no numbers.
+ */
+export function guessMapping(p: CsvPreview): {
+  value: number;
+  subgroup: number;
+  period: number;
+  characteristic: number;
+} {
+  const numeric = p.columns.findIndex(
+    (_, c) => p.rows.length > 0 && p.rows.every((r) => parseLocaleNumber(r[c] ?? '', p.decimal) !== undefined)
+  );
+  return {
+    value:
+      guessColumn(p.columns, ['value', 'wert', 'valeur', 'measure', 'reading']) ??
+      (numeric >= 0 ? numeric : 0),
+    subgroup: guessColumn(p.columns, ['subgroup', 'group', 'gruppe', 'stichprobe', 'sample']) ?? -1,
+    period: guessColumn(p.columns, ['date', 'datum', 'time', 'period', 'month', 'zeit']) ?? -1,
+    characteristic: guessColumn(p.columns, ['characteristic', 'merkmal', 'feature', 'parameter']) ?? -1
+  };
+}
+
 /** The column whose label matches one of the words (case-insensitive), for a sensible first mapping. */
 export function guessColumn(columns: readonly string[], words: readonly string[]): number | undefined {
   const i = columns.findIndex((c) => words.some((w) => c.toLowerCase().includes(w)));
