@@ -32,7 +32,7 @@ export function periodOf(date: Date): Period {
 /** The period `months` after (or, when negative, before) `period`. */
 export function addMonths(period: Period, months: number): Period {
   const match = PERIOD_PATTERN.exec(period);
-  if (!match) throw new RangeError(`addMonths requires a period written YYYY-MM, got '${period}'`);
+  if (!match) throw new RangeError(`A month written YYYY-MM is needed (got '${period}')`);
   const index = Number(match[1]) * 12 + (Number(match[2]) - 1) + months;
   const year = Math.floor(index / 12);
   return `${String(year).padStart(4, '0')}-${String((index % 12) + 1).padStart(2, '0')}`;
@@ -41,14 +41,14 @@ export function addMonths(period: Period, months: number): Period {
 /** Calendar quarter of a period, written `YYYY-Qn`. */
 export function quarterOf(period: Period): string {
   const match = PERIOD_PATTERN.exec(period);
-  if (!match) throw new RangeError(`quarterOf requires a period written YYYY-MM, got '${period}'`);
+  if (!match) throw new RangeError(`A month written YYYY-MM is needed (got '${period}')`);
   return `${match[1]}-Q${Math.floor((Number(match[2]) - 1) / 3) + 1}`;
 }
 
 /** The three periods of a quarter written `YYYY-Qn`. */
 export function periodsOfQuarter(quarter: string): Period[] {
   const match = /^(\d{4})-Q([1-4])$/.exec(quarter);
-  if (!match) throw new RangeError(`periodsOfQuarter requires a quarter written YYYY-Qn, got '${quarter}'`);
+  if (!match) throw new RangeError(`A quarter written YYYY-Qn is needed (got '${quarter}')`);
   const first = `${match[1]}-${String((Number(match[2]) - 1) * 3 + 1).padStart(2, '0')}`;
   return [first, addMonths(first, 1), addMonths(first, 2)];
 }

@@ -10,7 +10,7 @@ export interface CountOptions {
 
 function checkLevel(level: number): void {
   if (!(level > 0 && level < 1))
-    throw new RangeError(`Confidence must lie strictly between 0 and 1, got ${level}`);
+    throw new RangeError(`A confidence level strictly between 0 and 1 is needed (got ${level})`);
 }
 
 function shift(result: CapabilityResult, options: CountOptions): CapabilityResult {

@@ -94,13 +94,13 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
   const spec = options.spec;
   checkSpecification(spec);
   const n = values.length;
-  if (n < 2) throw new RangeError(`At least 2 values are needed, got ${n}`);
+  if (n < 2) throw new RangeError(`At least 2 values are needed for capability figures (got ${n})`);
   for (let i = 0; i < n; i += 1) {
     if (!Number.isFinite(values[i] as number)) throw new RangeError(`Value ${i + 1} is not a finite number`);
   }
   const level = options.confidence ?? 0.95;
   if (!(level > 0 && level < 1))
-    throw new RangeError(`Confidence must lie strictly between 0 and 1, got ${level}`);
+    throw new RangeError(`A confidence level strictly between 0 and 1 is needed (got ${level})`);
 
   const assumptions: string[] = [];
   const warnings = new WarningList();

@@ -12,7 +12,7 @@ export function andersonDarlingStatistic(
   sf: (x: number) => number
 ): number {
   const n = sorted.length;
-  if (n < 2) throw new RangeError('andersonDarlingStatistic requires at least two values');
+  if (n < 2) throw new RangeError('At least 2 values are needed for the Anderson–Darling statistic');
   let sum = 0;
   for (let i = 0; i < n; i += 1) {
     const lo = Math.max(1e-300, cdf(sorted[i] as number));
@@ -62,7 +62,7 @@ export function andersonDarlingNormalP(adjusted: number): number {
  */
 export function andersonDarlingNormal(sorted: ArrayLike<number>, mu: number, sd: number): NormalityTest {
   const n = sorted.length;
-  if (n < 2) throw new RangeError('andersonDarlingNormal requires at least two values');
+  if (n < 2) throw new RangeError('At least 2 values are needed for the Anderson–Darling test');
   // One tail evaluation per value: the smaller tail is computed directly, the other as its complement
   // (an absolute error of 1e-16 there changes A² by far less than its last shown digit). The pairing of
   // F(x₍ᵢ₎) with 1 − F(x₍ₙ₊₁₋ᵢ₎) is regrouped per value: Σ(2i−1)·ln Fᵢ + Σ(2n+1−2j)·ln(1 − Fⱼ).

@@ -18,7 +18,7 @@ export interface IndexInterval {
 
 function checkLevel(level: number): void {
   if (!(level > 0 && level < 1))
-    throw new RangeError(`confidence level must lie strictly between 0 and 1, got ${level}`);
+    throw new RangeError(`A confidence level strictly between 0 and 1 is needed (got ${level})`);
 }
 
 /**

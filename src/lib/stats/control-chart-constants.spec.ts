@@ -32,6 +32,6 @@ describe('control-chart constants', () => {
   it('falls back to the exact forms above 25 and refuses sizes below 2', () => {
     expectRelative(c4(30), c4Exact(30), 1e-15);
     expectRelative(d2(30), d2Exact(30), 1e-15);
-    expect(() => d2(1)).toThrow(/≥ 2/);
+    expect(() => d2(1)).toThrow(/A whole subgroup size of at least 2 is needed for d2 \(got 1\)/);
   });
 });

@@ -40,7 +40,7 @@ export const CONTROL_CHART_TABLE: Readonly<Record<number, { d2: number; d3: numb
 
 /** c4(n) = √(2/(n−1))·Γ(n/2)/Γ((n−1)/2): E[s] = c4·σ for normal samples of size n (Montgomery, Introduction to Statistical Quality Control, 6th ed., §6.2). */
 export function c4Exact(n: number): number {
-  if (!(n >= 2)) throw new RangeError('c4Exact requires n ≥ 2');
+  if (!(n >= 2)) throw new RangeError(`A subgroup size of at least 2 is needed for c4 (got ${n})`);
   return Math.sqrt(2 / (n - 1)) * Math.exp(jStat.gammaln(n / 2) - jStat.gammaln((n - 1) / 2));
 }
 
@@ -49,7 +49,7 @@ export function c4Exact(n: number): number {
  * (Tippett 1925). Evaluated by composite Simpson's rule on [−12, 12] with 6 000 panels (error far below 1e-10).
  */
 export function d2Exact(n: number): number {
-  if (!(n >= 2)) throw new RangeError('d2Exact requires n ≥ 2');
+  if (!(n >= 2)) throw new RangeError(`A subgroup size of at least 2 is needed for d2 (got ${n})`);
   const a = -12;
   const b = 12;
   const panels = 6000;
@@ -69,7 +69,7 @@ const exactD2Cache = new Map<number, number>();
 export function d2(n: number): number {
   const row = CONTROL_CHART_TABLE[n];
   if (row) return row.d2;
-  if (!Number.isInteger(n) || n < 2) throw new RangeError(`d2 requires a whole subgroup size ≥ 2, got ${n}`);
+  if (!Number.isInteger(n) || n < 2) throw new RangeError(`A whole subgroup size of at least 2 is needed for d2 (got ${n})`);
   let v = exactD2Cache.get(n);
   if (v === undefined) {
     v = d2Exact(n);

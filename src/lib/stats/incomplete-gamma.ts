@@ -8,7 +8,7 @@ import { normalQuantile } from './normal-distribution';
  * cost grows like √a, not like a — a gamma fitted to a tight process has shapes of 10⁶ and more.
  */
 export function regularizedGamma(a: number, x: number): { p: number; q: number } {
-  if (!(a > 0)) throw new RangeError('regularizedGamma requires a > 0');
+  if (!(a > 0)) throw new RangeError(`A positive shape is needed for the incomplete gamma function (got ${a})`);
   if (x <= 0) return { p: 0, q: 1 };
   const logPrefix = a * Math.log(x) - x - jStat.gammaln(a);
   if (x < a + 1) {
@@ -53,7 +53,7 @@ export function gammaQuantile(p: number, a: number, theta: number): number {
   if (!(p > 0 && p < 1)) {
     if (p === 0) return 0;
     if (p === 1) return Infinity;
-    throw new RangeError(`gammaQuantile requires 0 ≤ p ≤ 1, got ${p}`);
+    throw new RangeError(`A probability from 0 to 1 is needed for a gamma quantile (got ${p})`);
   }
   const z = normalQuantile(p);
   const c = 1 / (9 * a);

@@ -83,7 +83,7 @@ describe('compensated summation', () => {
   });
 
   it('refuses too few values', () => {
-    expect(() => mean([])).toThrow(/at least one value/);
-    expect(() => sampleSd([1])).toThrow(/at least two values/);
+    expect(() => mean([])).toThrow(/At least 1 value is needed for a mean/);
+    expect(() => sampleSd([1])).toThrow(/At least 2 values are needed for a standard deviation/);
   });
 });

@@ -7,7 +7,7 @@ import { neumaierSum } from './summation';
  */
 export function mean(values: ArrayLike<number>): number {
   const n = values.length;
-  if (n === 0) throw new RangeError('mean requires at least one value');
+  if (n === 0) throw new RangeError('At least 1 value is needed for a mean');
   const first = neumaierSum(values) / n;
   return first + neumaierSum(values, first) / n;
 }
@@ -22,7 +22,7 @@ export function mean(values: ArrayLike<number>): number {
  */
 export function sampleVariance(values: ArrayLike<number>, knownMean?: number): number {
   const n = values.length;
-  if (n < 2) throw new RangeError('sampleVariance requires at least two values');
+  if (n < 2) throw new RangeError('At least 2 values are needed for a standard deviation');
   const m = knownMean ?? mean(values);
   let ss = 0;
   let ssC = 0;

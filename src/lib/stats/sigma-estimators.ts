@@ -42,7 +42,7 @@ export function consecutiveSubgroups(values: ArrayLike<number>, size: number): n
 /** R̄/d2 over subgroups of size ≥ 2; with unequal sizes, the mean of Rᵢ/d2(nᵢ). Groups of one value are skipped. */
 export function sigmaFromRanges(groups: readonly number[][]): number {
   const usable = groups.filter((g) => g.length >= 2);
-  if (usable.length === 0) throw new RangeError('sigmaFromRanges requires a subgroup of at least two values');
+  if (usable.length === 0) throw new RangeError('A subgroup of at least 2 values is needed for the within sigma from ranges');
   let sum = 0;
   for (const g of usable) {
     let lo = Infinity;
@@ -60,7 +60,7 @@ export function sigmaFromRanges(groups: readonly number[][]): number {
 export function sigmaFromSubgroupSds(groups: readonly number[][]): number {
   const usable = groups.filter((g) => g.length >= 2);
   if (usable.length === 0)
-    throw new RangeError('sigmaFromSubgroupSds requires a subgroup of at least two values');
+    throw new RangeError('A subgroup of at least 2 values is needed for the within sigma from subgroup standard deviations');
   let sum = 0;
   for (const g of usable) sum += Math.sqrt(sampleVariance(g)) / c4(g.length);
   return sum / usable.length;
@@ -75,13 +75,13 @@ export function pooledSd(groups: readonly number[][]): number {
     ss += (g.length - 1) * sampleVariance(g);
     df += g.length - 1;
   }
-  if (df === 0) throw new RangeError('pooledSd requires a subgroup of at least two values');
+  if (df === 0) throw new RangeError('A subgroup of at least 2 values is needed for a pooled standard deviation');
   return Math.sqrt(ss / df);
 }
 
 /** Mean moving range of span 2, MR̄ = Σ|xᵢ − xᵢ₋₁|/(n − 1). */
 export function meanMovingRange(values: ArrayLike<number>): number {
-  if (values.length < 2) throw new RangeError('meanMovingRange requires at least two values');
+  if (values.length < 2) throw new RangeError('At least 2 values are needed for a moving range');
   let sum = 0;
   for (let i = 1; i < values.length; i += 1)
     sum += Math.abs((values[i] as number) - (values[i - 1] as number));

@@ -4,7 +4,7 @@
  * 6.3.18 and 6.4.12). Absolute error below 1e-13 for x > 0.
  */
 export function digamma(x: number): number {
-  if (!(x > 0)) throw new RangeError('digamma is defined here for x > 0');
+  if (!(x > 0)) throw new RangeError(`A positive argument is needed for digamma (got ${x})`);
   let result = 0;
   let v = x;
   while (v < 6) {
@@ -21,7 +21,7 @@ export function digamma(x: number): number {
 }
 
 export function trigamma(x: number): number {
-  if (!(x > 0)) throw new RangeError('trigamma is defined here for x > 0');
+  if (!(x > 0)) throw new RangeError(`A positive argument is needed for trigamma (got ${x})`);
   let result = 0;
   let v = x;
   while (v < 6) {

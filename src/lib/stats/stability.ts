@@ -98,7 +98,7 @@ function spreadSignals(
 /** Individuals and moving-range chart of values in time order. Needs at least 3 values. */
 export function individualsStability(values: ArrayLike<number>, knownMean?: number): StabilityResult {
   const n = values.length;
-  if (n < 3) throw new RangeError('individualsStability requires at least three values');
+  if (n < 3) throw new RangeError('At least 3 values are needed for an individuals control chart');
   const centre = knownMean ?? mean(values);
   let sum = 0;
   for (let i = 1; i < n; i += 1) sum += Math.abs((values[i] as number) - (values[i - 1] as number));
@@ -124,7 +124,7 @@ export function individualsStability(values: ArrayLike<number>, knownMean?: numb
 export function subgroupStability(groups: readonly number[][], sigmaWithin: number): StabilityResult {
   const usable = groups.filter((g) => g.length >= 2);
   if (usable.length < 3)
-    throw new RangeError('subgroupStability requires at least three subgroups of two or more values');
+    throw new RangeError('At least 3 subgroups of 2 or more values are needed for a subgroup control chart');
   const size = Math.round(usable.reduce((a, g) => a + g.length, 0) / usable.length);
   const means = usable.map((g) => mean(g));
   const centre = mean(means);

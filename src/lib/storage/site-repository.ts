@@ -36,9 +36,14 @@ export class SiteRepository extends RecordRepository<Site> {
     return d.transaction('rw', this.allTables(), async () => {
       const site = await d.sites.get(id);
       if (!site || !isLive(site)) throw new RecordNotFoundError('Site', id);
-      const tombstone = stampDeleted(site, this.ctx);
+      // The deletion time marks what this deletion takes along (undo and merges bring back exactly those). A
+      // record under the site deleted on its own in the same millisecond must not share it: move on by 1 ms.
+      const taken = await this.deletionTimesUnder(id);
+      let ms = this.ctx.now().getTime();
+      while (taken.has(new Date(ms).toISOString())) ms += 1;
+      const fixedClock = { ...this.ctx, now: () => new Date(ms) };
+      const tombstone = stampDeleted(site, fixedClock);
       const at = tombstone.deletedAt as string;
-      const fixedClock = { ...this.ctx, now: () => new Date(at) };
       const bury = async <T extends RecordMeta>(table: Table<T, string>, rows: T[]) => {
         const live = rows.filter(isLive);
         await table.bulkPut(live.map((r) => stampDeleted(r, fixedClock)));
@@ -73,6 +78,23 @@ export class SiteRepository extends RecordRepository<Site> {
         }
       };
     });
+  }
+
+  /** Deletion times of the records under a site that are already deleted. */
+  private async deletionTimesUnder(siteId: string): Promise<Set<string>> {
+    const d = this.db;
+    const out = new Set<string>();
+    const note = (rows: RecordMeta[]) => {
+      for (const r of rows) if (r.deletedAt) out.add(r.deletedAt);
+    };
+    const processes = await d.processes.where('siteId').equals(siteId).toArray();
+    note(processes);
+    const processIds = processes.map((p) => p.id);
+    const characteristics = await d.characteristics.where('processId').anyOf(processIds).toArray();
+    note(characteristics);
+    note(await d.studies.where('characteristicId').anyOf(characteristics.map((c) => c.id)).toArray());
+    note(await d.projects.where('processId').anyOf(processIds).toArray());
+    return out;
   }
 
   async undoRemoval(removal: SiteRemoval): Promise<void> {

@@ -1,5 +1,5 @@
 import 'fake-indexeddb/auto';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { ValidationError } from '../domain/validation-error';
 import { openStorage, type CapstanStorage, databaseOf } from './storage';
 
@@ -187,6 +187,27 @@ describe('repositories', () => {
     await storage.sites.undoRemoval(removal);
     expect(await storage.processes.get(process.id)).toBeDefined();
     expect((await storage.studies.list()).map((s) => s.period)).toEqual(['2026-02']);
+  });
+
+  it('keeps a record deleted on its own apart from a site deletion in the same millisecond', async () => {
+    vi.useFakeTimers({ toFake: ['Date'] });
+    vi.setSystemTime(new Date('2026-05-04T10:00:00.000Z'));
+    try {
+      const { site, characteristic } = await seedProcess(storage);
+      const alone = await storage.studies.create({
+        characteristicId: characteristic.id,
+        period: '2026-01',
+        data: { kind: 'raw', values: [20] },
+        enteredBy: ''
+      });
+      await storage.studies.remove(alone.id);
+      const removal = await storage.sites.removeWithContents(site.id);
+      expect(removal.deletedAt).not.toBe((await databaseOf(storage).studies.get(alone.id))!.deletedAt);
+      await storage.sites.undoRemoval(removal);
+      expect(await storage.studies.get(alone.id)).toBeUndefined();
+    } finally {
+      vi.useRealTimers();
+    }
   });
 });
 
