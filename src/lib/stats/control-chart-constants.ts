@@ -69,7 +69,8 @@ const exactD2Cache = new Map<number, number>();
 export function d2(n: number): number {
   const row = CONTROL_CHART_TABLE[n];
   if (row) return row.d2;
-  if (!Number.isInteger(n) || n < 2) throw new RangeError(`A whole subgroup size of at least 2 is needed for d2 (got ${n})`);
+  if (!Number.isInteger(n) || n < 2)
+    throw new RangeError(`A whole subgroup size of at least 2 is needed for d2 (got ${n})`);
   let v = exactD2Cache.get(n);
   if (v === undefined) {
     v = d2Exact(n);

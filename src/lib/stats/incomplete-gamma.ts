@@ -8,7 +8,8 @@ import { normalQuantile } from './normal-distribution';
  * cost grows like √a, not like a — a gamma fitted to a tight process has shapes of 10⁶ and more.
  */
 export function regularizedGamma(a: number, x: number): { p: number; q: number } {
-  if (!(a > 0)) throw new RangeError(`A positive shape is needed for the incomplete gamma function (got ${a})`);
+  if (!(a > 0))
+    throw new RangeError(`A positive shape is needed for the incomplete gamma function (got ${a})`);
   if (x <= 0) return { p: 0, q: 1 };
   const logPrefix = a * Math.log(x) - x - jStat.gammaln(a);
   if (x < a + 1) {

@@ -80,7 +80,9 @@ describe('standard normal quantiles', () => {
   });
 
   it('refuses probabilities outside [0, 1]', () => {
-    expect(() => normalQuantile(1.2)).toThrow(/A probability from 0 to 1 is needed for a normal quantile \(got 1.2\)/);
+    expect(() => normalQuantile(1.2)).toThrow(
+      /A probability from 0 to 1 is needed for a normal quantile \(got 1.2\)/
+    );
     expect(normalQuantile(0)).toBe(Number.NEGATIVE_INFINITY);
   });
 });

@@ -110,7 +110,8 @@ function lowerQuantile(p: number): number {
 
 /** Φ⁻¹(p): the z below which a fraction p lies. Throws outside [0, 1]. Example: normalQuantile(0.975) ≈ 1.959964. */
 export function normalQuantile(p: number): number {
-  if (!(p >= 0 && p <= 1)) throw new RangeError(`A probability from 0 to 1 is needed for a normal quantile (got ${p})`);
+  if (!(p >= 0 && p <= 1))
+    throw new RangeError(`A probability from 0 to 1 is needed for a normal quantile (got ${p})`);
   if (p === 0) return Number.NEGATIVE_INFINITY;
   if (p === 1) return Number.POSITIVE_INFINITY;
   return p <= 0.5 ? lowerQuantile(p) : -lowerQuantile(1 - p);
@@ -121,7 +122,8 @@ export function normalQuantile(p: number): number {
  * their precision. Example: normalUpperQuantile(0.0013498980316301) ≈ 3.
  */
 export function normalUpperQuantile(q: number): number {
-  if (!(q >= 0 && q <= 1)) throw new RangeError(`A probability from 0 to 1 is needed for a normal quantile (got ${q})`);
+  if (!(q >= 0 && q <= 1))
+    throw new RangeError(`A probability from 0 to 1 is needed for a normal quantile (got ${q})`);
   if (q === 0) return Number.POSITIVE_INFINITY;
   if (q === 1) return Number.NEGATIVE_INFINITY;
   return q <= 0.5 ? -lowerQuantile(q) : lowerQuantile(1 - q);

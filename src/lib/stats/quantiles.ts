@@ -6,7 +6,8 @@
 export function quantileType6(sorted: ArrayLike<number>, p: number): number {
   const n = sorted.length;
   if (n === 0) throw new RangeError('At least 1 value is needed for a quantile');
-  if (!(p >= 0 && p <= 1)) throw new RangeError(`A probability from 0 to 1 is needed for a quantile (got ${p})`);
+  if (!(p >= 0 && p <= 1))
+    throw new RangeError(`A probability from 0 to 1 is needed for a quantile (got ${p})`);
   const h = p * (n + 1);
   if (h <= 1) return sorted[0] as number;
   if (h >= n) return sorted[n - 1] as number;

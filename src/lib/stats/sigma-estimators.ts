@@ -42,7 +42,8 @@ export function consecutiveSubgroups(values: ArrayLike<number>, size: number): n
 /** R̄/d2 over subgroups of size ≥ 2; with unequal sizes, the mean of Rᵢ/d2(nᵢ). Groups of one value are skipped. */
 export function sigmaFromRanges(groups: readonly number[][]): number {
   const usable = groups.filter((g) => g.length >= 2);
-  if (usable.length === 0) throw new RangeError('A subgroup of at least 2 values is needed for the within sigma from ranges');
+  if (usable.length === 0)
+    throw new RangeError('A subgroup of at least 2 values is needed for the within sigma from ranges');
   let sum = 0;
   for (const g of usable) {
     let lo = Infinity;
@@ -60,7 +61,9 @@ export function sigmaFromRanges(groups: readonly number[][]): number {
 export function sigmaFromSubgroupSds(groups: readonly number[][]): number {
   const usable = groups.filter((g) => g.length >= 2);
   if (usable.length === 0)
-    throw new RangeError('A subgroup of at least 2 values is needed for the within sigma from subgroup standard deviations');
+    throw new RangeError(
+      'A subgroup of at least 2 values is needed for the within sigma from subgroup standard deviations'
+    );
   let sum = 0;
   for (const g of usable) sum += Math.sqrt(sampleVariance(g)) / c4(g.length);
   return sum / usable.length;
@@ -75,7 +78,8 @@ export function pooledSd(groups: readonly number[][]): number {
     ss += (g.length - 1) * sampleVariance(g);
     df += g.length - 1;
   }
-  if (df === 0) throw new RangeError('A subgroup of at least 2 values is needed for a pooled standard deviation');
+  if (df === 0)
+    throw new RangeError('A subgroup of at least 2 values is needed for a pooled standard deviation');
   return Math.sqrt(ss / df);
 }
 

@@ -92,7 +92,12 @@ export class SiteRepository extends RecordRepository<Site> {
     const processIds = processes.map((p) => p.id);
     const characteristics = await d.characteristics.where('processId').anyOf(processIds).toArray();
     note(characteristics);
-    note(await d.studies.where('characteristicId').anyOf(characteristics.map((c) => c.id)).toArray());
+    note(
+      await d.studies
+        .where('characteristicId')
+        .anyOf(characteristics.map((c) => c.id))
+        .toArray()
+    );
     note(await d.projects.where('processId').anyOf(processIds).toArray());
     return out;
   }

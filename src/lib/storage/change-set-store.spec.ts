@@ -1,0 +1,95 @@
+import 'fake-indexeddb/auto';
+import { afterEach, describe, expect, it } from 'vitest';
+import { stampNew } from '../domain/record-meta';
+import { openStorage, databaseOf, type CapstanStorage } from './storage';
+
+/** The change-set store directly: what each scope collects, and what preview and apply refuse. */
+const opened: CapstanStorage[] = [];
+afterEach(async () => {
+  for (const s of opened.splice(0)) {
+    databaseOf(s).close();
+    await databaseOf(s).delete();
+  }
+});
+async function device() {
+  const s = await openStorage(`change-set-${Math.random().toString(36).slice(2)}`);
+  opened.push(s);
+  return s;
+}
+async function twoSites(s: CapstanStorage) {
+  const out = [];
+  for (const name of ['Ostby Works', 'Pell Yard']) {
+    const site = await s.sites.create({ name, region: '', timeZone: 'UTC' });
+    const process = await s.processes.create({
+      siteId: site.id,
+      name: `${name} line`,
+      owner: '',
+      contextId: 'vehicle-parts',
+      monthlyVolume: 10,
+      costPerDefective: 1,
+      currency: 'EUR'
+    });
+    out.push({ site, process });
+  }
+  return out;
+}
+
+describe('change-set store', () => {
+  it('collects everything, one site with its records (and every context profile), or the changes for a peer', async () => {
+    const s = await device();
+    const [a, b] = await twoSites(s);
+    const everything = await s.exchange.collect({ kind: 'everything' });
+    expect(everything.records.sites).toHaveLength(2);
+    const one = await s.exchange.collect({ kind: 'site', siteId: a!.site.id });
+    expect(one.records.sites.map((x) => x.id)).toEqual([a!.site.id]);
+    expect(one.records.processes.map((x) => x.id)).toEqual([a!.process.id]);
+    // The first file to a peer carries everything; after it is remembered, only later writes (plus a margin).
+    const first = await s.exchange.collect({ kind: 'changes', peerId: 'peer-1' });
+    expect(first.records.processes).toHaveLength(2);
+    expect(b).toBeDefined();
+  });
+
+  it('refuses an id that this device holds as another kind of record, writing nothing', async () => {
+    const s = await device();
+    const [a] = await twoSites(s);
+    const ctx = {
+      deviceId: 'other',
+      now: () => new Date('2026-10-01T00:00:00Z'),
+      newId: () => a!.process.id
+    };
+    const site = stampNew({ name: 'Clash', region: '', timeZone: 'UTC' }, ctx);
+    const records = {
+      contextProfiles: [],
+      sites: [site],
+      processes: [],
+      characteristics: [],
+      studies: [],
+      projects: [],
+      reviews: []
+    };
+    await expect(s.exchange.preview(records)).rejects.toThrow(/is a process on this device/);
+  });
+
+  it('refuses to apply a preview once a record it writes has changed since, writing nothing', async () => {
+    const s = await device();
+    const [a] = await twoSites(s);
+    const ctx = { deviceId: 'other', now: () => new Date('2026-10-01T00:00:00Z'), newId: () => 'x' };
+    const { stampUpdate } = await import('../domain/record-meta');
+    const edited = stampUpdate(a!.site, { name: 'Ostby Works (renamed)', region: '', timeZone: 'UTC' }, ctx);
+    const records = {
+      contextProfiles: [],
+      sites: [edited],
+      processes: [],
+      characteristics: [],
+      studies: [],
+      projects: [],
+      reviews: []
+    };
+    const plan = await s.exchange.preview(records);
+    await s.sites.update(a!.site.id, { name: 'Ostby Works 2', region: '', timeZone: 'UTC' });
+    await expect(
+      s.exchange.apply(plan, {}, { deviceId: 'other', name: 'o', at: '2026-10-01T00:00:00Z' })
+    ).rejects.toThrow(/changed on this device after the preview; nothing was imported/);
+    expect((await s.sites.get(a!.site.id))!.name).toBe('Ostby Works 2');
+  });
+});
