@@ -28,8 +28,12 @@ function checkLevel(level: number): void {
  * Reproduces the e-Handbook's furnace case study interval (1.17234, 1.45372).
  */
 export function spreadIndexInterval(index: number, n: number, level = 0.95): IndexInterval {
+  return chiSquareIndexInterval(index, n - 1, level);
+}
+
+/** index·√(χ²_{p, ν}/ν) at p = α/2, 1 − α/2 and α: the chi-square interval of a spread index with ν degrees of freedom. */
+function chiSquareIndexInterval(index: number, df: number, level: number): IndexInterval {
   checkLevel(level);
-  const df = n - 1;
   const alpha = 1 - level;
   const q = (p: number) => Math.sqrt(chiSquareQuantile(p, df) / df);
   return {
@@ -57,17 +61,8 @@ export function cpmInterval(
   target: number,
   level = 0.95
 ): IndexInterval {
-  checkLevel(level);
   const a2 = sd > 0 ? ((mean - target) / sd) ** 2 : 0;
-  const df = (n * (1 + a2) ** 2) / (1 + 2 * a2);
-  const alpha = 1 - level;
-  const q = (p: number) => Math.sqrt(chiSquareQuantile(p, df) / df);
-  return {
-    lower: index * q(alpha / 2),
-    upper: index * q(1 - alpha / 2),
-    lowerBound: index * q(alpha),
-    level
-  };
+  return chiSquareIndexInterval(index, (n * (1 + a2) ** 2) / (1 + 2 * a2), level);
 }
 
 /**

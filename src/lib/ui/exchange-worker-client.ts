@@ -1,5 +1,6 @@
 import type { ChangeSet } from '../exchange/exchange-file';
 import type { ExchangeWorkerMessage, ExchangeWorkerRequest } from '../workers/exchange-file.worker';
+import { workerJob } from './worker-job';
 
 /** Words for the stages the exchange worker reports, for a status line. */
 export const STAGE_LABEL: Record<string, string> = {
@@ -10,45 +11,26 @@ export const STAGE_LABEL: Record<string, string> = {
   writing: 'Writing the file…'
 };
 
-/** Runs one request in a fresh worker; `cancel` stops it (nothing has been written anywhere). */
+/** Runs one request in a fresh worker (worker-job.ts), reporting its stages. */
 function run<T>(
   request: ExchangeWorkerRequest,
   onStage: (label: string) => void,
   pick: (m: ExchangeWorkerMessage) => T | undefined
 ): { done: Promise<T>; cancel: () => void } {
-  const worker = new Worker(new URL('../workers/exchange-file.worker.ts', import.meta.url), {
-    type: 'module'
-  });
-  let reject: (e: Error) => void = () => undefined;
-  const done = new Promise<T>((resolve, rej) => {
-    reject = rej;
-    worker.onmessage = (event: MessageEvent<ExchangeWorkerMessage>) => {
-      const m = event.data;
-      if (m.type === 'stage') onStage(STAGE_LABEL[m.stage] ?? m.stage);
-      else if (m.type === 'refused') {
-        worker.terminate();
-        rej(new Error(m.message));
-      } else {
-        const value = pick(m);
-        if (value !== undefined) {
-          worker.terminate();
-          resolve(value);
-        }
+  return workerJob<ExchangeWorkerRequest, ExchangeWorkerMessage, T>(
+    () => new Worker(new URL('../workers/exchange-file.worker.ts', import.meta.url), { type: 'module' }),
+    request,
+    (m) => {
+      if (m.type === 'stage') {
+        onStage(STAGE_LABEL[m.stage] ?? m.stage);
+        return undefined;
       }
-    };
-    worker.onerror = (event) => {
-      worker.terminate();
-      rej(new Error(`The file could not be processed: ${event.message || 'the background reader failed'}`));
-    };
-  });
-  worker.postMessage(request);
-  return {
-    done,
-    cancel: () => {
-      worker.terminate();
-      reject(new Error('Cancelled: nothing was imported'));
-    }
-  };
+      if (m.type === 'refused') return { refused: m.message };
+      const value = pick(m);
+      return value === undefined ? undefined : { result: value };
+    },
+    { failed: 'The file could not be processed', cancelled: 'Cancelled: nothing was imported' }
+  );
 }
 
 export function decodeInWorker(file: Blob, onStage: (label: string) => void) {

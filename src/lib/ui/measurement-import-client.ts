@@ -1,4 +1,5 @@
 import type { ImportMessage, ImportRequest } from '../workers/measurement-import.worker';
+import { workerJob } from './worker-job';
 
 export type ImportRead = Extract<ImportMessage, { type: 'done' }>;
 
@@ -10,32 +11,16 @@ export function readMeasurementsInWorker(
   request: ImportRequest,
   onProgress: (fraction: number, rows: number) => void
 ): { done: Promise<ImportRead>; cancel: () => void } {
-  const worker = new Worker(new URL('../workers/measurement-import.worker.ts', import.meta.url), {
-    type: 'module'
-  });
-  let reject: (e: Error) => void = () => undefined;
-  const done = new Promise<ImportRead>((resolve, rej) => {
-    reject = rej;
-    worker.onmessage = (event: MessageEvent<ImportMessage>) => {
-      const m = event.data;
-      if (m.type === 'progress') onProgress(m.fraction, m.rows);
-      else {
-        worker.terminate();
-        if (m.type === 'error') rej(new Error(m.message));
-        else resolve(m);
+  return workerJob<ImportRequest, ImportMessage, ImportRead>(
+    () => new Worker(new URL('../workers/measurement-import.worker.ts', import.meta.url), { type: 'module' }),
+    request,
+    (m) => {
+      if (m.type === 'progress') {
+        onProgress(m.fraction, m.rows);
+        return undefined;
       }
-    };
-    worker.onerror = (event) => {
-      worker.terminate();
-      rej(new Error(`Reading stopped: ${event.message || 'the background reader failed'}`));
-    };
-  });
-  worker.postMessage(request);
-  return {
-    done,
-    cancel: () => {
-      worker.terminate();
-      reject(new Error('Reading cancelled. Nothing was imported.'));
-    }
-  };
+      return m.type === 'error' ? { refused: m.message } : { result: m };
+    },
+    { failed: 'Reading stopped', cancelled: 'Reading cancelled. Nothing was imported.' }
+  );
 }
