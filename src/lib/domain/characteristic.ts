@@ -1,5 +1,8 @@
 import { z } from 'zod';
-import { measureNumber, optionalText, recordId, requiredText } from './field-rules';
+import { count, measureNumber, optionalText, recordId, requiredText } from './field-rules';
+import { periodProblem } from './period';
+import { isoTime } from './record-meta-schema';
+import type { LimitChange } from './specification-history';
 import { parseFields } from './parse-fields';
 import type { RecordMeta } from './record-meta';
 
@@ -10,21 +13,67 @@ export type DataKind = (typeof DATA_KINDS)[number];
 export const RISK_CLASSES = ['standard', 'key', 'safety'] as const;
 export type RiskClass = (typeof RISK_CLASSES)[number];
 
+/** What a counted characteristic counts: units found defective, or defects (several may sit on one unit). */
+export const COUNTED_AS = ['defectives', 'defects'] as const;
+export type CountedAs = (typeof COUNTED_AS)[number];
+
 /** One property of a process output that is checked against a specification. */
 export interface CharacteristicFields {
   processId: string;
   name: string;
   unit: string;
   dataKind: DataKind;
+  /** The first limits (before any change in `limitChanges`, see specification-history.ts). */
   lsl?: number;
   usl?: number;
   target?: number;
+  /** Later limits, each from a month: earlier months keep the limits they were judged against. */
+  limitChanges?: LimitChange[];
   riskClass: RiskClass;
   /** Physical bounds of the quantity (e.g. 0 for a length or a fill weight); values outside are flagged. */
   physicalMin?: number;
   physicalMax?: number;
+  /** Usual subgroup size of the measurements (for control charts and the within sigma), 2 to 100. */
+  subgroupSize?: number;
+  /** For counted data: what is counted, and how many chances of a defect one unit offers. */
+  countedAs?: CountedAs;
+  opportunitiesPerUnit?: number;
+  /** Set while the characteristic is archived: it keeps its history but leaves the ranking and the review. */
+  archivedAt?: string;
 }
 export type Characteristic = CharacteristicFields & RecordMeta;
+
+/** Problems of one set of limits, with the path prefix where they sit (the first limits, or a change). */
+function limitIssues(
+  l: { lsl?: number | undefined; usl?: number | undefined; target?: number | undefined },
+  measured: boolean,
+  at: (string | number)[],
+  add: (path: (string | number)[], message: string) => void,
+  where = ''
+): void {
+  if (measured && l.lsl === undefined && l.usl === undefined)
+    add([...at, 'lsl'], `A measured characteristic needs at least one limit (LSL or USL)${where}`);
+  if (l.lsl !== undefined && l.usl !== undefined && !(l.lsl < l.usl))
+    add([...at, 'usl'], `USL (${l.usl}) must be greater than LSL (${l.lsl})${where}`);
+  if (l.target !== undefined) {
+    if (l.lsl !== undefined && l.target < l.lsl)
+      add([...at, 'target'], `Target (${l.target}) lies below LSL (${l.lsl})${where}`);
+    if (l.usl !== undefined && l.target > l.usl)
+      add([...at, 'target'], `Target (${l.target}) lies above USL (${l.usl})${where}`);
+  }
+}
+
+const limitChangeSchema = z.object({
+  from: z
+    .string({ error: 'The month a change takes effect is required' })
+    .refine((p) => periodProblem(p) === undefined, {
+      error: (issue) => periodProblem(issue.input) ?? 'Month is not valid'
+    }),
+  lsl: measureNumber('LSL').optional(),
+  usl: measureNumber('USL').optional(),
+  target: measureNumber('Target').optional(),
+  reason: optionalText('Reason for the change', 300).optional()
+});
 
 export const characteristicFieldsSchema = z
   .object({
@@ -35,40 +84,46 @@ export const characteristicFieldsSchema = z
     lsl: measureNumber('LSL').optional(),
     usl: measureNumber('USL').optional(),
     target: measureNumber('Target').optional(),
+    limitChanges: z
+      .array(limitChangeSchema)
+      .max(240, { error: 'At most 240 limit changes are kept' })
+      .optional(),
     riskClass: z.enum(RISK_CLASSES, { error: "Risk class must be 'standard', 'key' or 'safety'" }),
     physicalMin: measureNumber('Physical minimum').optional(),
-    physicalMax: measureNumber('Physical maximum').optional()
+    physicalMax: measureNumber('Physical maximum').optional(),
+    subgroupSize: count('Usual subgroup size', 100)
+      .min(2, { error: 'Usual subgroup size must be at least 2 (leave it empty for single values)' })
+      .optional(),
+    countedAs: z.enum(COUNTED_AS, { error: "What is counted must be 'defectives' or 'defects'" }).optional(),
+    opportunitiesPerUnit: count('Opportunities per unit', 1e6)
+      .min(1, { error: 'Opportunities per unit must be at least 1' })
+      .optional(),
+    archivedAt: isoTime('Archived at').optional()
   })
   .superRefine((c, ctx) => {
-    if (c.dataKind === 'measured' && c.lsl === undefined && c.usl === undefined) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['lsl'],
-        message: 'A measured characteristic needs at least one limit (LSL or USL)'
-      });
+    const add = (path: (string | number)[], message: string) =>
+      ctx.addIssue({ code: 'custom', path, message });
+    const measured = c.dataKind === 'measured';
+    limitIssues(c, measured, [], add);
+    const seen = new Set<string>();
+    (c.limitChanges ?? []).forEach((change, i) => {
+      limitIssues(change, measured, ['limitChanges', i], add, ` (limits from ${change.from})`);
+      if (seen.has(change.from))
+        add(['limitChanges', i, 'from'], `Two limit changes take effect in ${change.from}; keep one`);
+      seen.add(change.from);
+    });
+    if (measured && (c.countedAs !== undefined || c.opportunitiesPerUnit !== undefined)) {
+      add(['countedAs'], 'What is counted and opportunities per unit belong to counted characteristics only');
     }
-    if (c.lsl !== undefined && c.usl !== undefined && !(c.lsl < c.usl)) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['usl'],
-        message: `USL (${c.usl}) must be greater than LSL (${c.lsl})`
-      });
-    }
-    if (c.target !== undefined) {
-      if (c.lsl !== undefined && c.target < c.lsl) {
-        ctx.addIssue({
-          code: 'custom',
-          path: ['target'],
-          message: `Target (${c.target}) lies below LSL (${c.lsl})`
-        });
-      }
-      if (c.usl !== undefined && c.target > c.usl) {
-        ctx.addIssue({
-          code: 'custom',
-          path: ['target'],
-          message: `Target (${c.target}) lies above USL (${c.usl})`
-        });
-      }
+    if (
+      c.countedAs === 'defectives' &&
+      c.opportunitiesPerUnit !== undefined &&
+      c.opportunitiesPerUnit !== 1
+    ) {
+      add(
+        ['opportunitiesPerUnit'],
+        'Defective units are counted once per unit: opportunities per unit apply to defects only'
+      );
     }
     if (c.physicalMin !== undefined && c.physicalMax !== undefined && !(c.physicalMin < c.physicalMax)) {
       ctx.addIssue({

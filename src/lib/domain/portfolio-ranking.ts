@@ -8,6 +8,7 @@ import type { ImprovementProject } from './improvement-project';
 import { addMonths } from './period';
 import type { Process } from './process';
 import type { Study } from './study';
+import { limitsFor, limitVersionOf } from './specification-history';
 import { capabilityOfStudy } from './study-capability';
 import { windowData } from './window-study';
 
@@ -55,8 +56,9 @@ export function quickYield(study: Study, c: Characteristic): number | undefined 
     ({ mean: m, sd } = summariseMoments(d.values));
   }
   if (!(sd > 0)) return undefined;
-  const below = c.lsl !== undefined ? normalCdf((c.lsl - m) / sd) : 0;
-  const above = c.usl !== undefined ? normalSf((c.usl - m) / sd) : 0;
+  const { lsl, usl } = limitsFor(c, study.period);
+  const below = lsl !== undefined ? normalCdf((lsl - m) / sd) : 0;
+  const above = usl !== undefined ? normalSf((usl - m) / sd) : 0;
   return 1 - below - above;
 }
 
@@ -126,7 +128,8 @@ export function judgeCharacteristic(
   characteristic: Characteristic,
   result: CapabilityResult | undefined,
   profile: ContextProfile | undefined,
-  months: number
+  months: number,
+  period?: string
 ): CharacteristicRow {
   const risk = characteristic.riskClass;
   const required = profile ? profile.levels[risk] : NaN;
@@ -194,8 +197,7 @@ export function judgeCharacteristic(
     ...(bound !== undefined ? { bound } : {})
   };
   // Centring or spread, for measured data with both limits, judged against the requirement as an index.
-  const lsl = characteristic.lsl;
-  const usl = characteristic.usl;
+  const { lsl, usl } = period ? limitsFor(characteristic, period) : characteristic;
   const sdNow = result.sdWithin ?? result.sdOverall;
   if (lsl !== undefined && usl !== undefined && sdNow !== undefined && sdNow > 0) {
     const requiredIndex = (needZ - shift) / 3;
@@ -242,7 +244,8 @@ export function rankPortfolio(
   }
   const charsByProcess = new Map<string, Characteristic[]>();
   for (const c of records.characteristics) {
-    if (c.deletedAt) continue;
+    // Archived characteristics keep their history but leave the ranking (and so the review).
+    if (c.deletedAt || c.archivedAt) continue;
     const list = charsByProcess.get(c.processId);
     if (list) list.push(c);
     else charsByProcess.set(c.processId, [c]);
@@ -256,7 +259,7 @@ export function rankPortfolio(
 
   const rows: ProcessRow[] = [];
   for (const process of records.processes) {
-    if (process.deletedAt) continue;
+    if (process.deletedAt || process.archivedAt) continue;
     const site = siteById.get(process.siteId);
     if (!site) continue;
     const profile = profileFor(profiles, process.contextId);
@@ -275,7 +278,10 @@ export function rankPortfolio(
         monthly.set(s.period, (monthly.get(s.period) ?? 1) * y);
         monthlyCount.set(s.period, (monthlyCount.get(s.period) ?? 0) + 1);
       }
-      const inWindow = all.filter((s) => s.period >= first);
+      // WINDOW_RULE: the window keeps the months under the limits in force in its last month.
+      const version = limitVersionOf(c, options.endPeriod);
+      const windowed = all.filter((s) => s.period >= first);
+      const inWindow = windowed.filter((s) => limitVersionOf(c, s.period) === version);
       const cacheKey = `${c.id}@${c.rev}|${first}|${inWindow.map((s) => `${s.id}@${s.rev}`).join(',')}`;
       let cached = options.cache?.get(cacheKey);
       if (!cached) {
@@ -284,7 +290,7 @@ export function rankPortfolio(
         if (w) {
           try {
             result = capabilityOfStudy(
-              { data: w.data },
+              { data: w.data, period: options.endPeriod },
               c,
               w.sdWithin !== undefined ? { sdWithin: w.sdWithin } : {}
             );
@@ -295,7 +301,9 @@ export function rankPortfolio(
         cached = { result, months: w?.months.length ?? 0 };
         options.cache?.set(cacheKey, cached);
       }
-      return judgeCharacteristic(c, cached.result, profile, cached.months);
+      const row = judgeCharacteristic(c, cached.result, profile, cached.months, options.endPeriod);
+      if (inWindow.length < windowed.length) row.badges.push('limits changed');
+      return row;
     });
     const withData = charRows.filter((r) => r.result);
     const badges = new Set<Badge>(withData.flatMap((r) => r.badges));

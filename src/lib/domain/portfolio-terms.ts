@@ -30,7 +30,8 @@ export type Badge =
   | 'not shown stable'
   | 'small sample'
   | 'shift convention'
-  | 'incomplete';
+  | 'incomplete'
+  | 'limits changed';
 
 export const BADGE_EXPLANATIONS: Record<Badge, string> = {
   'non-normal model':
@@ -42,7 +43,9 @@ export const BADGE_EXPLANATIONS: Record<Badge, string> = {
   'shift convention':
     'This context reports short-term levels: 1.5 is added to every long-term z-level, by convention.',
   incomplete:
-    'Some characteristics of this process have no data in the window; they are left out of the combined figures.'
+    'Some characteristics of this process have no data in the window; they are left out of the combined figures.',
+  'limits changed':
+    'The limits changed within the window: the window is judged on its months under the limits in force in its last month; earlier months keep their own figures against their own limits.'
 };
 
 export interface CharacteristicRow {

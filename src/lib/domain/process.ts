@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { MAX_COUNT, nonNegativeNumber, optionalText, recordId, requiredText } from './field-rules';
 import { parseFields } from './parse-fields';
 import type { RecordMeta } from './record-meta';
+import { isoTime } from './record-meta-schema';
 
 /** A process run at one site, whose characteristics are studied each month. */
 export interface ProcessFields {
@@ -16,6 +17,8 @@ export interface ProcessFields {
   costPerDefective: number;
   /** ISO 4217 code, e.g. EUR. */
   currency: string;
+  /** Set while the process is archived: its history is kept, but it leaves the ranking and the review. */
+  archivedAt?: string;
 }
 export type Process = ProcessFields & RecordMeta;
 
@@ -28,7 +31,8 @@ export const processFieldsSchema = z.object({
   costPerDefective: nonNegativeNumber('Cost per defective unit'),
   currency: z
     .string({ error: 'Currency is required' })
-    .regex(/^[A-Z]{3}$/, { error: 'Currency must be a three-letter ISO 4217 code such as EUR' })
+    .regex(/^[A-Z]{3}$/, { error: 'Currency must be a three-letter ISO 4217 code such as EUR' }),
+  archivedAt: isoTime('Archived at').optional()
 });
 
 export function parseProcessFields(input: unknown): ProcessFields {

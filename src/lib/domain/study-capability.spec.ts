@@ -27,22 +27,29 @@ describe('capability of stored studies', () => {
           kind: 'raw',
           values: [10, 10.2, 9.9, 10.1, 9.8, 10, 10.1, 9.9],
           subgroups: ['a', 'a', 'b', 'b', 'c', 'c', 'd', 'd']
-        }
+        },
+        period: '2026-05'
       },
       measured,
       { model: 'normal' }
     );
     expect(raw.sigmaEstimator).toBe('rbar');
-    const summary = capabilityOfStudy({ data: { kind: 'summary', n: 50, mean: 10, sd: 0.25 } }, measured);
+    const summary = capabilityOfStudy(
+      { data: { kind: 'summary', n: 50, mean: 10, sd: 0.25 }, period: '2026-05' },
+      measured
+    );
     expectRelative(summary.ppk, 4 / 3, 1e-12);
     expect(summary.assumptions).toContain('summary only: normality and stability not checked');
     const counted = { dataKind: 'counted' as const };
-    expect(capabilityOfStudy({ data: { kind: 'defectives', units: 200, defectives: 3 } }, counted).p).toBe(
-      0.015
-    );
     expect(
       capabilityOfStudy(
-        { data: { kind: 'defects', units: 100, defects: 4, opportunitiesPerUnit: 4 } },
+        { data: { kind: 'defectives', units: 200, defectives: 3 }, period: '2026-05' },
+        counted
+      ).p
+    ).toBe(0.015);
+    expect(
+      capabilityOfStudy(
+        { data: { kind: 'defects', units: 100, defects: 4, opportunitiesPerUnit: 4 }, period: '2026-05' },
         counted
       ).dpmo
     ).toBe(10000);

@@ -3,6 +3,7 @@ import { analyzeMeasured, type ModelChoice } from '../stats/analyze-measured';
 import { analyzeSummary } from '../stats/analyze-summary';
 import type { CapabilityResult } from '../stats/capability-result';
 import type { Characteristic } from './characteristic';
+import { limitsFor } from './specification-history';
 import type { StudyFields } from './study';
 
 export interface StudyCapabilityOptions {
@@ -13,20 +14,20 @@ export interface StudyCapabilityOptions {
 }
 
 /**
- * The capability figures of one stored study, with the characteristic's limits, target and physical bounds.
- * One code path for the app, the worker and the command line. Throws RangeError when the data cannot support
- * an analysis (e.g. a measured characteristic without limits, fewer than two values).
+ * The capability figures of one stored study, with the limits in force in its month (specification-history.ts),
+ * the target and the physical bounds. One code path for the app, the worker and the command line. Throws
+ * RangeError when the data cannot support an analysis (e.g. a measured characteristic without limits, fewer than
+ * two values).
  */
 export function capabilityOfStudy(
-  study: Pick<StudyFields, 'data'>,
-  characteristic: Pick<Characteristic, 'lsl' | 'usl' | 'target' | 'physicalMin' | 'physicalMax' | 'dataKind'>,
+  study: Pick<StudyFields, 'data' | 'period'>,
+  characteristic: Pick<
+    Characteristic,
+    'lsl' | 'usl' | 'target' | 'limitChanges' | 'physicalMin' | 'physicalMax' | 'dataKind'
+  >,
   options: StudyCapabilityOptions = {}
 ): CapabilityResult {
-  const spec = {
-    ...(characteristic.lsl !== undefined ? { lsl: characteristic.lsl } : {}),
-    ...(characteristic.usl !== undefined ? { usl: characteristic.usl } : {}),
-    ...(characteristic.target !== undefined ? { target: characteristic.target } : {})
-  };
+  const spec = limitsFor(characteristic, study.period);
   const confidence = options.confidence !== undefined ? { confidence: options.confidence } : {};
   const data = study.data;
   switch (data.kind) {
