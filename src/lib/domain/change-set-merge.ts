@@ -21,8 +21,8 @@ import {
 } from './record-merge';
 import {
   clockOf,
+  editableOf,
   isLive,
-  META_KEYS,
   stampDeleted,
   stampRestored,
   stampUpdate,
@@ -330,13 +330,6 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
     );
   }
   return plan;
-}
-
-/** A record without its bookkeeping: the fields an edit may carry over (unknown fields included). */
-function editableOf<T extends RecordMeta>(record: T): Editable<T> {
-  const out = { ...record } as Record<string, unknown>;
-  for (const key of META_KEYS) delete out[key];
-  return out as Editable<T>;
 }
 
 /** Conflicts not settled by a per-conflict choice or a rule. */

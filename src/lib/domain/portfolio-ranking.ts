@@ -4,7 +4,7 @@ import { leastSquaresSlope } from '../stats/trend-slope';
 import type { CapabilityResult } from '../stats/capability-result';
 import type { Characteristic, RiskClass } from './characteristic';
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
-import type { ImprovementProject } from './improvement-project';
+import { isOpen, type ImprovementProject } from './improvement-project';
 import { addMonths } from './period';
 import type { Process } from './process';
 import type { Study } from './study';
@@ -253,7 +253,8 @@ export function rankPortfolio(
   const siteById = new Map(records.sites.filter((s) => !s.deletedAt).map((s) => [s.id, s]));
   const projectsByProcess = new Map<string, ImprovementProject[]>();
   for (const p of records.projects) {
-    if (p.deletedAt) continue;
+    // Closed and cancelled projects keep their record and history, but no longer count as work on the process.
+    if (p.deletedAt || !isOpen(p)) continue;
     projectsByProcess.set(p.processId, [...(projectsByProcess.get(p.processId) ?? []), p]);
   }
 

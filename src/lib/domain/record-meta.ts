@@ -82,6 +82,13 @@ function nextWrite(previous: RecordMeta, ctx: WriteContext) {
 /** The fields a caller edits: everything but the bookkeeping. */
 export type Editable<T extends RecordMeta> = Omit<T, keyof RecordMeta>;
 
+/** A record without its bookkeeping: the fields an edit carries over (fields of newer versions included). */
+export function editableOf<T extends RecordMeta>(record: T): Editable<T> {
+  const out = { ...record } as Record<string, unknown>;
+  for (const key of META_KEYS) delete out[key];
+  return out as Editable<T>;
+}
+
 /** Stamps a new record (rev 1). */
 export function stampNew<T extends object>(fields: T, ctx: WriteContext): T & RecordMeta {
   const at = ctx.now().toISOString();

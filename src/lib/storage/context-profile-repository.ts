@@ -1,12 +1,13 @@
 import { BUILT_IN_PROFILES, type ContextProfile } from '../domain/context-profile';
 import {
+  contextProfileFieldsSchema,
   effectiveProfiles,
   parseContextProfileFields,
   type ContextProfileRecord
 } from '../domain/context-profile-record';
 import { isLive, stampDeleted, stampNew, stampUpdate, type WriteContext } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
-import { EditConflictError } from './record-repository';
+import { EditConflictError, withoutFields } from './record-repository';
 
 /** Industry-context profiles: the built-ins, with the manager's edits stored as records over them. */
 export class ContextProfileRepository {
@@ -41,7 +42,11 @@ export class ContextProfileRepository {
         throw new EditConflictError('Context profile', fields.label);
       }
       const record = existing
-        ? stampUpdate(existing, fields, this.ctx)
+        ? stampUpdate(
+            withoutFields(existing, Object.keys(contextProfileFieldsSchema.shape)),
+            fields,
+            this.ctx
+          )
         : (stampNew(fields, this.ctx) as ContextProfileRecord);
       await this.db.contextProfiles.put(record);
       return record;

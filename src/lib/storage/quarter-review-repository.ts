@@ -1,4 +1,5 @@
 import {
+  quarterReviewFieldsSchema,
   parseQuarterReviewFields,
   reviewKey,
   type QuarterReviewFields,
@@ -8,6 +9,7 @@ import {
 import { isLive, stampNew, stampUpdate, type Editable, type WriteContext } from '../domain/record-meta';
 import type { ReviewFigures } from '../domain/review-figures';
 import type { CapstanDatabase } from './database';
+import { withoutFields } from './record-repository';
 
 /** Quarterly reviews: one record per quarter and set of sites, created on the first note or freeze. */
 export class QuarterReviewRepository {
@@ -40,7 +42,11 @@ export class QuarterReviewRepository {
         : { quarter, siteIds: [...siteIds].sort(), notes: {} };
       const fields = parseQuarterReviewFields(edit(base));
       const record = existing
-        ? stampUpdate(existing, fields as Editable<QuarterReviewRecord>, this.ctx)
+        ? stampUpdate(
+            withoutFields(existing, Object.keys(quarterReviewFieldsSchema.shape)),
+            fields as Editable<QuarterReviewRecord>,
+            this.ctx
+          )
         : (stampNew(fields, this.ctx) as QuarterReviewRecord);
       if (!fields.snapshot) delete record.snapshot;
       await this.db.reviews.put(record);

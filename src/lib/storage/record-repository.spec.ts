@@ -52,3 +52,43 @@ describe('record repository', () => {
     expect((await s.sites.get(site.id))!.name).toBe('A');
   });
 });
+
+describe('an edit replaces the known fields whole', () => {
+  it('clears an optional field left out (a target removed), and keeps fields a newer version added', async () => {
+    const site = await s.sites.create({ name: 'Fenwick', region: '', timeZone: 'UTC' });
+    const process = await s.processes.create({
+      siteId: site.id,
+      name: 'Press',
+      owner: '',
+      contextId: 'vehicle-parts',
+      monthlyVolume: 1,
+      costPerDefective: 1,
+      currency: 'EUR'
+    });
+    const ch = await s.characteristics.create({
+      processId: process.id,
+      name: 'Width',
+      unit: 'mm',
+      dataKind: 'measured',
+      lsl: 9,
+      target: 10,
+      usl: 11,
+      riskClass: 'standard'
+    });
+    await databaseOf(s).characteristics.put({
+      ...(await databaseOf(s).characteristics.get(ch.id))!,
+      gauge: 'G-7'
+    } as never);
+    const edited = await s.characteristics.update(ch.id, {
+      processId: process.id,
+      name: 'Width',
+      unit: 'mm',
+      dataKind: 'measured',
+      lsl: 9,
+      usl: 11,
+      riskClass: 'standard'
+    });
+    expect(edited.target).toBeUndefined();
+    expect((edited as unknown as { gauge: string }).gauge).toBe('G-7');
+  });
+});

@@ -1,5 +1,6 @@
 import type { Table } from 'dexie';
 import {
+  editableOf,
   isLive,
   stampDeleted,
   stampNew,
@@ -38,6 +39,11 @@ export interface RepositorySpec<T extends RecordMeta> {
   table: (db: CapstanDatabase) => Table<T, string>;
   /** Validates unknown input into the editable fields; throws ValidationError. */
   parse: (input: unknown) => Editable<T>;
+  /**
+   * Every field the schema knows (its shape's keys). An edit replaces these whole — a field left out is cleared —
+   * while fields a newer version added stay as they were.
+   */
+  fields: readonly string[];
   /** Checks references and cross-record rules inside the write transaction; throws ValidationError. */
   checkInTransaction?: (db: CapstanDatabase, fields: Editable<T>, existingId?: string) => Promise<void>;
   /** Extra tables `checkInTransaction` reads. */
@@ -98,7 +104,7 @@ export class RecordRepository<T extends RecordMeta> {
         throw new EditConflictError(this.spec.kind, typeof name === 'string' ? name : id);
       }
       await this.spec.checkInTransaction?.(this.db, fields, id);
-      const record = stampUpdate(previous, fields, this.ctx);
+      const record = stampUpdate(withoutFields(previous, this.spec.fields), fields, this.ctx);
       await this.table.put(record);
       return record;
     });
@@ -128,6 +134,13 @@ export class RecordRepository<T extends RecordMeta> {
   }
 }
 
+/** A record with the named fields taken out (what an edit replaces), bookkeeping and other fields kept. */
+export function withoutFields<T extends RecordMeta>(record: T, fields: readonly string[]): T {
+  const out = { ...record } as Record<string, unknown>;
+  for (const f of fields) delete out[f];
+  return out as T;
+}
+
 /** Refuses a reference to a record that does not exist or is a tombstone. */
 export async function requireLive(
   table: Table<RecordMeta, string>,
@@ -141,4 +154,25 @@ export async function requireLive(
     throw new ValidationError(recordKind, [{ field, message: `${targetKind} ${id} does not exist` }]);
   }
   return target;
+}
+
+/**
+ * Archives a record (or brings it back) as an ordinary edit of its `archivedAt` field, so that it travels and
+ * merges like any other edit. Refuses a record that does not exist.
+ */
+export async function archive<T extends RecordMeta & { archivedAt?: string }>(
+  repository: RecordRepository<T>,
+  id: string,
+  archived: boolean,
+  ctx: WriteContext
+): Promise<T> {
+  const record = await repository.get(id);
+  if (!record) throw new RecordNotFoundError('Record', id);
+  const { archivedAt: _was, ...rest } = editableOf(record) as Record<string, unknown>;
+  void _was;
+  return repository.update(
+    id,
+    archived ? { ...rest, archivedAt: ctx.now().toISOString() } : rest,
+    record.rev
+  );
 }

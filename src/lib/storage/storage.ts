@@ -1,8 +1,5 @@
 import type { DexieOptions } from 'dexie';
-import type { Characteristic } from '../domain/characteristic';
-import type { ImprovementProject } from '../domain/improvement-project';
-import type { Process } from '../domain/process';
-import { createCharacteristicRepository } from './characteristic-repository';
+import { createCharacteristicRepository, type CharacteristicRepository } from './characteristic-repository';
 import { CapstanDatabase, DEFAULT_DATABASE_NAME } from './database';
 import type { HybridClock } from '../domain/hybrid-clock';
 import type { RecordsByKind } from '../domain/record-kinds';
@@ -19,9 +16,8 @@ import type {
 import { loadClock, loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
 import { ContextProfileRepository } from './context-profile-repository';
 import { EntryDraftRepository } from './entry-draft-repository';
-import { createImprovementProjectRepository } from './improvement-project-repository';
-import { createProcessRepository } from './process-repository';
-import type { RecordRepository } from './record-repository';
+import { createImprovementProjectRepository, type ProjectRepository } from './improvement-project-repository';
+import { createProcessRepository, type ProcessRepository } from './process-repository';
 import type { MonthSettlement, PendingMonth } from './month-clash-repository';
 import { QuarterReviewRepository } from './quarter-review-repository';
 import { CURRENT_SCHEMA_VERSION } from './schema-versions';
@@ -49,10 +45,10 @@ import { loadQuarterCoverage, type QuarterCoverage } from './quarter-coverage';
 export interface CapstanStorage {
   readonly deviceId: string;
   readonly sites: SiteRepository;
-  readonly processes: RecordRepository<Process>;
-  readonly characteristics: RecordRepository<Characteristic>;
+  readonly processes: ProcessRepository;
+  readonly characteristics: CharacteristicRepository;
   readonly studies: StudyRepository;
-  readonly projects: RecordRepository<ImprovementProject>;
+  readonly projects: ProjectRepository;
   readonly drafts: EntryDraftRepository;
   readonly profiles: ContextProfileRepository;
   readonly reviews: QuarterReviewRepository;

@@ -12,12 +12,15 @@ import {
 import {
   assertStudyFitsCharacteristic,
   parseStudyFields,
+  studyFieldsSchema,
   type Study,
   type StudyFields
 } from '../domain/study';
 import { ValidationError } from '../domain/validation-error';
 import type { CapstanDatabase, StudyRevision } from './database';
-import { RecordNotFoundError, RecordRepository, requireLive } from './record-repository';
+import { RecordNotFoundError, RecordRepository, requireLive, withoutFields } from './record-repository';
+
+const STUDY_FIELDS = Object.keys(studyFieldsSchema.shape);
 
 /** What to do when the month already has a study: refuse, replace it, or combine the two. */
 export type LogMode = 'new' | 'replace' | 'combine';
@@ -69,6 +72,7 @@ export class StudyRepository extends RecordRepository<Study> {
       kind: 'Study',
       table: (d) => d.studies,
       parse: parseStudyFields,
+      fields: STUDY_FIELDS,
       relatedTables: (d) => [d.characteristics, d.processes, d.sites],
       checkInTransaction: async (d, fields, existingId) => {
         const characteristic = await characteristicFor(d, fields);
@@ -151,7 +155,7 @@ export class StudyRepository extends RecordRepository<Study> {
           const data = mode === 'combine' ? combineStudyData(existing.data, fields.data) : fields.data;
           const next = parseStudyFields({ ...editable(fields), data });
           await this.keepRevision(existing, mode === 'combine' ? 'combined' : 'replaced');
-          const study = stampUpdate(existing, editable(next), this.ctx);
+          const study = stampUpdate(withoutFields(existing, STUDY_FIELDS), editable(next), this.ctx);
           await d.studies.put(study);
           outcomes.push({ study, previous: existing, action: mode === 'combine' ? 'combined' : 'replaced' });
         }
@@ -191,7 +195,7 @@ export class StudyRepository extends RecordRepository<Study> {
       await this.keepRevision(current, 'restored');
       const base = isLive(current) ? current : stampRestored(current, this.ctx);
       const old = revision.study;
-      const restored = stampUpdate(base, editable(old), this.ctx);
+      const restored = stampUpdate(withoutFields(base, STUDY_FIELDS), editable(old), this.ctx);
       await d.studies.put(restored);
       return restored;
     });
