@@ -5,6 +5,7 @@ import type { HybridClock } from '../domain/hybrid-clock';
 import type { RecordsByKind } from '../domain/record-kinds';
 import { loadBackupStatus, type BackupStatus } from './backup-status';
 import type { MergeChoices } from '../domain/change-set-merge';
+import type { ExistingPortfolio, MasterListPlan, masterListCounts } from '../domain/master-list';
 import type { ReportingCurrency } from '../domain/reporting-currency';
 import type {
   CollectedChanges,
@@ -52,6 +53,11 @@ export interface CapstanStorage {
   readonly drafts: EntryDraftRepository;
   readonly profiles: ContextProfileRepository;
   readonly reviews: QuarterReviewRepository;
+  /** The master list: the live sites, processes and characteristics to plan against, and applying a plan. */
+  readonly masterList: {
+    existing(): Promise<ExistingPortfolio>;
+    apply(plan: MasterListPlan): Promise<ReturnType<typeof masterListCounts>>;
+  };
   /** Months holding two live studies from before schema v7, waiting for a person (pending conflicts). */
   readonly monthClashes: {
     list(): Promise<PendingMonth[]>;
@@ -160,6 +166,20 @@ export async function openStorage(
     drafts: new EntryDraftRepository(db),
     profiles: new ContextProfileRepository(db, ctx),
     reviews: new QuarterReviewRepository(db, ctx),
+    masterList: {
+      existing: async () => ({
+        sites: (await db.sites.toArray()).filter((r) => !r.deletedAt),
+        processes: (await db.processes.toArray()).filter((r) => !r.deletedAt),
+        characteristics: (await db.characteristics.toArray()).filter((r) => !r.deletedAt)
+      }),
+      apply: async (plan) => {
+        try {
+          return await (await import('./master-list-store')).applyMasterList(db, ctx, plan);
+        } catch (error) {
+          throw explainStorageError(error, 'The master list');
+        }
+      }
+    },
     // Loaded on first use: only the File exchange page lists pending months.
     monthClashes: {
       list: async () => new (await import('./month-clash-repository')).MonthClashRepository(db, ctx).list(),
