@@ -6,6 +6,7 @@ import { UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
 import { convertCommand } from './convert-command';
 import { countsCommand } from './counts-command';
+import { portfolioCommand } from './portfolio-command';
 import { rankCommand } from './rank-command';
 
 export const USAGE = `Capstan command line — capability figures with their assumptions
@@ -21,8 +22,10 @@ export const USAGE = `Capstan command line — capability figures with their ass
           (FILE: an exchange file or the demo portfolio file)
   check   FILE [--json]                      validate an exchange file; print its header and counts
   merge   BASE INCOMING -o OUT [--prefer newer|base|incoming] [--json]
+  portfolio LIST.csv -o OUT.capstan.json [--delimiter ,|;|tab] [--decimal .|,] [--from YYYY-MM] [--json]
+          a master list (one row per characteristic) as an exchange file for setting up every site
 
-Exit 0 on success; 2 on bad input, with one line on stderr saying what and where;
+Exit 0 on success; 2 on bad input, with one line on stderr saying what and where (portfolio: one per bad row);
 3 when merge finds conflicts and no --prefer was given (nothing written).`;
 
 /** Runs one command; returns the exit code. Bad input never throws out of here. */
@@ -42,6 +45,8 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         return await checkCommand(rest, io);
       case 'merge':
         return await mergeCommand(rest, io);
+      case 'portfolio':
+        return await portfolioCommand(rest, io);
       case undefined:
       case 'help':
       case '--help':
@@ -49,7 +54,7 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         return command === undefined ? 2 : 0;
       default:
         throw new UsageError(
-          `Unknown command '${command}'; use analyze, counts, convert, rank, check or merge (help lists them)`
+          `Unknown command '${command}'; use analyze, counts, convert, rank, check, merge or portfolio (help lists them)`
         );
     }
   } catch (error) {

@@ -49,11 +49,12 @@ test('the ranked portfolio follows a context target change, and a click leads to
   await badge.click();
   await expect(page.getByRole('note').first()).toContainText('1.5 is added to every long-term z-level');
 
-  // A project in one action from a short row.
+  // A project from a short row.
   const shortRow = table.locator('tbody tr').filter({ hasText: 'none, short' }).first();
   const name = (await shortRow.locator('th a').textContent())?.trim() as string;
   await shortRow.getByRole('button', { name: `Details of ${name}` }).click();
   await page.getByTestId('create-project').click();
+  await page.getByTestId('confirm-start-project').click();
   await expect(page.getByText(`(Define phase) on ${name}`)).toBeVisible();
   await expect(table.locator('tbody tr').filter({ hasText: name }).first()).toContainText('Define');
 

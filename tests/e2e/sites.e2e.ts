@@ -10,8 +10,8 @@ test.afterAll(async () => {
 });
 
 test('a site added in settings is still there after a reload', async ({ page }) => {
-  await page.goto(new URL('/settings', server.url).href);
-  await page.getByLabel('Name', { exact: true }).fill('Fjordside Plant');
+  await page.goto(new URL('/setup', server.url).href);
+  await page.getByLabel('Site name').fill('Fjordside Plant');
   await page.getByLabel('Region').fill('Nordics');
   await page.getByLabel('Time zone').fill('Europe/Oslo');
   await page.getByRole('button', { name: 'Add site' }).click();
@@ -22,8 +22,8 @@ test('a site added in settings is still there after a reload', async ({ page }) 
 });
 
 test('bad site input is explained beside its field and stores nothing', async ({ page }) => {
-  await page.goto(new URL('/settings', server.url).href);
-  await page.getByLabel('Name', { exact: true }).fill('   ');
+  await page.goto(new URL('/setup', server.url).href);
+  await page.getByLabel('Site name').fill('   ');
   await page.getByLabel('Time zone').fill('Atlantis/Lost');
   await page.getByRole('button', { name: 'Add site' }).click();
   await expect(page.getByText('Site name is required')).toBeVisible();
@@ -33,8 +33,8 @@ test('bad site input is explained beside its field and stores nothing', async ({
 });
 
 test('deleting a site can be undone', async ({ page }) => {
-  await page.goto(new URL('/settings', server.url).href);
-  await page.getByLabel('Name', { exact: true }).fill('Short-lived Site');
+  await page.goto(new URL('/setup', server.url).href);
+  await page.getByLabel('Site name').fill('Short-lived Site');
   await page.getByRole('button', { name: 'Add site' }).click();
   await page.getByRole('button', { name: 'Delete Short-lived Site' }).click();
   await expect(page.getByText('No sites yet.')).toBeVisible();

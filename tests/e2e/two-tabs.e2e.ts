@@ -17,11 +17,11 @@ test('a site added in one tab appears in the other, and a crossing edit is refus
 }) => {
   const a = await context.newPage();
   const b = await context.newPage();
-  await a.goto(new URL('/settings', server.url).href);
-  await b.goto(new URL('/settings', server.url).href);
+  await a.goto(new URL('/setup', server.url).href);
+  await b.goto(new URL('/setup', server.url).href);
   await expect(b.getByText('No sites yet.')).toBeVisible();
 
-  await a.getByLabel('Name', { exact: true }).fill('Quayside Works');
+  await a.getByLabel('Site name').fill('Quayside Works');
   await a.getByLabel('Time zone').fill('Europe/Lisbon');
   await a.getByRole('button', { name: 'Add site' }).click();
   // Tab B was not reloaded.
@@ -30,10 +30,10 @@ test('a site added in one tab appears in the other, and a crossing edit is refus
   // Both open the same site for editing; A saves first.
   await a.getByRole('button', { name: 'Edit Quayside Works' }).click();
   await b.getByRole('button', { name: 'Edit Quayside Works' }).click();
-  await a.getByLabel('Name', { exact: true }).fill('Quayside Works (north yard)');
+  await a.getByLabel('Site name').fill('Quayside Works (north yard)');
   await a.getByRole('button', { name: 'Save site' }).click();
   await expect(b.getByTestId('site-list')).toContainText('Quayside Works (north yard)');
-  await b.getByLabel('Name', { exact: true }).fill('Quayside Works (south yard)');
+  await b.getByLabel('Site name').fill('Quayside Works (south yard)');
   await b.getByRole('button', { name: 'Save site' }).click();
   await expect(b.getByRole('alert')).toContainText(
     'was changed elsewhere (another tab or an imported file) after you opened it'
@@ -43,7 +43,7 @@ test('a site added in one tab appears in the other, and a crossing edit is refus
 
   // Opening it again and redoing the edit works.
   await b.getByRole('button', { name: 'Edit Quayside Works (north yard)' }).click();
-  await b.getByLabel('Name', { exact: true }).fill('Quayside Works (both yards)');
+  await b.getByLabel('Site name').fill('Quayside Works (both yards)');
   await b.getByRole('button', { name: 'Save site' }).click();
   await expect(a.getByTestId('site-list')).toContainText('Quayside Works (both yards)');
 });

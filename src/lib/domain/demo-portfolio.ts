@@ -27,6 +27,19 @@ export interface DemoPortfolio {
   };
 }
 
+/**
+ * The demo's sites, by id. Every demo record lies under one of them, so these five ids are how Capstan knows the
+ * demo is loaded and what "remove the demo" takes away, without loading the demo file (a test checks them
+ * against the file).
+ */
+export const DEMO_SITE_IDS: readonly string[] = [
+  'ce0dd9aa-88cc-461a-8015-3a7456bc8648',
+  '1425e0e9-bbd0-4996-9925-7981825b1fc2',
+  '543ed1d5-4e2b-4689-842d-5ff1645e9ee3',
+  'c1e2611d-9cb1-41e9-9031-a18b21920d9b',
+  '94d61920-68e4-4c00-8e0f-5e9002239b6e'
+];
+
 const withMeta = <S extends z.ZodObject>(schema: S) => schema.extend(recordMetaSchema.shape);
 
 // Characteristic and project schemas carry cross-field checks, which zod keeps through `.and`.

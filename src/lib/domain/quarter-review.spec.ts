@@ -117,3 +117,39 @@ describe('amounts in several currencies', () => {
     expect(reviewFiguresSchema.safeParse(f).success).toBe(true);
   });
 });
+
+describe('projects in the review', () => {
+  it('counts open projects only in the pipeline, and shows a project closed in the quarter with its reported result', () => {
+    const r = parseDemoPortfolio(demo).records;
+    const before = buildQuarterReview(r, BUILT_IN_PROFILES, { quarter: '2026-Q3' });
+    // Close one Control project in 2026-08 and cancel another (demo projects, seed-data/demo-portfolio.json).
+    const [first, second] = r.projects.filter((p) => p.phase === 'Control');
+    const projects = r.projects.map((p) =>
+      p.id === first!.id
+        ? {
+            ...p,
+            state: 'closed' as const,
+            stateReason: 'gain held for three months',
+            achieved: { note: 'bore size within ±4 µm', level: 1.41 },
+            history: [{ at: '2026-08-14T10:00:00.000Z', by: 'test', change: 'closed: gain held' }]
+          }
+        : p.id === second!.id
+          ? { ...p, state: 'cancelled' as const, stateReason: 'line closed' }
+          : p
+    );
+    const after = buildQuarterReview({ ...r, projects }, BUILT_IN_PROFILES, { quarter: '2026-Q3' });
+    const total = (f: typeof before) => f.pipeline.reduce((a, p) => a + p.projects, 0);
+    expect(total(after)).toBe(total(before) - 2);
+    const closed = after.control.find((c) => c.projectId === first!.id);
+    expect(closed).toMatchObject({
+      closed: true,
+      reportedResult: 'bore size within ±4 µm',
+      reportedLevel: 1.41
+    });
+    expect(after.control.some((c) => c.projectId === second!.id)).toBe(false);
+    expect(reviewFiguresSchema.safeParse(after).success).toBe(true);
+    // Closed in another quarter: not in this review's list.
+    const later = buildQuarterReview({ ...r, projects }, BUILT_IN_PROFILES, { quarter: '2026-Q2' });
+    expect(later.control.some((c) => c.projectId === first!.id)).toBe(false);
+  });
+});

@@ -242,8 +242,19 @@ export function buildQuarterReview(
       ...(totals.reporting ? { savingReporting: totals.reporting } : {})
     };
   });
-  const control: ReviewControlProject[] = projects
-    .filter((p) => p.project.phase === 'Control')
+  // Expected against achieved: projects running in Control, and those closed during the quarter (their row no
+  // longer lists them, since closed projects are no longer work on the process).
+  const rowById = new Map(current.map((r) => [r.process.id, r]));
+  const closedInQuarter = records.projects.flatMap((project) => {
+    const row = rowById.get(project.processId);
+    if (!row || project.deletedAt || project.state !== 'closed') return [];
+    const closing = [...(project.history ?? [])].reverse().find((h) => h.change.startsWith('closed'));
+    return closing && quarterOf(closing.at.slice(0, 7)) === quarter ? [{ project, row }] : [];
+  });
+  const control: ReviewControlProject[] = [
+    ...projects.filter((p) => p.project.phase === 'Control'),
+    ...closedInQuarter
+  ]
     .map(({ project, row }) => {
       // "Before": the quarter before the project started; "after": the quarter reviewed.
       const beforeQuarter = shiftQuarter(quarterOf(project.startDate.slice(0, 7)), -1);
@@ -267,7 +278,10 @@ export function buildQuarterReview(
             ? before.costPerYear - row.costPerYear
             : undefined,
         pValue: mover?.pValue,
-        beyondNoise: mover?.beyondNoise
+        beyondNoise: mover?.beyondNoise,
+        ...(project.state === 'closed' ? { closed: true } : {}),
+        ...(project.achieved?.note ? { reportedResult: project.achieved.note.slice(0, 400) } : {}),
+        ...(project.achieved?.level !== undefined ? { reportedLevel: project.achieved.level } : {})
       };
     })
     .sort((a, b) => a.title.localeCompare(b.title) || a.projectId.localeCompare(b.projectId));

@@ -174,3 +174,10 @@ export function boundedToClock<T extends RecordMeta>(record: T, nowMs: number): 
 export function compareById(a: RecordMeta, b: RecordMeta): number {
   return a.id < b.id ? -1 : a.id > b.id ? 1 : 0;
 }
+
+/** A record with the named fields taken out (what an edit replaces), bookkeeping and other fields kept. */
+export function withoutFields<T extends RecordMeta>(record: T, fields: readonly string[]): T {
+  const out = { ...record } as Record<string, unknown>;
+  for (const f of fields) delete out[f];
+  return out as T;
+}

@@ -58,7 +58,12 @@ const moverSchema = z.object({
   ppmBefore: num,
   ppmAfter: num,
   pValue: optNum,
-  beyondNoise: z.boolean().optional()
+  beyondNoise: z.boolean().optional(),
+  /** Closed in the quarter (absent: still running in Control). */
+  closed: z.boolean().optional(),
+  /** The result the project reports for itself, beside the one the figures show. */
+  reportedResult: text.optional(),
+  reportedLevel: optNum
 });
 
 const siteSchema = z.object({
@@ -86,7 +91,12 @@ const controlSchema = z.object({
   costAfter: optNum,
   achievedSaving: optNum,
   pValue: optNum,
-  beyondNoise: z.boolean().optional()
+  beyondNoise: z.boolean().optional(),
+  /** Closed in the quarter (absent: still running in Control). */
+  closed: z.boolean().optional(),
+  /** The result the project reports for itself, beside the one the figures show. */
+  reportedResult: text.optional(),
+  reportedLevel: optNum
 });
 
 export const reviewFiguresSchema = z.object({

@@ -65,3 +65,18 @@ export function withLimitChange(c: WithLimitHistory, change: LimitChange): Limit
     a.from < b.from ? -1 : a.from > b.from ? 1 : 0
   );
 }
+
+/** Every set of limits the characteristic has had, oldest first: the first limits, then each change. */
+export function limitVersions(c: WithLimitHistory): { from?: Period; limits: Limits; reason?: string }[] {
+  const first = limitsFor({ lsl: c.lsl, target: c.target, usl: c.usl }, '0000-01');
+  return [
+    { limits: first },
+    ...[...(c.limitChanges ?? [])]
+      .sort((a, b) => (a.from < b.from ? -1 : a.from > b.from ? 1 : 0))
+      .map((x) => ({
+        from: x.from,
+        limits: limitsFor({ lsl: x.lsl, target: x.target, usl: x.usl }, '0000-01'),
+        ...(x.reason ? { reason: x.reason } : {})
+      }))
+  ];
+}

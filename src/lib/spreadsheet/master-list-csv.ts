@@ -27,13 +27,22 @@ const NUMERIC: MasterListKey[] = ['monthlyVolume', 'costPerDefective', 'lsl', 't
 
 export function readMasterList(
   text: string,
-  options: { delimiter?: ',' | ';' | '\t'; decimal?: '.' | ',' } = {}
+  options: {
+    delimiter?: ',' | ';' | '\t';
+    decimal?: '.' | ',';
+    /** Columns chosen by the user, replacing those matched from the header (-1: not in the list). */
+    columns?: Partial<Record<MasterListKey, number>>;
+  } = {}
 ): MasterListText {
   const clean = text.replace(/^\uFEFF/, '');
   const delimiter = options.delimiter ?? (clean.includes('\t') ? '\t' : detectDelimiter(clean));
   const data = Papa.parse<string[]>(clean, { delimiter, skipEmptyLines: false }).data;
   const header = (data[0] ?? []).map((h) => h.trim());
   const columns = mapMasterListHeader(header);
+  for (const [key, at] of Object.entries(options.columns ?? {}) as [MasterListKey, number][]) {
+    if (at < 0) delete columns[key];
+    else columns[key] = at;
+  }
   const missing = REQUIRED_MASTER_COLUMNS.filter((k) => columns[k] === undefined);
   const rows: MasterListRow[] = [];
   for (let i = 1; i < data.length; i++) {

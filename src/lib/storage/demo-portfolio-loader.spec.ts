@@ -2,7 +2,8 @@ import 'fake-indexeddb/auto';
 import { describe, expect, it } from 'vitest';
 import demo from '../../../seed-data/demo-portfolio.json';
 import { ValidationError } from '../domain/validation-error';
-import { isPortfolioEmpty, loadDemoPortfolio } from './demo-portfolio-loader';
+import { DEMO_SITE_IDS } from '../domain/demo-portfolio';
+import { isDemoPresent, isPortfolioEmpty, loadDemoPortfolio } from './demo-portfolio-loader';
 import { listProcessOverviews, summariseDatabase } from './portfolio-overview';
 import { openStorage, databaseOf } from './storage';
 
@@ -21,9 +22,43 @@ describe('demo portfolio loading', () => {
     const rows = await listProcessOverviews(databaseOf(storage));
     expect(rows).toHaveLength(demo.records.processes.length);
     expect(rows.every((r) => r.characteristics.length >= 1 && r.characteristics.length <= 3)).toBe(true);
-    await expect(loadDemoPortfolio(databaseOf(storage), demo)).rejects.toThrow(/only into an empty database/);
+    await expect(loadDemoPortfolio(databaseOf(storage), demo)).rejects.toThrow(/already loaded/);
     const summary = await summariseDatabase(databaseOf(storage));
     expect(summary.tables.find((t) => t.name === 'Studies')?.live).toBe(demo.records.studies.length);
+    storage.close();
+    await databaseOf(storage).delete();
+  });
+
+  it('names the demo by its site ids, which are the sites of the demo file', () => {
+    expect([...DEMO_SITE_IDS].sort()).toEqual(demo.records.sites.map((s) => s.id).sort());
+  });
+
+  it('loads beside the user’s own records and is removed without touching them', async () => {
+    const storage = await openStorage('capstan-demo-beside');
+    const site = await storage.sites.create({ name: 'Own Plant', region: '', timeZone: 'Europe/Paris' });
+    const process = await storage.processes.create({
+      siteId: site.id,
+      name: 'Own line',
+      owner: '',
+      contextId: 'vehicle-parts',
+      monthlyVolume: 100,
+      costPerDefective: 1,
+      currency: 'EUR'
+    });
+    await storage.loadDemo(demo);
+    expect(await storage.demoPresent()).toBe(true);
+    const removed = await storage.removeDemo();
+    expect(removed.sites).toBe(demo.records.sites.length);
+    expect(removed.processes).toBe(demo.records.processes.length);
+    expect(removed.studies).toBe(demo.records.studies.length);
+    expect(await isDemoPresent(databaseOf(storage))).toBe(false);
+    expect((await storage.sites.list()).map((s) => s.name)).toEqual(['Own Plant']);
+    expect((await storage.processes.list()).map((p) => p.id)).toEqual([process.id]);
+    // No orphan: every demo study is a tombstone now.
+    const live = (await databaseOf(storage).studies.toArray()).filter((s) => !s.deletedAt);
+    expect(live).toHaveLength(0);
+    // Once removed, it stays removed here (same ids; a reload would undo the removal on this device only).
+    await expect(storage.loadDemo(demo)).rejects.toThrow(/was removed/);
     storage.close();
     await databaseOf(storage).delete();
   });

@@ -1,5 +1,7 @@
-import { datedFromToday, parseDemoPortfolio } from '../domain/demo-portfolio';
-import { isLive } from '../domain/record-meta';
+import { datedFromToday, DEMO_SITE_IDS, parseDemoPortfolio } from '../domain/demo-portfolio';
+import type { RecordKind } from '../domain/record-kinds';
+import { isLive, type WriteContext } from '../domain/record-meta';
+import { cascadeTables, removeWithContents } from './cascade-removal';
 import type { CapstanDatabase } from './database';
 
 export interface DemoLoadResult {
@@ -19,10 +21,16 @@ export async function isPortfolioEmpty(db: CapstanDatabase): Promise<boolean> {
   return true;
 }
 
+/** True when a demo site is live here (loaded on this device or received in a file). */
+export async function isDemoPresent(db: CapstanDatabase): Promise<boolean> {
+  return (await db.sites.bulkGet([...DEMO_SITE_IDS])).some((s) => s !== undefined && isLive(s));
+}
+
 /**
- * Loads the demo portfolio into an empty database in one transaction: all records or none, dated from today
- * (see `datedFromToday`). Refuses a database that already holds data, so that a demo can never mix into real
- * studies.
+ * Loads the demo portfolio in one transaction: all records or none, dated from today (see `datedFromToday`).
+ * It may sit beside the user's own records — a banner marks it and one action removes it — but it loads only
+ * once: a database that holds any demo site, live or removed, is refused, so that a removal is never silently
+ * overwritten by fresh copies with the same ids.
  */
 export async function loadDemoPortfolio(
   db: CapstanDatabase,
@@ -35,11 +43,12 @@ export async function loadDemoPortfolio(
     'rw',
     [db.sites, db.processes, db.characteristics, db.studies, db.projects],
     async () => {
-      if (!(await isPortfolioEmpty(db))) {
+      const held = (await db.sites.bulkGet([...DEMO_SITE_IDS])).filter((s) => s !== undefined);
+      if (held.some(isLive)) throw new Error('The demo portfolio is already loaded on this device');
+      if (held.length > 0)
         throw new Error(
-          'The demo portfolio loads only into an empty database; this one already holds records'
+          'The demo portfolio was removed from this portfolio; its records stay removed on every device, so it cannot be loaded again here'
         );
-      }
       await db.sites.bulkPut(r.sites);
       await db.processes.bulkPut(r.processes);
       await db.characteristics.bulkPut(r.characteristics);
@@ -54,4 +63,27 @@ export async function loadDemoPortfolio(
     studies: r.studies.length,
     projects: r.projects.length
   };
+}
+
+/**
+ * Removes the demo in one transaction: each demo site with everything under it (cascade-removal.ts), so no
+ * record is left without its parent. Records outside the demo sites — the user's own — are not touched; records
+ * the user added under a demo site go with it, and are counted in the result.
+ */
+export async function removeDemoPortfolio(
+  db: CapstanDatabase,
+  ctx: WriteContext
+): Promise<Partial<Record<RecordKind, number>>> {
+  return db.transaction('rw', cascadeTables(db), async () => {
+    const counts: Partial<Record<RecordKind, number>> = {};
+    for (const id of DEMO_SITE_IDS) {
+      const site = await db.sites.get(id);
+      if (!site || !isLive(site)) continue;
+      const removal = await removeWithContents(db, ctx, 'sites', id);
+      counts.sites = (counts.sites ?? 0) + 1;
+      for (const [k, n] of Object.entries(removal.counts) as [RecordKind, number][])
+        counts[k] = (counts[k] ?? 0) + n;
+    }
+    return counts;
+  });
 }

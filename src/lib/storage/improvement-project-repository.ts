@@ -29,12 +29,21 @@ export class ProjectRepository extends RecordRepository<ImprovementProject> {
     });
   }
 
-  /** Starts a project: its first phase dated from its start, and a first history line. */
-  async start(input: ImprovementProjectFields, by: string): Promise<ImprovementProject> {
+  /**
+   * Starts a project: its first phase dated from its start, and a first history line (with `note`, e.g. the
+   * approach chosen and what it was expected to give).
+   */
+  async start(input: ImprovementProjectFields, by: string, note?: string): Promise<ImprovementProject> {
     return this.create({
       ...input,
       phaseDates: { ...input.phaseDates, [input.phase]: input.phaseDates?.[input.phase] ?? input.startDate },
-      history: [{ at: this.ctx.now().toISOString(), by, change: `started in ${input.phase}` }]
+      history: [
+        {
+          at: this.ctx.now().toISOString(),
+          by,
+          change: `started in ${input.phase}${note ? `; ${note}` : ''}`.slice(0, 500)
+        }
+      ]
     });
   }
 

@@ -1,6 +1,7 @@
 import type { Table } from 'dexie';
 import {
   editableOf,
+  withoutFields,
   isLive,
   stampDeleted,
   stampNew,
@@ -134,13 +135,6 @@ export class RecordRepository<T extends RecordMeta> {
   }
 }
 
-/** A record with the named fields taken out (what an edit replaces), bookkeeping and other fields kept. */
-export function withoutFields<T extends RecordMeta>(record: T, fields: readonly string[]): T {
-  const out = { ...record } as Record<string, unknown>;
-  for (const f of fields) delete out[f];
-  return out as T;
-}
-
 /** Refuses a reference to a record that does not exist or is a tombstone. */
 export async function requireLive(
   table: Table<RecordMeta, string>,
@@ -176,3 +170,5 @@ export async function archive<T extends RecordMeta & { archivedAt?: string }>(
     record.rev
   );
 }
+
+export { withoutFields };

@@ -1,6 +1,6 @@
 import type { WriteContext } from '../domain/record-meta';
 import { parseSiteFields, siteFieldsSchema, type Site } from '../domain/site';
-import { removeWithContents, undoRemoval, type Removal } from './cascade-removal';
+import { liveCountsUnder, removeWithContents, undoRemoval, type Removal } from './cascade-removal';
 import { RecordRepository } from './record-repository';
 import type { CapstanDatabase } from './database';
 
@@ -24,6 +24,11 @@ export class SiteRepository extends RecordRepository<Site> {
       parse: parseSiteFields,
       fields: Object.keys(siteFieldsSchema.shape)
     });
+  }
+
+  /** What deleting the site would take along, to confirm first. */
+  countsUnder(id: string) {
+    return liveCountsUnder(this.db, 'sites', id);
   }
 
   async removeWithContents(id: string): Promise<SiteRemoval> {

@@ -2,7 +2,7 @@ import type { DexieOptions } from 'dexie';
 import { createCharacteristicRepository, type CharacteristicRepository } from './characteristic-repository';
 import { CapstanDatabase, DEFAULT_DATABASE_NAME } from './database';
 import type { HybridClock } from '../domain/hybrid-clock';
-import type { RecordsByKind } from '../domain/record-kinds';
+import type { RecordKind, RecordsByKind } from '../domain/record-kinds';
 import { loadBackupStatus, type BackupStatus } from './backup-status';
 import type { MergeChoices } from '../domain/change-set-merge';
 import type { ExistingPortfolio, MasterListPlan, masterListCounts } from '../domain/master-list';
@@ -25,7 +25,13 @@ import { CURRENT_SCHEMA_VERSION } from './schema-versions';
 import { BLOCKED_MESSAGE, explainOpenError, explainStorageError } from './storage-errors';
 import { SiteRepository } from './site-repository';
 import { StudyRepository } from './study-repository';
-import { isPortfolioEmpty, loadDemoPortfolio, type DemoLoadResult } from './demo-portfolio-loader';
+import {
+  isDemoPresent,
+  isPortfolioEmpty,
+  loadDemoPortfolio,
+  removeDemoPortfolio,
+  type DemoLoadResult
+} from './demo-portfolio-loader';
 import { loadMonthlyLogStatus, type MonthlyLogStatus } from './monthly-log-status';
 import {
   listProcessOverviews,
@@ -94,6 +100,10 @@ export interface CapstanStorage {
   };
   readonly clock: HybridClock;
   loadDemo(file: unknown): Promise<DemoLoadResult>;
+  /** Whether the invented demo portfolio is loaded (safe inside a live query). */
+  demoPresent(): Promise<boolean>;
+  /** Removes the demo with everything under its sites; the user's own records are not touched. */
+  removeDemo(): Promise<Partial<Record<RecordKind, number>>>;
   deviceName(): Promise<string>;
   setDeviceName(name: string): Promise<string>;
   /** The reporting currency and exchange rates of this device's reviews (device-local; undefined: none set). */
@@ -221,6 +231,8 @@ export async function openStorage(
       }
     },
     loadDemo: (file) => loadDemoPortfolio(db, file),
+    demoPresent: () => isDemoPresent(db),
+    removeDemo: () => removeDemoPortfolio(db, ctx),
     deviceName: () => loadDeviceName(db),
     setDeviceName: (name) => saveDeviceName(db, name),
     // Loaded on first use: only Settings and the review need the rates.

@@ -14,11 +14,24 @@ const limitLine = (name: string, value: number, axis: 'x' | 'y') => ({
   lineStyle: { color: LIMIT, type: 'solid' }
 });
 
-/** z-level month by month, with the required level as a dashed line. */
+/**
+ * z-level month by month, with the required level as a dashed line and a dotted upright line at each month the
+ * specification limits changed (months before it were judged against other limits).
+ */
 export function zHistoryOption(
   points: { period: string; z: number | undefined }[],
-  required: number | undefined
+  required: number | undefined,
+  limitChanges: readonly string[] = []
 ): EChartsCoreOption {
+  const shown = new Set(points.map((p) => p.period));
+  const changeLines = limitChanges
+    .filter((from) => shown.has(from))
+    .map((from) => ({
+      name: 'limits changed',
+      xAxis: from,
+      label: { formatter: 'limits changed' },
+      lineStyle: { color: LIMIT, type: 'dotted' }
+    }));
   return {
     animation: false,
     aria: { enabled: true },
@@ -33,17 +46,22 @@ export function zHistoryOption(
         data: points.map((p) => (p.z === undefined || !Number.isFinite(p.z) ? null : Number(p.z.toFixed(3)))),
         itemStyle: { color: INK },
         connectNulls: false,
-        ...(required !== undefined
+        ...(required !== undefined || changeLines.length > 0
           ? {
               markLine: {
                 symbol: 'none',
                 data: [
-                  {
-                    name: 'required',
-                    yAxis: Number(required.toFixed(3)),
-                    label: { formatter: 'required' },
-                    lineStyle: { color: ACCENT, type: 'dashed' }
-                  }
+                  ...(required !== undefined
+                    ? [
+                        {
+                          name: 'required',
+                          yAxis: Number(required.toFixed(3)),
+                          label: { formatter: 'required' },
+                          lineStyle: { color: ACCENT, type: 'dashed' }
+                        }
+                      ]
+                    : []),
+                  ...changeLines
                 ]
               }
             }
