@@ -3,6 +3,7 @@ import { runBrowserBench } from './browser-bench';
 import { runCsvImportBench } from './csv-import-bench';
 import { runExchangeFileBench } from './exchange-file-bench';
 import { runEngineBench, type BenchRow } from './engine-bench';
+import { runMasterListBench } from './master-list-bench';
 import { runRankingBench } from './ranking-bench';
 import { runReviewBench } from './review-bench';
 
@@ -28,6 +29,7 @@ console.log(`Capstan benchmarks — Node ${process.version}, ${new Date().toISOS
 print([
   ...runEngineBench(),
   ...runCsvImportBench(),
+  ...runMasterListBench(),
   ...runRankingBench(),
   ...runReviewBench(),
   ...(await runExchangeFileBench()),

@@ -83,6 +83,19 @@ test('every main page passes an automated accessibility check with no serious vi
         await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
       }
     ],
+    [
+      'set-up, a process open, master list checked',
+      async () => {
+        await nav('Set-up').click();
+        await page.getByRole('button', { name: 'Camshaft journal grinding — line A', exact: true }).click();
+        await expect(page.getByTestId('characteristic-manager')).toBeVisible();
+        await page
+          .getByTestId('master-paste')
+          .fill('site,process,characteristic,data kind\nNorth Ridge Machining,New line,Width,sized');
+        await page.getByTestId('master-check').click();
+        await expect(page.getByTestId('master-bad-rows')).toBeVisible();
+      }
+    ],
     ['file exchange', async () => nav('File exchange').click()],
     ['settings', async () => nav('Settings').click()]
   ];

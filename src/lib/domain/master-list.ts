@@ -105,6 +105,17 @@ function contextOf(text: string, profiles: readonly ContextProfile[]): string | 
   return profiles.find((p) => normal(p.id) === t || normal(p.label) === t)?.id;
 }
 
+/** The problems of a set of fields, computed once per distinct set. */
+function checkedOnce(memo: Map<string, string[]>, fields: object, check: () => string[]): string[] {
+  const key = JSON.stringify(fields);
+  let found = memo.get(key);
+  if (!found) {
+    found = check();
+    memo.set(key, found);
+  }
+  return found;
+}
+
 function problemsOf(
   result: { success: boolean; error?: { issues: { path: PropertyKey[]; message: string }[] } },
   label: Record<string, string>
@@ -192,6 +203,10 @@ export function planMasterList(
     ch: Omit<CharacteristicFields, 'processId'>;
   }[] = [];
 
+  // A site's and a process's fields repeat on every row of their characteristics: each distinct set is checked
+  // once (the time-zone check alone costs tens of microseconds), so 20 000 rows plan in well under a second.
+  const siteChecks = new Map<string, string[]>();
+  const processChecks = new Map<string, string[]>();
   for (const [index, row] of rows.entries()) {
     if (options.onProgress && index % 1000 === 0 && index > 0) options.onProgress(index, rows.length);
     const reasons: string[] = [];
@@ -201,7 +216,9 @@ export function planMasterList(
     const known = siteByKey.get(siteKeyOf(site.name));
     if (!site.timeZone && known) site.timeZone = known.timeZone;
     if (!site.region && known) site.region = known.region;
-    reasons.push(...problemsOf(siteFieldsSchema.safeParse(site), SITE_LABEL));
+    reasons.push(
+      ...checkedOnce(siteChecks, site, () => problemsOf(siteFieldsSchema.safeParse(site), SITE_LABEL))
+    );
     // Process.
     const contextText = text('context');
     const contextId = contextText ? contextOf(contextText, profiles) : undefined;
@@ -221,9 +238,11 @@ export function planMasterList(
       reasons.push('context: an industry context is required for a new process');
     const contextReported = reasons.some((r) => r.startsWith('context:'));
     reasons.push(
-      ...problemsOf(
-        processFieldsSchema.safeParse({ ...process, siteId: '00000000-0000-4000-8000-000000000000' }),
-        PROCESS_LABEL
+      ...checkedOnce(processChecks, process, () =>
+        problemsOf(
+          processFieldsSchema.safeParse({ ...process, siteId: '00000000-0000-4000-8000-000000000000' }),
+          PROCESS_LABEL
+        )
       ).filter((r) => !r.startsWith('siteId') && !(contextReported && r.startsWith('context:')))
     );
     // Characteristic.

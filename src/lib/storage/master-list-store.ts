@@ -4,7 +4,7 @@ import { masterListRecords } from '../domain/master-list-records';
 import type { CapstanDatabase } from './database';
 
 /** New characteristics stored per chunk: each await hands the main thread back (see below). */
-const CHUNK = 1000;
+const CHUNK = 250;
 
 /**
  * Applies a checked master list (domain/master-list.ts) in one transaction: every new site, process and
