@@ -7,7 +7,8 @@ import svelteConfig from '../svelte.config.js';
 
 /**
  * Layer rules: dependencies point inwards (ui → exchange → storage → domain → stats; workers use domain and
- * stats; the command line uses stats, domain and exchange). Each layer lists what it must not import, as
+ * stats, and read through storage/portfolio-reader only; the command line uses stats, domain and exchange).
+ * Each layer lists what it must not import, as
  * gitignore-style patterns that match at any folder depth and through the `$lib` alias (the storage
  * pattern catches `../../storage/x` and `$lib/storage/x` alike). A violation is an error. tests/unit/layer-rules.spec.ts
  * lints a probe file for every rule, so that no rule can silently open again.
@@ -20,7 +21,8 @@ const layer = (files, forbidden, why, names = []) => ({
       {
         patterns: [
           ...forbidden.map((group) => ({
-            group: [group],
+            // A list is one gitignore-style group, so that a `!` line can let one module through.
+            group: Array.isArray(group) ? group : [group],
             message: `${why} (layer rule, see DEVELOPERS.md)`
           })),
           ...names.map(({ group, importNames }) => ({
@@ -141,8 +143,16 @@ export default ts.config(
   ),
   layer(
     ['src/lib/workers/**'],
-    [...any('storage'), ...any('ui'), ...any('cli'), '$lib/**', 'dexie', ...FRAMEWORKS],
-    'workers compute on stats, domain and exchange; they never write to IndexedDB (the page commits)'
+    [
+      // Files under storage, not the folder itself: gitignore cannot re-include a file of an excluded folder.
+      ['**/storage/*', '**/storage/**/*', '$lib/storage/*', '!**/storage/portfolio-reader'],
+      ...any('ui'),
+      ...any('cli'),
+      '$lib/**',
+      'dexie',
+      ...FRAMEWORKS
+    ],
+    'workers compute on stats, domain and exchange, and read the portfolio only through storage/portfolio-reader; they never write to IndexedDB (the page commits)'
   ),
   layer(
     ['src/lib/ui/**', 'src/routes/**'],

@@ -73,7 +73,12 @@ const probes: [string, string, string][] = [
     'src/lib/workers/probe.worker.ts',
     "import { openStorage } from '../storage/storage';"
   ],
-  ['worker → Dexie', 'src/lib/workers/probe.worker.ts', "import { Dexie } from 'dexie';"]
+  ['worker → Dexie', 'src/lib/workers/probe.worker.ts', "import { Dexie } from 'dexie';"],
+  [
+    'worker → the database class',
+    'src/lib/workers/probe.worker.ts',
+    "import { CapstanDatabase } from '$lib/storage/database';"
+  ]
 ];
 
 describe('layer rules hold at any depth and through $lib', () => {
@@ -90,6 +95,11 @@ describe('layer rules hold at any depth and through $lib', () => {
       'UI → storage repositories',
       'src/lib/ui/probe.ts',
       "import type { CapstanStorage } from '../storage/storage';"
+    ],
+    [
+      'worker → the read-only portfolio reader',
+      'src/lib/workers/probe.worker.ts',
+      "import { readPortfolioRecords } from '../storage/portfolio-reader';"
     ],
     [
       'command line → exchange',

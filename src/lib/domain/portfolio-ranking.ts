@@ -4,8 +4,8 @@ import { leastSquaresSlope } from '../stats/trend-slope';
 import type { CapabilityResult } from '../stats/capability-result';
 import type { Characteristic, RiskClass } from './characteristic';
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
-import { isOpen, type ImprovementProject } from './improvement-project';
 import { addMonths } from './period';
+import { firstAtOrAfter, monthOrdinal, portfolioIndex } from './portfolio-index';
 import type { Process } from './process';
 import type { Study } from './study';
 import { limitsFor, limitVersionOf } from './specification-history';
@@ -224,6 +224,17 @@ function statusRank(s: CharacteristicStatus): number {
   return STATUS_ORDER.indexOf(s);
 }
 
+const quickYields = new WeakMap<Study, { characteristic: Characteristic; y: number | undefined }>();
+
+/** quickYield remembered per study and characteristic version (records are immutable once read). */
+function rememberedQuickYield(study: Study, c: Characteristic): number | undefined {
+  const known = quickYields.get(study);
+  if (known && known.characteristic === c) return known.y;
+  const y = quickYield(study, c);
+  quickYields.set(study, { characteristic: c, y });
+  return y;
+}
+
 /** Ranks the portfolio; ties broken by zGap (lower first), cost (higher first), process name, then id. */
 export function rankPortfolio(
   records: PortfolioRecords,
@@ -233,57 +244,43 @@ export function rankPortfolio(
   const weights = options.weights ?? DEFAULT_WEIGHTS;
   const first = addMonths(options.endPeriod, -(options.windowMonths - 1));
   const trendMonths = options.trendMonths ?? 12;
-  const trendFirst = addMonths(options.endPeriod, -(trendMonths - 1));
-  const studiesByChar = new Map<string, Study[]>();
-  for (const s of records.studies) {
-    if (s.deletedAt || (s.period < trendFirst && s.period < first)) continue;
-    if (s.period > options.endPeriod) continue;
-    const list = studiesByChar.get(s.characteristicId);
-    if (list) list.push(s);
-    else studiesByChar.set(s.characteristicId, [s]);
-  }
-  const charsByProcess = new Map<string, Characteristic[]>();
-  for (const c of records.characteristics) {
-    // Archived characteristics keep their history but leave the ranking (and so the review).
-    if (c.deletedAt || c.archivedAt) continue;
-    const list = charsByProcess.get(c.processId);
-    if (list) list.push(c);
-    else charsByProcess.set(c.processId, [c]);
-  }
-  const siteById = new Map(records.sites.filter((s) => !s.deletedAt).map((s) => [s.id, s]));
-  const projectsByProcess = new Map<string, ImprovementProject[]>();
-  for (const p of records.projects) {
-    // Closed and cancelled projects keep their record and history, but no longer count as work on the process.
-    if (p.deletedAt || !isOpen(p)) continue;
-    projectsByProcess.set(p.processId, [...(projectsByProcess.get(p.processId) ?? []), p]);
-  }
+  const endMonth = monthOrdinal(options.endPeriod);
+  const firstMonth = endMonth - (options.windowMonths - 1);
+  const trendFirstMonth = endMonth - (trendMonths - 1);
+  const index = portfolioIndex(records);
+  const monthly = new Float64Array(trendMonths); // product of the month's yields, per trend month
+  const monthlyCount = new Int32Array(trendMonths);
 
   const rows: ProcessRow[] = [];
   for (const process of records.processes) {
     if (process.deletedAt || process.archivedAt) continue;
-    const site = siteById.get(process.siteId);
+    const site = index.sites.get(process.siteId);
     if (!site) continue;
     const profile = profileFor(profiles, process.contextId);
     const shift = shortTermShift(profile);
-    const chars = (charsByProcess.get(process.id) ?? [])
-      .slice()
-      .sort((a, b) => a.name.localeCompare(b.name) || a.id.localeCompare(b.id));
-    const monthly = new Map<string, number>(); // period → product of yields
-    const monthlyCount = new Map<string, number>();
+    const chars = index.characteristics.get(process.id) ?? [];
+    monthly.fill(1);
+    monthlyCount.fill(0);
     const charRows = chars.map((c) => {
-      const all = studiesByChar.get(c.id) ?? [];
-      for (const s of all) {
-        if (s.period < trendFirst) continue;
-        const y = quickYield(s, c);
+      const held = index.studies.get(c.id);
+      const list = held?.list ?? [];
+      const months = held?.months ?? new Int32Array(0);
+      const to = firstAtOrAfter(months, endMonth + 1);
+      for (let i = firstAtOrAfter(months, trendFirstMonth); i < to; i += 1) {
+        const y = rememberedQuickYield(list[i]!, c);
         if (y === undefined) continue;
-        monthly.set(s.period, (monthly.get(s.period) ?? 1) * y);
-        monthlyCount.set(s.period, (monthlyCount.get(s.period) ?? 0) + 1);
+        const m = months[i]! - trendFirstMonth;
+        monthly[m]! *= y;
+        monthlyCount[m]! += 1;
       }
       // WINDOW_RULE: the window keeps the months under the limits in force in its last month.
-      const version = limitVersionOf(c, options.endPeriod);
-      const windowed = all.filter((s) => s.period >= first);
-      const inWindow = windowed.filter((s) => limitVersionOf(c, s.period) === version);
-      const cacheKey = `${c.id}@${c.rev}|${first}|${inWindow.map((s) => `${s.id}@${s.rev}`).join(',')}`;
+      const from = firstAtOrAfter(months, firstMonth);
+      const windowed = list.slice(from, to);
+      const changes = c.limitChanges?.length ?? 0;
+      const version = changes ? limitVersionOf(c, options.endPeriod) : '';
+      const inWindow = changes ? windowed.filter((s) => limitVersionOf(c, s.period) === version) : windowed;
+      let cacheKey = `${c.id}@${c.rev}|${first}|`;
+      for (const s of inWindow) cacheKey += `${s.id}@${s.rev},`;
       let cached = options.cache?.get(cacheKey);
       if (!cached) {
         const w = windowData(inWindow);
@@ -329,7 +326,7 @@ export function rankPortfolio(
       trend: [],
       zBasis: zBasisOf(profile),
       badges: [...badges],
-      projects: projectsByProcess.get(process.id) ?? [],
+      projects: index.openProjects.get(process.id) ?? [],
       priority: 0,
       riskClass
     };
@@ -348,11 +345,10 @@ export function rankPortfolio(
       }
     }
     for (let m = 0; m < trendMonths; m += 1) {
-      const period = addMonths(trendFirst, m);
-      const y = monthly.get(period);
+      const count = monthlyCount[m]!;
       row.trend.push(
-        y !== undefined && monthlyCount.get(period) === chars.length
-          ? normalUpperQuantile(Math.min(1, 1 - y)) + shift
+        count > 0 && count === chars.length
+          ? normalUpperQuantile(Math.min(1, 1 - monthly[m]!)) + shift
           : undefined
       );
     }

@@ -207,9 +207,14 @@ export function buildQuarterReview(
     .filter((m) => m.change < 0)
     .sort((a, b) => a.change - b.change || a.processId.localeCompare(b.processId));
 
-  const sites: ReviewSite[] = [...new Set(current.map((r) => r.site.id))]
-    .map((siteId) => {
-      const rows = current.filter((r) => r.site.id === siteId);
+  const rowsBySite = new Map<string, ProcessRow[]>();
+  for (const r of current) {
+    const list = rowsBySite.get(r.site.id);
+    if (list) list.push(r);
+    else rowsBySite.set(r.site.id, [r]);
+  }
+  const sites: ReviewSite[] = [...rowsBySite]
+    .map(([siteId, rows]) => {
       const h = headlineOf(quarter, rows, options.reporting);
       const zLevels = rows.flatMap((r) =>
         r.zLevel !== undefined && Number.isFinite(r.zLevel) ? [r.zLevel] : []
@@ -245,6 +250,17 @@ export function buildQuarterReview(
   // Expected against achieved: projects running in Control, and those closed during the quarter (their row no
   // longer lists them, since closed projects are no longer work on the process).
   const rowById = new Map(current.map((r) => [r.process.id, r]));
+  // Each quarter before a project started is ranked once, however many projects started after it.
+  const byIdOfQuarter = new Map<string, Map<string, ProcessRow>>();
+  const rowsOf = (q: string): Map<string, ProcessRow> => {
+    let rows = byIdOfQuarter.get(q);
+    if (!rows) {
+      if (!ranked.has(q)) ranked.set(q, rank(q));
+      rows = new Map(ranked.get(q)!.map((r) => [r.process.id, r]));
+      byIdOfQuarter.set(q, rows);
+    }
+    return rows;
+  };
   const closedInQuarter = records.projects.flatMap((project) => {
     const row = rowById.get(project.processId);
     if (!row || project.deletedAt || project.state !== 'closed') return [];
@@ -258,9 +274,7 @@ export function buildQuarterReview(
     .map(({ project, row }) => {
       // "Before": the quarter before the project started; "after": the quarter reviewed.
       const beforeQuarter = shiftQuarter(quarterOf(project.startDate.slice(0, 7)), -1);
-      const before = (ranked.get(beforeQuarter) ?? rank(beforeQuarter)).find(
-        (r) => r.process.id === row.process.id
-      );
+      const before = rowsOf(beforeQuarter).get(row.process.id);
       const mover = moverOf(row, before);
       return {
         projectId: project.id,

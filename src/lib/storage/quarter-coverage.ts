@@ -46,23 +46,35 @@ export async function loadQuarterCoverage(db: CapstanDatabase, quarter: string):
     liveCharacteristics.map((c) => [c.id, siteOfProcess.get(c.processId)])
   );
 
+  // One pass over characteristics, processes and studies each (not one per site and month): the review runs
+  // this at every change, and at company size sites × months × studies was seconds.
+  const charsOfSite = new Map<string, number>();
+  for (const c of liveCharacteristics) {
+    const siteId = siteOfCharacteristic.get(c.id);
+    if (siteId !== undefined) charsOfSite.set(siteId, (charsOfSite.get(siteId) ?? 0) + 1);
+  }
+  const processesOfSite = new Map<string, number>();
+  for (const p of liveProcesses) processesOfSite.set(p.siteId, (processesOfSite.get(p.siteId) ?? 0) + 1);
+  const loggedOfSite = new Map<string, number[]>();
+  for (const s of studies) {
+    const siteId = siteOfCharacteristic.get(s.characteristicId);
+    const month = periods.indexOf(s.period);
+    if (siteId === undefined || month < 0) continue;
+    let counts = loggedOfSite.get(siteId);
+    if (!counts) loggedOfSite.set(siteId, (counts = periods.map(() => 0)));
+    counts[month]! += 1;
+  }
   const rows: SiteQuarterCoverage[] = sites
     .filter(isLive)
     .map((site) => {
-      const chars = liveCharacteristics.filter((c) => siteOfCharacteristic.get(c.id) === site.id);
-      const loggedByMonth = periods.map(
-        (period) =>
-          studies.filter(
-            (s) => s.period === period && siteOfCharacteristic.get(s.characteristicId) === site.id
-          ).length
-      );
+      const characteristics = charsOfSite.get(site.id) ?? 0;
       return {
         siteId: site.id,
         siteName: site.name,
-        processes: liveProcesses.filter((p) => p.siteId === site.id).length,
-        characteristics: chars.length,
-        loggedByMonth,
-        expected: chars.length * periods.length
+        processes: processesOfSite.get(site.id) ?? 0,
+        characteristics,
+        loggedByMonth: loggedOfSite.get(site.id) ?? periods.map(() => 0),
+        expected: characteristics * periods.length
       };
     })
     .sort((a, b) => a.siteName.localeCompare(b.siteName));

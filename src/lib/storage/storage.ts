@@ -51,6 +51,8 @@ import { loadQuarterCoverage, type QuarterCoverage } from './quarter-coverage';
  */
 export interface CapstanStorage {
   readonly deviceId: string;
+  /** The IndexedDB database's name: what a reading worker opens (storage/portfolio-reader.ts). */
+  readonly databaseName: string;
   readonly sites: SiteRepository;
   readonly processes: ProcessRepository;
   readonly characteristics: CharacteristicRepository;
@@ -167,6 +169,7 @@ export async function openStorage(
   const ctx = writeContextFor(deviceId, clock);
   const storage: CapstanStorage = {
     deviceId,
+    databaseName: name,
     clock,
     sites: new SiteRepository(db, ctx),
     processes: createProcessRepository(db, ctx),

@@ -1,0 +1,66 @@
+/// <reference lib="webworker" />
+/**
+ * The quarterly review computed away from the page: the worker reads the portfolio from IndexedDB itself
+ * (storage/portfolio-reader.ts), ranks up to ten quarters and posts back only the figures the page shows. At a
+ * company's size this is seconds of work that would otherwise freeze the page. The worker lives as long as the
+ * page and keeps the window figures of earlier requests, so a note, a site filter or another quarter re-judges
+ * from what it already knows.
+ */
+import type { ContextProfile } from '../domain/context-profile';
+import { quarterOf } from '../domain/period';
+import type { FiguresCache } from '../domain/portfolio-terms';
+import { buildQuarterReview } from '../domain/quarter-review';
+import type { ReportingCurrency } from '../domain/reporting-currency';
+import type { ReviewFigures } from '../domain/review-figures';
+import type { Site } from '../domain/site';
+import { readPortfolioRecords } from '../storage/portfolio-reader';
+
+export interface QuarterReviewRequest {
+  id: number;
+  databaseName: string;
+  quarter: string;
+  siteIds: string[];
+  profiles: readonly ContextProfile[];
+  reporting?: ReportingCurrency;
+}
+
+export type QuarterReviewMessage =
+  | { id: number; type: 'done'; figures: ReviewFigures; sites: Site[]; quarters: string[]; ms: number }
+  | { id: number; type: 'error'; message: string };
+
+/** Entries beyond this are dropped all at once: old windows of edited studies would otherwise pile up. */
+const CACHE_LIMIT = 500_000;
+
+const scope = self as unknown as DedicatedWorkerGlobalScope;
+const cache: FiguresCache = new Map();
+
+scope.onmessage = async (event: MessageEvent<QuarterReviewRequest>) => {
+  const { id, databaseName, quarter, siteIds, profiles, reporting } = event.data;
+  const started = performance.now();
+  try {
+    const records = await readPortfolioRecords(databaseName);
+    if (cache.size > CACHE_LIMIT) cache.clear();
+    const figures = buildQuarterReview(records, profiles, {
+      quarter,
+      siteIds,
+      cache,
+      ...(reporting ? { reporting } : {})
+    });
+    const quarters = new Set<string>();
+    for (const s of records.studies) quarters.add(quarterOf(s.period));
+    scope.postMessage({
+      id,
+      type: 'done',
+      figures,
+      sites: [...records.sites].sort((a, b) => a.name.localeCompare(b.name)),
+      quarters: [...quarters].sort().reverse(),
+      ms: performance.now() - started
+    } satisfies QuarterReviewMessage);
+  } catch (error) {
+    scope.postMessage({
+      id,
+      type: 'error',
+      message: error instanceof Error ? error.message : String(error)
+    } satisfies QuarterReviewMessage);
+  }
+};

@@ -1,0 +1,285 @@
+/**
+ * The ranking reads its studies through an index built once per record set (domain/portfolio-index.ts), finds
+ * windows by month numbers and remembers window figures across calls. None of that may change a figure. Over
+ * random portfolios — several sites, measured and counted characteristics, limit changes, deleted and archived
+ * records, studies arriving in any order (as after a merge) — the ranking and the review's quarter headlines are
+ * compared with a plain computation that scans every record for every characteristic, to 1e-9.
+ */
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import type { Characteristic } from '../../src/lib/domain/characteristic';
+import { BUILT_IN_PROFILES, profileFor, shortTermShift } from '../../src/lib/domain/context-profile';
+import { addMonths, periodsOfQuarter } from '../../src/lib/domain/period';
+import {
+  costPerYear,
+  judgeCharacteristic,
+  quickYield,
+  rankPortfolio,
+  type FiguresCache,
+  type PortfolioRecords,
+  type ProcessRow
+} from '../../src/lib/domain/portfolio-ranking';
+import type { Process } from '../../src/lib/domain/process';
+import { buildQuarterReview } from '../../src/lib/domain/quarter-review';
+import type { RecordMeta } from '../../src/lib/domain/record-meta';
+import { limitVersionOf } from '../../src/lib/domain/specification-history';
+import type { Study } from '../../src/lib/domain/study';
+import { capabilityOfStudy } from '../../src/lib/domain/study-capability';
+import { windowData } from '../../src/lib/domain/window-study';
+import { normalUpperQuantile } from '../../src/lib/stats/normal-distribution';
+
+const meta = (id: string, rev = 1): RecordMeta => ({ id, createdAt: '', updatedAt: '', rev, deviceId: 'd' });
+const MONTHS = Array.from({ length: 15 }, (_, i) => addMonths('2025-10', i));
+
+/** The plain computation: for each characteristic, scan every study; no index, no cache, no month numbers. */
+function plainRanking(
+  records: PortfolioRecords,
+  endPeriod: string,
+  windowMonths: number,
+  trendMonths: number
+) {
+  const first = addMonths(endPeriod, -(windowMonths - 1));
+  const trendFirst = addMonths(endPeriod, -(trendMonths - 1));
+  const out = new Map<string, Partial<ProcessRow> & { trendPlain: (number | undefined)[] }>();
+  for (const process of records.processes) {
+    if (process.deletedAt || process.archivedAt) continue;
+    if (!records.sites.some((s) => s.id === process.siteId && !s.deletedAt)) continue;
+    const profile = profileFor(BUILT_IN_PROFILES, process.contextId);
+    const shift = shortTermShift(profile);
+    const chars = records.characteristics.filter(
+      (c) => c.processId === process.id && !c.deletedAt && !c.archivedAt
+    );
+    const rows = chars.map((c) => {
+      const mine = records.studies.filter(
+        (s) => s.characteristicId === c.id && !s.deletedAt && s.period <= endPeriod
+      );
+      const version = limitVersionOf(c, endPeriod);
+      const inWindow = mine.filter((s) => s.period >= first && limitVersionOf(c, s.period) === version);
+      const w = windowData(inWindow);
+      let result;
+      try {
+        result = w
+          ? capabilityOfStudy(
+              { data: w.data, period: endPeriod },
+              c,
+              w.sdWithin ? { sdWithin: w.sdWithin } : {}
+            )
+          : undefined;
+      } catch {
+        result = undefined;
+      }
+      return { c, mine, row: judgeCharacteristic(c, result, profile, w?.months.length ?? 0, endPeriod) };
+    });
+    const withData = rows.filter((r) => r.row.result);
+    const trendPlain: (number | undefined)[] = [];
+    for (let m = 0; m < trendMonths; m += 1) {
+      const period = addMonths(trendFirst, m);
+      let product = 1;
+      let count = 0;
+      for (const { c, mine } of rows)
+        for (const s of mine.filter((x) => x.period === period)) {
+          const y = quickYield(s, c);
+          if (y === undefined) continue;
+          product *= y;
+          count += 1;
+        }
+      trendPlain.push(
+        count > 0 && count === chars.length
+          ? normalUpperQuantile(Math.min(1, 1 - product)) + shift
+          : undefined
+      );
+    }
+    const y = withData.length ? withData.reduce((a, r) => a * r.row.result!.yield, 1) : undefined;
+    out.set(process.id, {
+      status: rows.length
+        ? ((['short', 'meets, not shown', 'meets, shown'] as const).find((s) =>
+            rows.some((r) => r.row.status === s)
+          ) ?? 'no recent data')
+        : 'no recent data',
+      ...(y !== undefined
+        ? {
+            yield: y,
+            zLevel: normalUpperQuantile(Math.min(1, 1 - y)) + shift,
+            costPerYear: costPerYear(1 - y, process)
+          }
+        : {}),
+      trendPlain
+    });
+  }
+  return out;
+}
+
+const portfolioArb = fc
+  .record({
+    processes: fc.array(
+      fc.record({
+        site: fc.integer({ min: 0, max: 2 }),
+        context: fc.integer({ min: 0, max: BUILT_IN_PROFILES.length - 1 }),
+        deleted: fc.boolean().map((b) => b && Math.random() < 0.3),
+        chars: fc.array(
+          fc.record({
+            counted: fc.boolean(),
+            archived: fc.integer({ min: 0, max: 9 }).map((x) => x === 0),
+            change: fc.option(
+              fc.record({
+                month: fc.integer({ min: 1, max: 14 }),
+                half: fc.double({ min: 1, max: 3, noNaN: true })
+              })
+            ),
+            months: fc.array(
+              fc.record({
+                month: fc.integer({ min: 0, max: 14 }),
+                raw: fc.boolean(),
+                mean: fc.double({ min: 9, max: 11, noNaN: true }),
+                sd: fc.double({ min: 0.2, max: 1.2, noNaN: true }),
+                defectives: fc.integer({ min: 0, max: 40 }),
+                deleted: fc.integer({ min: 0, max: 9 }).map((x) => x === 0),
+                rev: fc.integer({ min: 1, max: 4 })
+              }),
+              { maxLength: 12 }
+            )
+          }),
+          { minLength: 1, maxLength: 3 }
+        )
+      }),
+      { minLength: 1, maxLength: 8 }
+    ),
+    seed: fc.integer()
+  })
+  .map(({ processes, seed }): PortfolioRecords => {
+    const sites = [0, 1, 2].map((i) => ({
+      ...meta(`s${i}`),
+      name: `Site ${i}`,
+      region: '',
+      timeZone: 'UTC'
+    }));
+    const ps: Process[] = [];
+    const cs: Characteristic[] = [];
+    const studies: Study[] = [];
+    processes.forEach((p, pi) => {
+      ps.push({
+        ...meta(`p${pi}`),
+        siteId: `s${p.site}`,
+        name: `Process ${pi}`,
+        owner: '',
+        contextId: BUILT_IN_PROFILES[p.context]!.id,
+        monthlyVolume: 1000 + pi,
+        costPerDefective: 3,
+        currency: 'EUR',
+        ...(p.deleted ? { deletedAt: '2026-01-01T00:00:00Z' } : {})
+      });
+      p.chars.forEach((c, ci) => {
+        const id = `c${pi}-${ci}`;
+        cs.push({
+          ...meta(id),
+          processId: `p${pi}`,
+          name: `Char ${ci}`,
+          unit: '',
+          dataKind: c.counted ? 'counted' : 'measured',
+          riskClass: ci === 0 ? 'key' : 'standard',
+          ...(c.counted ? {} : { lsl: 7, usl: 13 }),
+          ...(c.archived ? { archivedAt: '2026-01-01T00:00:00Z' } : {}),
+          ...(c.change && !c.counted
+            ? {
+                limitChanges: [
+                  { from: MONTHS[c.change.month]!, lsl: 10 - c.change.half, usl: 10 + c.change.half }
+                ]
+              }
+            : {})
+        });
+        const seen = new Set<number>();
+        c.months.forEach((m, mi) => {
+          if (seen.has(m.month)) return; // one live study per characteristic and month (the stored invariant)
+          seen.add(m.month);
+          const values = Array.from({ length: 8 }, (_, k) => m.mean + m.sd * Math.sin(k * 1.7 + mi + seed));
+          studies.push({
+            ...meta(`${id}-${m.month}`, m.rev),
+            characteristicId: id,
+            period: MONTHS[m.month]!,
+            enteredBy: '',
+            data: c.counted
+              ? { kind: 'defectives', units: 500, defectives: m.defectives }
+              : m.raw
+                ? { kind: 'raw', values }
+                : { kind: 'summary', n: 30, mean: m.mean, sd: m.sd },
+            ...(m.deleted ? { deletedAt: '2026-01-01T00:00:00Z' } : {})
+          });
+        });
+      });
+    });
+    // Records arrive in any order after merges: shuffle the studies deterministically.
+    let s = seed >>> 0 || 1;
+    for (let i = studies.length - 1; i > 0; i -= 1) {
+      s = (s * 1103515245 + 12345) >>> 0;
+      const j = s % (i + 1);
+      [studies[i], studies[j]] = [studies[j]!, studies[i]!];
+    }
+    return { sites, processes: ps, characteristics: cs, studies, projects: [] };
+  });
+
+function close(a: number | undefined, b: number | undefined): void {
+  if (a === undefined || b === undefined || !Number.isFinite(a) || !Number.isFinite(b)) expect(a).toBe(b);
+  else expect(Math.abs(a - b)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(b)));
+}
+
+describe('the indexed, cached ranking gives the figures of a plain record-by-record computation (property)', () => {
+  it('holds over 150 random portfolios, for several windows, with the cache warm and cold', () => {
+    fc.assert(
+      fc.property(
+        portfolioArb,
+        fc.integer({ min: 2, max: 14 }),
+        fc.constantFrom(1, 3, 12),
+        (records, end, window) => {
+          const endPeriod = MONTHS[end]!;
+          const plain = plainRanking(records, endPeriod, window, 6);
+          const cache: FiguresCache = new Map();
+          for (const pass of [0, 1]) {
+            const rows = rankPortfolio(records, BUILT_IN_PROFILES, {
+              endPeriod,
+              windowMonths: window,
+              trendMonths: 6,
+              cache
+            });
+            expect(rows.length, `pass ${pass}`).toBe(plain.size);
+            for (const row of rows) {
+              const p = plain.get(row.process.id)!;
+              expect(row.status).toBe(p.status);
+              close(row.yield, p.yield);
+              close(row.zLevel, p.zLevel);
+              close(row.costPerYear, p.costPerYear);
+              expect(row.trend.length).toBe(6);
+              row.trend.forEach((z, i) => close(z, p.trendPlain[i]));
+            }
+          }
+        }
+      ),
+      { numRuns: 150, seed: 20261202 }
+    );
+  });
+
+  it('gives the review the quarter headlines of plain rankings of each quarter', () => {
+    fc.assert(
+      fc.property(portfolioArb, (records) => {
+        const figures = buildQuarterReview(records, BUILT_IN_PROFILES, {
+          quarter: '2026-Q4',
+          trendQuarters: 4
+        });
+        for (const point of figures.shareTrend) {
+          const end = periodsOfQuarter(point.quarter)[2]!;
+          const plain = [...plainRanking(records, end, 3, 3).values()];
+          const reviewed = plain.filter((r) => r.status !== 'no recent data');
+          const meeting = reviewed.filter((r) => r.status !== 'short').length;
+          expect(point.reviewed).toBe(reviewed.length);
+          close(point.share, reviewed.length ? meeting / reviewed.length : undefined);
+        }
+        const plainNow = [...plainRanking(records, '2026-12', 3, 3).values()];
+        const cost = plainNow.reduce(
+          (a, r) => a + (r.status !== 'no recent data' ? (r.costPerYear ?? 0) : 0),
+          0
+        );
+        close(figures.headline.cost.find((c) => c.currency === 'EUR')?.perYear ?? 0, cost);
+      }),
+      { numRuns: 60, seed: 20261203 }
+    );
+  });
+});
