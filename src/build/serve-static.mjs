@@ -3,9 +3,14 @@
  * `/settings` from `settings.html`, and `200.html` (the SPA fallback) for any other path, so deep links
  * such as `/process/<id>` work. `vite preview` does not serve that fallback, hence this small server.
  *
+ * Text files (pages, scripts, styles, the manifest) are sent compressed — brotli when the browser accepts it,
+ * else gzip — as real static hosts do, with `Vary: Accept-Encoding`. Each file is compressed once, at the
+ * highest settings, when it is first asked for, and kept while the file does not change.
+ *
  * Usage: node src/build/serve-static.mjs [DIR] [--port N] [--host H]
  */
-import { createReadStream, statSync } from 'node:fs';
+import { createReadStream, readFileSync, statSync } from 'node:fs';
+import { brotliCompressSync, constants as zlib, gzipSync } from 'node:zlib';
 import { createServer } from 'node:http';
 import { extname, join, normalize, resolve } from 'node:path';
 
@@ -30,6 +35,40 @@ const TYPES = {
   '.ico': 'image/x-icon',
   '.txt': 'text/plain; charset=utf-8'
 };
+
+const COMPRESSIBLE = new Set(['.html', '.js', '.mjs', '.css', '.json', '.webmanifest', '.svg', '.txt']);
+/** path → { mtimeMs, br, gzip } */
+const compressed = new Map();
+
+/** The compressed body of a file for the encodings the request accepts, or undefined to send it as it is. */
+function encodedBody(file, acceptEncoding) {
+  if (!COMPRESSIBLE.has(extname(file))) return undefined;
+  const accepted = new Set(
+    acceptEncoding
+      .split(',')
+      .map((part) => part.trim().split(';'))
+      .filter(([, q]) => !q || Number(q.trim().replace(/^q=/, '')) > 0)
+      .map(([name]) => name.trim().toLowerCase())
+  );
+  const encoding = accepted.has('br') ? 'br' : accepted.has('gzip') ? 'gzip' : undefined;
+  if (!encoding) return undefined;
+  const mtimeMs = statSync(file).mtimeMs;
+  let entry = compressed.get(file);
+  if (!entry || entry.mtimeMs !== mtimeMs) {
+    entry = { mtimeMs };
+    compressed.set(file, entry);
+  }
+  if (!entry[encoding]) {
+    const raw = readFileSync(file);
+    entry[encoding] =
+      encoding === 'br'
+        ? brotliCompressSync(raw, {
+            params: { [zlib.BROTLI_PARAM_QUALITY]: 11, [zlib.BROTLI_PARAM_SIZE_HINT]: raw.length }
+          })
+        : gzipSync(raw, { level: 9 });
+  }
+  return { encoding, body: entry[encoding] };
+}
 
 function fileFor(urlPath) {
   const clean = normalize(decodeURIComponent(urlPath)).replace(/^(\.\.[/\\])+/, '');
@@ -61,11 +100,23 @@ const server = createServer((req, res) => {
     return;
   }
   const immutable = url.pathname.startsWith('/_app/immutable/');
-  res.writeHead(status, {
+  const headers = {
     'content-type': TYPES[extname(file)] ?? 'application/octet-stream',
     // Hashed assets never change; everything else (pages, the service worker) is revalidated each time.
     'cache-control': immutable ? 'public, max-age=31536000, immutable' : 'no-cache'
-  });
+  };
+  const encoded = encodedBody(file, String(req.headers['accept-encoding'] ?? ''));
+  if (COMPRESSIBLE.has(extname(file))) headers.vary = 'Accept-Encoding';
+  if (encoded) {
+    res.writeHead(status, {
+      ...headers,
+      'content-encoding': encoded.encoding,
+      'content-length': encoded.body.length
+    });
+    res.end(req.method === 'HEAD' ? undefined : encoded.body);
+    return;
+  }
+  res.writeHead(status, headers);
   createReadStream(file).pipe(res);
 });
 

@@ -182,6 +182,20 @@ describe('capstan counts and convert', () => {
     expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/--units must be a number, got 'x'/);
   });
+
+  it('stops quietly when the reader closes the pipe early (`… | head`): no stack trace, exit 0', () => {
+    // `true` exits at once, so every write of the ranking meets a closed pipe (EPIPE).
+    const piped = spawnSync(
+      'bash',
+      [
+        '-c',
+        'npm run -s cli -- rank seed-data/demo-portfolio.json --json | true; echo "status ${PIPESTATUS[0]}"'
+      ],
+      { encoding: 'utf8', cwd: new URL('../..', import.meta.url).pathname }
+    );
+    expect(piped.stderr).toBe('');
+    expect(piped.stdout.trim()).toBe('status 0');
+  });
 });
 
 describe('capstan rank', () => {
