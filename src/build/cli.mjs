@@ -4,7 +4,7 @@
  * Vite; one bundle of src/cli/main.ts and what it imports) into node_modules/.cache/capstan-cli/, and rebuilt
  * when any source under src/ is newer than it — a checkout, an edit — so it is never stale.
  */
-import { mkdirSync, readdirSync, statSync } from 'node:fs';
+import { mkdirSync, readdirSync, renameSync, statSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
@@ -35,7 +35,8 @@ if (sources.some((s) => newestSource(join(root, s)) > builtAt())) {
   mkdirSync(dirname(out), { recursive: true });
   await build({
     entryPoints: [join(root, 'src/cli/main.ts')],
-    outfile: out,
+    // Written under a name of its own, then renamed: a second call starting meanwhile never reads half a file.
+    outfile: `${out}.${process.pid}.tmp`,
     bundle: true,
     platform: 'node',
     format: 'esm',
@@ -44,5 +45,6 @@ if (sources.some((s) => newestSource(join(root, s)) > builtAt())) {
     banner: { js: "import { createRequire as __capstanRequire } from 'node:module'; const require = __capstanRequire(import.meta.url);" },
     logLevel: 'error'
   });
+  renameSync(`${out}.${process.pid}.tmp`, out);
 }
 await import(pathToFileURL(out).href);
