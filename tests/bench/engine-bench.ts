@@ -7,10 +7,14 @@ import { summaryFigures } from '../../src/lib/stats/summary-figures';
 
 export interface BenchRow {
   name: string;
+  /** Processes (or rows, values) the row was measured at, where a size applies. */
+  size?: number;
   ms: number;
   baselineName?: string;
   baselineMs?: number;
   target?: string;
+  /** Peak resident memory of the process that measured the row (Node) or peak JS heap (browser), in MB. */
+  peakMB?: number;
 }
 
 function median(xs: number[]): number {

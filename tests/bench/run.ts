@@ -1,16 +1,33 @@
-/** `npm run bench`: runs every benchmark and prints one table. Figures only; nothing here passes or fails. */
+/**
+ * `npm run bench`: runs every benchmark and prints one table. Figures only; nothing here passes or fails.
+ * `npm run bench -- --json` prints one JSON object per row instead (name, size, ms, baselineMs, ratio, peakMB),
+ * one per line, for tools that compare runs.
+ */
 import { runBrowserBench } from './browser-bench';
 import { runCsvImportBench } from './csv-import-bench';
 import { runExchangeFileBench } from './exchange-file-bench';
 import { runEngineBench, type BenchRow } from './engine-bench';
 import { runMasterListBench } from './master-list-bench';
 import { runRankingBench } from './ranking-bench';
-import { runReviewBench } from './review-bench';
+
+function printJson(rows: BenchRow[]): void {
+  for (const r of rows)
+    console.log(
+      JSON.stringify({
+        name: r.name,
+        size: r.size ?? null,
+        ms: Number.isFinite(r.ms) ? r.ms : null,
+        baselineMs: r.baselineMs ?? null,
+        ratio: r.baselineMs !== undefined ? r.ms / r.baselineMs : null,
+        peakMB: r.peakMB ?? null
+      })
+    );
+}
 
 function print(rows: BenchRow[]): void {
   const line = (cells: string[]) => `| ${cells.join(' | ')} |`;
-  console.log(line(['benchmark', 'time (ms)', 'baseline', 'baseline (ms)', 'ratio', 'target']));
-  console.log(line(['---', '---:', '---', '---:', '---:', '---']));
+  console.log(line(['benchmark', 'time (ms)', 'baseline', 'baseline (ms)', 'ratio', 'peak MB', 'target']));
+  console.log(line(['---', '---:', '---', '---:', '---:', '---:', '---']));
   for (const r of rows) {
     console.log(
       line([
@@ -19,19 +36,20 @@ function print(rows: BenchRow[]): void {
         r.baselineName ?? '–',
         r.baselineMs !== undefined ? r.baselineMs.toFixed(1) : '–',
         r.baselineMs !== undefined ? `${(r.ms / r.baselineMs).toFixed(2)}×` : '–',
+        r.peakMB !== undefined ? r.peakMB.toFixed(0) : '–',
         r.target ?? '–'
       ])
     );
   }
 }
 
-console.log(`Capstan benchmarks — Node ${process.version}, ${new Date().toISOString()}`);
-print([
+const json = process.argv.includes('--json');
+if (!json) console.log(`Capstan benchmarks — Node ${process.version}, ${new Date().toISOString()}`);
+(json ? printJson : print)([
   ...runEngineBench(),
   ...runCsvImportBench(),
   ...runMasterListBench(),
   ...runRankingBench(),
-  ...runReviewBench(),
   ...(await runExchangeFileBench()),
   ...(await runBrowserBench())
 ]);

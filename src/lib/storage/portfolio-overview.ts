@@ -170,3 +170,27 @@ export async function loadPortfolioRecords(db: CapstanDatabase) {
     projects: projects.filter(isLive)
   };
 }
+
+/**
+ * A mark that changes whenever a record the portfolio is ranked from is written, in this tab or another: the
+ * latest device-local sequence number and the row count of each table (a delete is a tombstone, so a put). Read
+ * through indexes only — nothing is cloned — so a page can watch it and let a worker read the records
+ * themselves (storage/portfolio-reader.ts).
+ */
+export async function portfolioChangeMark(
+  db: CapstanDatabase
+): Promise<{ mark: string; storedSites: number; storedProcesses: number }> {
+  const parts = await Promise.all(
+    [db.sites, db.processes, db.characteristics, db.studies, db.projects].map(async (table) => {
+      const t = table as typeof db.sites;
+      const [last, count] = await Promise.all([t.orderBy('localSeq').lastKey(), t.count()]);
+      return { last: String(last ?? 0), count };
+    })
+  );
+  return {
+    mark: parts.map((p) => `${p.last}/${p.count}`).join(' '),
+    // Stored rows, deleted ones included: zero means there is certainly nothing to rank.
+    storedSites: parts[0]!.count,
+    storedProcesses: parts[1]!.count
+  };
+}

@@ -36,6 +36,7 @@ import { loadMonthlyLogStatus, type MonthlyLogStatus } from './monthly-log-statu
 import {
   listProcessOverviews,
   loadPortfolioRecords,
+  portfolioChangeMark,
   loadProcessDetail,
   summariseDatabase,
   type DatabaseSummary,
@@ -75,6 +76,8 @@ export interface CapstanStorage {
   readonly read: {
     processOverviews(): Promise<ProcessOverview[]>;
     portfolioRecords(): ReturnType<typeof loadPortfolioRecords>;
+    /** Changes whenever a record of the portfolio is written (portfolio-overview.ts); reads no records. */
+    portfolioChangeMark(): ReturnType<typeof portfolioChangeMark>;
     processDetail(processId: string): Promise<ProcessDetail | undefined>;
     monthlyLogStatus(siteId: string, period: string): Promise<MonthlyLogStatus>;
     quarterCoverage(quarter: string): Promise<QuarterCoverage>;
@@ -202,6 +205,7 @@ export async function openStorage(
     read: {
       processOverviews: () => listProcessOverviews(db),
       portfolioRecords: () => loadPortfolioRecords(db),
+      portfolioChangeMark: () => portfolioChangeMark(db),
       processDetail: (processId) => loadProcessDetail(db, processId),
       monthlyLogStatus: (siteId, period) => loadMonthlyLogStatus(db, siteId, period),
       quarterCoverage: (quarter) => loadQuarterCoverage(db, quarter),

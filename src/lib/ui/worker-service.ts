@@ -1,0 +1,55 @@
+/**
+ * A background worker that lives as long as a page and answers requests in the order they were made — for
+ * work whose worker keeps something between requests (the ranking's window figures, the records it read).
+ * One-off jobs use worker-job.ts instead. The worker starts on the first request (never while a page is
+ * prerendered); `close` ends it when the page goes. Messages carry an `id`; an answer `{ id, type: 'error',
+ * message }` rejects its request with `failed` before the message.
+ */
+export interface WorkerService<Request, Answer> {
+  ask: (request: Request) => Promise<Answer>;
+  close: () => void;
+}
+
+export function workerService<Request extends object, Answer extends { id: number; type: string }>(
+  /** `() => new Worker(new URL('…', import.meta.url), { type: 'module' })`, written out where it is used. */
+  create: () => Worker,
+  failed: string
+): WorkerService<Request, Answer> {
+  let worker: Worker | undefined;
+  let next = 0;
+  const waiting = new Map<number, { resolve: (a: Answer) => void; reject: (e: Error) => void }>();
+  const failAll = (message: string) => {
+    for (const w of waiting.values()) w.reject(new Error(`${failed}: ${message}`));
+    waiting.clear();
+  };
+  const start = (): Worker => {
+    const w = create();
+    w.onmessage = (event: MessageEvent<Answer | { id: number; type: 'error'; message: string }>) => {
+      const m = event.data;
+      const asked = waiting.get(m.id);
+      waiting.delete(m.id);
+      if (!asked) return;
+      if (m.type === 'error' && 'message' in m) asked.reject(new Error(`${failed}: ${m.message}`));
+      else asked.resolve(m as Answer);
+    };
+    w.onerror = (event) => {
+      failAll(event.message || 'the background worker stopped');
+      worker = undefined;
+    };
+    return w;
+  };
+  return {
+    ask: (request) =>
+      new Promise((resolve, reject) => {
+        worker ??= start();
+        next += 1;
+        waiting.set(next, { resolve, reject });
+        worker.postMessage({ ...request, id: next });
+      }),
+    close: () => {
+      worker?.terminate();
+      worker = undefined;
+      failAll('the page was closed');
+    }
+  };
+}

@@ -1,0 +1,72 @@
+/// <reference lib="webworker" />
+/**
+ * The portfolio ranked away from the page: the worker reads the records from IndexedDB itself
+ * (storage/portfolio-reader.ts) when the page says they changed, keeps them and the window figures between
+ * requests, and posts back only the ranked rows. A change of window, order, weight or target then costs a
+ * re-judgement and a sort here, and nothing on the page's thread but receiving the rows.
+ */
+import type { ContextProfile } from '../domain/context-profile';
+import { rankPortfolio } from '../domain/portfolio-ranking';
+import type {
+  FiguresCache,
+  PortfolioRecords,
+  ProcessRow,
+  RankingOrder,
+  RankingWeights
+} from '../domain/portfolio-terms';
+import { readPortfolioRecords } from '../storage/portfolio-reader';
+
+export interface PortfolioRankingRequest {
+  id: number;
+  databaseName: string;
+  /** Read the records again: the page saw its tables change since the last request. */
+  reload: boolean;
+  endPeriod: string;
+  windowMonths: number;
+  order: RankingOrder;
+  weights: RankingWeights;
+  profiles: readonly ContextProfile[];
+}
+
+export type PortfolioRankingMessage =
+  | {
+      id: number;
+      type: 'done';
+      rows: ProcessRow[];
+      /** Live processes and sites stored, ranked or not (the page's empty states). */
+      processes: number;
+      sites: number;
+      ms: number;
+    }
+  | { id: number; type: 'error'; message: string };
+
+/** Entries beyond this are dropped all at once: old windows of edited studies would otherwise pile up. */
+const CACHE_LIMIT = 500_000;
+
+const scope = self as unknown as DedicatedWorkerGlobalScope;
+const cache: FiguresCache = new Map();
+let records: PortfolioRecords | undefined;
+
+scope.onmessage = async (event: MessageEvent<PortfolioRankingRequest>) => {
+  const { id, databaseName, reload, endPeriod, windowMonths, order, weights, profiles } = event.data;
+  const started = performance.now();
+  try {
+    if (reload || !records) records = await readPortfolioRecords(databaseName);
+    if (cache.size > CACHE_LIMIT) cache.clear();
+    const rows = rankPortfolio(records, profiles, { endPeriod, windowMonths, order, weights, cache });
+    scope.postMessage({
+      id,
+      type: 'done',
+      rows,
+      processes: records.processes.length,
+      sites: records.sites.length,
+      ms: performance.now() - started
+    } satisfies PortfolioRankingMessage);
+  } catch (error) {
+    scope.postMessage({
+      id,
+      type: 'error',
+      message: error instanceof Error ? error.message : String(error)
+    } satisfies PortfolioRankingMessage);
+  }
+};
