@@ -69,8 +69,9 @@ export function generatePortfolio(processCount: number, months: number): Portfol
       riskClass: p % 7 === 0 ? 'safety' : 'standard',
       ...(counted ? {} : { lsl: 7, usl: 13 })
     });
+    const own: Study[] = [];
     for (let m = 0; m < months; m += 1) {
-      studies.push({
+      own.push({
         ...meta(`${cid}-${m}`),
         characteristicId: cid,
         period: addMonths(BENCH_FIRST_PERIOD, m),
@@ -80,6 +81,8 @@ export function generatePortfolio(processCount: number, months: number): Portfol
           : { kind: 'summary', n: 50, mean: 10 + (u() - 0.5), sd: 0.4 + u() * 0.4 }
       });
     }
+    // Through JSON one process at a time: shaped as received, without one giant string at the peak.
+    for (const study of JSON.parse(JSON.stringify(own)) as Study[]) studies.push(study);
   }
   const sites = Array.from({ length: Math.min(50, processCount) }, (_, i) => ({
     ...meta(`site${i}`),
@@ -87,7 +90,13 @@ export function generatePortfolio(processCount: number, months: number): Portfol
     region: '',
     timeZone: 'UTC'
   }));
-  return JSON.parse(JSON.stringify({ sites, processes, characteristics, studies, projects }));
+  return {
+    ...(JSON.parse(JSON.stringify({ sites, processes, characteristics, projects })) as Omit<
+      PortfolioRecords,
+      'studies'
+    >),
+    studies
+  };
 }
 
 function median(xs: number[]): number {

@@ -26,6 +26,7 @@ import { limitVersionOf } from '../../src/lib/domain/specification-history';
 import type { Study } from '../../src/lib/domain/study';
 import { capabilityOfStudy } from '../../src/lib/domain/study-capability';
 import { windowData } from '../../src/lib/domain/window-study';
+import { windowFiguresOf } from '../../src/lib/domain/window-figures';
 import { normalUpperQuantile } from '../../src/lib/stats/normal-distribution';
 
 const meta = (id: string, rev = 1): RecordMeta => ({ id, createdAt: '', updatedAt: '', rev, deviceId: 'd' });
@@ -59,10 +60,12 @@ function plainRanking(
       let result;
       try {
         result = w
-          ? capabilityOfStudy(
-              { data: w.data, period: endPeriod },
-              c,
-              w.sdWithin ? { sdWithin: w.sdWithin } : {}
+          ? windowFiguresOf(
+              capabilityOfStudy(
+                { data: w.data, period: endPeriod },
+                c,
+                w.sdWithin ? { sdWithin: w.sdWithin } : {}
+              )
             )
           : undefined;
       } catch {

@@ -1,7 +1,7 @@
 import { normalCdf, normalSf, normalUpperQuantile } from '../stats/normal-distribution';
 import { summariseMoments } from '../stats/pooled-moments';
 import { leastSquaresSlope } from '../stats/trend-slope';
-import type { CapabilityResult } from '../stats/capability-result';
+import { windowFiguresOf, type WindowFigures } from './window-figures';
 import type { Characteristic, RiskClass } from './characteristic';
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
 import { addMonths } from './period';
@@ -78,12 +78,12 @@ export function requiredZ(profile: ContextProfile, risk: RiskClass): number {
   }
 }
 
-function badgesOf(r: CapabilityResult, profile: ContextProfile | undefined): Badge[] {
+function badgesOf(r: WindowFigures, profile: ContextProfile | undefined): Badge[] {
   const b: Badge[] = [];
   if (r.kind === 'measured' && r.model !== 'normal') b.push('non-normal model');
   if (r.kind === 'summary') b.push('summary only');
   if (r.kind === 'defectives' || r.kind === 'defects') b.push('counted data');
-  if (r.stability && !r.stability.stable) b.push('not shown stable');
+  if (r.stable === false) b.push('not shown stable');
   if (r.kind === 'measured' || r.kind === 'summary' ? r.n < 30 : r.n < 100) b.push('small sample');
   if (profile?.reporting === 'short-term') b.push('shift convention');
   return b;
@@ -94,7 +94,7 @@ function badgesOf(r: CapabilityResult, profile: ContextProfile | undefined): Bad
  * one-sided lower bound, and the fraction of units out of specification (defective) and its one-sided upper
  * bound. For defects, a unit is defective when it has at least one defect: 1 − e^(−DPU).
  */
-export function perUnitFigures(result: CapabilityResult): {
+export function perUnitFigures(result: WindowFigures): {
   z: number;
   zBound?: number;
   fraction: number;
@@ -102,7 +102,7 @@ export function perUnitFigures(result: CapabilityResult): {
 } {
   if (result.kind === 'defects') {
     const fraction = 1 - result.yield;
-    const dpuBound = result.intervals.dpu?.upperBound;
+    const dpuBound = result.bounds.dpuUpper;
     const fractionBound = dpuBound === undefined ? undefined : 1 - Math.exp(-dpuBound);
     return {
       z: normalUpperQuantile(Math.min(1, Math.max(0, fraction))),
@@ -113,20 +113,20 @@ export function perUnitFigures(result: CapabilityResult): {
     };
   }
   const fraction = result.ppmTotal !== undefined ? result.ppmTotal / 1e6 : 1 - result.yield;
-  const iv = result.intervals.ppmTotal ?? result.intervals.ppm;
-  const zBound = result.intervals.zLevel?.lowerBound;
+  const zBound = result.bounds.zLevelLower;
+  const fractionBound = result.bounds.fractionUpper;
   return {
     z: result.zLevel,
     fraction,
     ...(zBound !== undefined ? { zBound } : {}),
-    ...(iv?.upperBound !== undefined ? { fractionBound: iv.upperBound / 1e6 } : {})
+    ...(fractionBound !== undefined ? { fractionBound } : {})
   };
 }
 
 /** Judges one characteristic's window result against its context's requirement (STATUS_RULE). */
 export function judgeCharacteristic(
   characteristic: Characteristic,
-  result: CapabilityResult | undefined,
+  result: WindowFigures | undefined,
   profile: ContextProfile | undefined,
   months: number,
   period?: string
@@ -155,8 +155,7 @@ export function judgeCharacteristic(
     case 'index': {
       const measured = result.kind === 'measured' || result.kind === 'summary';
       const idx = measured ? (result.cpk ?? result.ppk) : undefined;
-      const idxBound =
-        result.cpk !== undefined ? result.intervals.cpk?.lowerBound : result.intervals.ppk?.lowerBound;
+      const idxBound = result.cpk !== undefined ? result.bounds.cpkLower : result.bounds.ppkLower;
       // Counted data have no index: they are judged on their z-level against 3 × the required index.
       estimate = idx ?? zReported;
       bound = idx !== undefined ? idxBound : zBound;
@@ -177,7 +176,7 @@ export function judgeCharacteristic(
       break;
     }
   }
-  const unstable = result.stability !== undefined && !result.stability.stable;
+  const unstable = result.stable === false;
   const status: CharacteristicStatus = !meets(estimate)
     ? 'short'
     : bound !== undefined && meets(bound) && !unstable
@@ -284,13 +283,15 @@ export function rankPortfolio(
       let cached = options.cache?.get(cacheKey);
       if (!cached) {
         const w = windowData(inWindow);
-        let result: CapabilityResult | undefined;
+        let result: WindowFigures | undefined;
         if (w) {
           try {
-            result = capabilityOfStudy(
-              { data: w.data, period: options.endPeriod },
-              c,
-              w.sdWithin !== undefined ? { sdWithin: w.sdWithin } : {}
+            result = windowFiguresOf(
+              capabilityOfStudy(
+                { data: w.data, period: options.endPeriod },
+                c,
+                w.sdWithin !== undefined ? { sdWithin: w.sdWithin } : {}
+              )
             );
           } catch {
             result = undefined;
@@ -331,7 +332,7 @@ export function rankPortfolio(
       riskClass
     };
     if (withData.length) {
-      const y = withData.reduce((a, r) => a * (r.result as CapabilityResult).yield, 1);
+      const y = withData.reduce((a, r) => a * (r.result as WindowFigures).yield, 1);
       row.yield = y;
       row.ppm = (1 - y) * 1e6;
       row.zLevel = normalUpperQuantile(Math.min(1, 1 - y)) + shift;

@@ -1,4 +1,4 @@
-import type { CapabilityResult } from '../stats/capability-result';
+import type { WindowFigures } from './window-figures';
 import type { Characteristic, RiskClass } from './characteristic';
 import type { ContextProfile } from './context-profile';
 import type { ImprovementProject } from './improvement-project';
@@ -51,7 +51,8 @@ export const BADGE_EXPLANATIONS: Record<Badge, string> = {
 export interface CharacteristicRow {
   characteristic: Characteristic;
   status: CharacteristicStatus;
-  result?: CapabilityResult;
+  /** The window's figures (window-figures.ts); the full analysis of one study is on its process page. */
+  result?: WindowFigures;
   /** The estimate in the unit of the ruling measure (index, z-level as reported, or ppm). */
   estimate?: number;
   /** The one-sided confidence bound in the same unit, where one exists. */
@@ -134,7 +135,7 @@ export interface RankingOptions {
  * target or weight change then costs only the comparison and the sort. Keyed by characteristic, window and the
  * id@rev of every study in it.
  */
-export type FiguresCache = Map<string, { result: CapabilityResult | undefined; months: number }>;
+export type FiguresCache = Map<string, { result: WindowFigures | undefined; months: number }>;
 
 export interface PortfolioRecords {
   sites: readonly Site[];

@@ -1,11 +1,18 @@
 import jStat from 'jstat';
+import { boundedMemo } from './bounded-memo';
 import { gammaQuantile } from './incomplete-gamma';
 import { normalQuantile } from './normal-distribution';
 
-/** Chi-square quantile χ²_{p, df} = 2·Γ⁻¹(p; df/2): our incomplete gamma, which stays fast for the large df of big studies. */
-export function chiSquareQuantile(p: number, df: number): number {
-  return 2 * gammaQuantile(p, df / 2, 1);
-}
+/**
+ * Chi-square quantile χ²_{p, df} = 2·Γ⁻¹(p; df/2): our incomplete gamma, which stays fast for the large df of big
+ * studies. Remembered (bounded-memo.ts): a portfolio asks for the same sample sizes again and again.
+ */
+export const chiSquareQuantile: (p: number, df: number) => number = boundedMemo(
+  (p: number, df: number) => 2 * gammaQuantile(p, df / 2, 1)
+);
+
+/** The beta quantile B⁻¹(p; a, b) of jStat, remembered as above (Clopper–Pearson bounds of counted data). */
+const betaQuantile = boundedMemo((p: number, a: number, b: number) => jStat.beta.inv(p, a, b));
 
 /** A two-sided interval and the one-sided lower bound at the same confidence level. */
 export interface IndexInterval {
@@ -100,9 +107,9 @@ export interface ProportionInterval {
 export function clopperPearson(x: number, n: number, level = 0.95): ProportionInterval {
   checkLevel(level);
   const alpha = 1 - level;
-  const lower = x === 0 ? 0 : jStat.beta.inv(alpha / 2, x, n - x + 1);
-  const upper = x === n ? 1 : jStat.beta.inv(1 - alpha / 2, x + 1, n - x);
-  const upperBound = x === n ? 1 : x === 0 ? 1 - alpha ** (1 / n) : jStat.beta.inv(level, x + 1, n - x);
+  const lower = x === 0 ? 0 : betaQuantile(alpha / 2, x, n - x + 1);
+  const upper = x === n ? 1 : betaQuantile(1 - alpha / 2, x + 1, n - x);
+  const upperBound = x === n ? 1 : x === 0 ? 1 - alpha ** (1 / n) : betaQuantile(level, x + 1, n - x);
   return { lower, upper, upperBound, level };
 }
 

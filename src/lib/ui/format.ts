@@ -6,14 +6,21 @@ export function formatCount(value: number): string {
   return integer.format(value);
 }
 
+const moneyFormats = new Map<string, Intl.NumberFormat | undefined>();
+
+/** Whole amounts in a currency; one formatter per currency, made once (a new one per call is slow at scale). */
 export function formatMoney(value: number, currency: string): string {
-  try {
-    return new Intl.NumberFormat(undefined, { style: 'currency', currency, maximumFractionDigits: 0 }).format(
-      value
-    );
-  } catch {
-    return `${integer.format(value)} ${currency}`;
+  if (!moneyFormats.has(currency)) {
+    let format: Intl.NumberFormat | undefined;
+    try {
+      format = new Intl.NumberFormat(undefined, { style: 'currency', currency, maximumFractionDigits: 0 });
+    } catch {
+      format = undefined; // not an ISO 4217 code the browser knows: the amount and the code as written
+    }
+    moneyFormats.set(currency, format);
   }
+  const format = moneyFormats.get(currency);
+  return format ? format.format(value) : `${integer.format(value)} ${currency}`;
 }
 
 export function formatBytes(bytes: number | undefined): string {

@@ -1,3 +1,4 @@
+import { formatFixed } from '../capability-format';
 import { formatMoney } from '../format';
 
 /** How the review writes its figures: shares as whole percents, costs per currency, p-values briefly. */
@@ -22,10 +23,7 @@ export function formatCosts(
 
 export function formatChange(v: number | undefined, digits = 2): string {
   if (v === undefined || !Number.isFinite(v)) return '–';
-  const text = Math.abs(v).toLocaleString(undefined, {
-    minimumFractionDigits: digits,
-    maximumFractionDigits: digits
-  });
+  const text = formatFixed(Math.abs(v), digits);
   return v > 0 ? `+${text}` : v < 0 ? `−${text}` : text;
 }
 
