@@ -278,6 +278,7 @@ export async function runBrowserBench(): Promise<BenchRow[]> {
             count: number;
             chunk: number;
             bare: { writeMs: number; readMs: number };
+            sameSchema: { writeMs: number; readMs: number };
             app: { writeMs: number; readMs: number };
             exchange: {
               exportMs: number;
@@ -296,9 +297,15 @@ export async function runBrowserBench(): Promise<BenchRow[]> {
     rows.push({
       name: `IndexedDB write of ${r.count.toLocaleString('en')} studies in chunks of ${r.chunk.toLocaleString('en')}, app database (5 indexes + write sequence), ${rate(r.app.writeMs)}`,
       ms: r.app.writeMs,
+      baselineName: `bare Dexie bulkPut, same schema (5 indexes + sequence number), ${rate(r.sameSchema.writeMs)}`,
+      baselineMs: r.sameSchema.writeMs,
+      target: '≤ 1.2×'
+    });
+    rows.push({
+      name: '  … the same app write beside a bare table with 3 indexes (what the schema itself costs)',
+      ms: r.app.writeMs,
       baselineName: `bare Dexie bulkPut, 3 indexes, ${rate(r.bare.writeMs)}`,
-      baselineMs: r.bare.writeMs,
-      target: '≤ 1.5×'
+      baselineMs: r.bare.writeMs
     });
     rows.push({
       name: `IndexedDB read of all ${r.count.toLocaleString('en')} studies, app database`,

@@ -4,6 +4,7 @@
  * one per line, for tools that compare runs.
  */
 import { runBrowserBench } from './browser-bench';
+import { runCommandLineBench } from './command-line-bench';
 import { runCsvImportBench } from './csv-import-bench';
 import { runExchangeFileBench } from './exchange-file-bench';
 import { runEngineBench, type BenchRow } from './engine-bench';
@@ -50,6 +51,7 @@ if (!json) console.log(`Capstan benchmarks — Node ${process.version}, ${new Da
   ...runCsvImportBench(),
   ...runMasterListBench(),
   ...runRankingBench(),
+  ...(await runCommandLineBench()),
   ...(await runExchangeFileBench()),
   ...(await runBrowserBench())
 ]);

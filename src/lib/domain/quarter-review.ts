@@ -178,8 +178,8 @@ export function buildQuarterReview(
     rankPortfolio(records, profiles, {
       endPeriod: periodsOfQuarter(quarter)[2]!,
       windowMonths: 3,
-      // The review shows no monthly trend line; a short one spares most of the per-month work.
-      trendMonths: 3,
+      // The review shows no monthly trend line: none is computed (ten quarters × every characteristic).
+      trendMonths: 0,
       cache
     });
   const quarter = options.quarter;

@@ -15,9 +15,56 @@ export const LATEST_RECORD_MS = Date.UTC(2200, 0, 1);
 const DATE_TIME = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,9}))?)?(Z|[+-]\d{2}:\d{2})$/;
 const DATE_ONLY = /^(\d{4})-(\d{2})-(\d{2})$/;
 
+const DAYS_IN_MONTH = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
+
+/** Gregorian calendar: a leap year is divisible by 4, except centuries not divisible by 400. */
 function isRealDay(year: number, month: number, day: number): boolean {
   if (month < 1 || month > 12 || day < 1) return false;
-  return day <= new Date(Date.UTC(year, month, 0)).getUTCDate();
+  const leap = month === 2 && year % 4 === 0 && (year % 100 !== 0 || year % 400 === 0);
+  return day <= DAYS_IN_MONTH[month - 1]! + (leap ? 1 : 0);
+}
+
+/** One decimal digit at `at`, or NaN. */
+function digit(text: string, at: number): number {
+  const a = text.charCodeAt(at) - 48;
+  return a >= 0 && a <= 9 ? a : NaN;
+}
+
+/** Two decimal digits at `at`, or NaN. */
+function twoDigits(text: string, at: number): number {
+  const a = text.charCodeAt(at) - 48;
+  const b = text.charCodeAt(at + 1) - 48;
+  return a >= 0 && a <= 9 && b >= 0 && b <= 9 ? a * 10 + b : NaN;
+}
+
+/**
+ * The form every stamp Capstan writes has (`toISOString`: `2026-11-03T08:15:00.000Z`), read by character codes.
+ * A file of a company's portfolio carries hundreds of thousands of stamps; a regular expression and `Date.parse`
+ * each were a third of reading it. Returns null when the text has another form (the general reading decides).
+ */
+function canonicalTimeMs(text: string): number | undefined | null {
+  if (
+    text.length !== 24 ||
+    text.charCodeAt(4) !== 45 ||
+    text.charCodeAt(7) !== 45 ||
+    text.charCodeAt(10) !== 84 ||
+    text.charCodeAt(13) !== 58 ||
+    text.charCodeAt(16) !== 58 ||
+    text.charCodeAt(19) !== 46 ||
+    text.charCodeAt(23) !== 90
+  )
+    return null;
+  const year = twoDigits(text, 0) * 100 + twoDigits(text, 2);
+  const month = twoDigits(text, 5);
+  const day = twoDigits(text, 8);
+  const hour = twoDigits(text, 11);
+  const minute = twoDigits(text, 14);
+  const second = twoDigits(text, 17);
+  const ms = twoDigits(text, 20) * 10 + digit(text, 22);
+  if ([year, month, day, hour, minute, second, ms].some(Number.isNaN)) return null;
+  if (!isRealDay(year, month, day) || hour > 23 || minute > 59 || second > 59) return undefined;
+  const at = Date.UTC(year, month - 1, day, hour, minute, second, ms);
+  return at < EARLIEST_RECORD_MS || at >= LATEST_RECORD_MS ? undefined : at;
 }
 
 /**
@@ -25,6 +72,13 @@ function isRealDay(year: number, month: number, day: number): boolean {
  * anything else: another format, an impossible calendar day or time, or an instant outside 2000–2199.
  */
 export function calendarTimeMs(text: string): number | undefined {
+  const fast = canonicalTimeMs(text);
+  if (fast !== null) return fast;
+  return generalTimeMs(text);
+}
+
+/** Any ISO 8601 date-time with an offset, by pattern and `Date.parse`; exported for the test of the fast form. */
+export function generalTimeMs(text: string): number | undefined {
   const m = DATE_TIME.exec(text);
   if (!m) return undefined;
   const [year, month, day, hour, minute, second] = [m[1], m[2], m[3], m[4], m[5], m[6] ?? '0'].map(

@@ -62,6 +62,22 @@ export async function runIndexedDbBench() {
     rows
   );
   bare.close();
+  // The same rows into a bare Dexie table with the app's own study schema (its indexes and a write sequence number
+  // set by hand): what remains between this and the app is the app's code (the middleware), not the schema.
+  await Dexie.delete('bench-same-schema');
+  const same = new Dexie('bench-same-schema');
+  same
+    .version(1)
+    .stores({ studies: 'id, characteristicId, period, updatedAt, [characteristicId+period], localSeq' });
+  await same.open();
+  let seq = 0;
+  const sameTimes = await timed(
+    (c) => same.table('studies').bulkPut(c.map((r) => ({ ...r, localSeq: ++seq }))),
+    () => same.table('studies').toArray(),
+    rows
+  );
+  same.close();
+  await Dexie.delete('bench-same-schema');
   const app = new CapstanDatabase('bench-app');
   await app.open();
   const appTimes = await timed(
@@ -112,6 +128,7 @@ export async function runIndexedDbBench() {
     count: COUNT,
     chunk: CHUNK,
     bare: bareTimes,
+    sameSchema: sameTimes,
     app: appTimes,
     exchange: { exportMs, importMs, fileBytes: bytes.byteLength, imported, peakHeap: peak }
   };
