@@ -1,15 +1,14 @@
 import { normalCdf, normalSf, normalUpperQuantile } from '../stats/normal-distribution';
 import { summariseMoments } from '../stats/pooled-moments';
 import { leastSquaresSlope } from '../stats/trend-slope';
-import { windowFiguresOf, type WindowFigures } from './window-figures';
+import { windowFiguresOfStudy, type WindowFigures } from './window-figures';
 import type { Characteristic, RiskClass } from './characteristic';
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
 import { addMonths } from './period';
-import { firstAtOrAfter, monthOrdinal, portfolioIndex } from './portfolio-index';
+import { firstAtOrAfter, monthOrdinal, portfolioIndex, type PortfolioIndex } from './portfolio-index';
 import type { Process } from './process';
 import type { Study } from './study';
 import { limitsFor, limitVersionOf } from './specification-history';
-import { capabilityOfStudy } from './study-capability';
 import { windowData } from './window-study';
 
 /**
@@ -234,6 +233,98 @@ function rememberedQuickYield(study: Study, c: Characteristic): number | undefin
   return y;
 }
 
+/** What a characteristic's window gives before it is judged: the same for every target, weight and order. */
+interface PreparedCharacteristic {
+  characteristic: Characteristic;
+  figures: WindowFigures | undefined;
+  months: number;
+  limitsChanged: boolean;
+}
+
+/** A process's windows and its monthly trend as long-term z-levels (the context's shift is added when judged). */
+interface PreparedProcess {
+  characteristics: PreparedCharacteristic[];
+  trend: (number | undefined)[];
+}
+
+/**
+ * Prepared windows per record set (by the identity of its study and characteristic arrays) and window: a
+ * change of target, weight or order re-judges these without looking at a study again.
+ */
+const preparedWindows = new WeakMap<
+  readonly Study[],
+  { characteristics: readonly Characteristic[]; byWindow: Map<string, Map<string, PreparedProcess>> }
+>();
+
+function preparedFor(records: PortfolioRecords, window: string): Map<string, PreparedProcess> {
+  let entry = preparedWindows.get(records.studies);
+  if (!entry || entry.characteristics !== records.characteristics) {
+    entry = { characteristics: records.characteristics, byWindow: new Map() };
+    preparedWindows.set(records.studies, entry);
+  }
+  let prepared = entry.byWindow.get(window);
+  if (!prepared) entry.byWindow.set(window, (prepared = new Map()));
+  return prepared;
+}
+
+function prepareProcess(
+  chars: readonly Characteristic[],
+  index: PortfolioIndex,
+  options: RankingOptions,
+  months: { first: string; end: number; firstMonth: number; trendFirstMonth: number; trendMonths: number }
+): PreparedProcess {
+  const monthly = new Float64Array(months.trendMonths).fill(1); // product of the month's yields
+  const monthlyCount = new Int32Array(months.trendMonths);
+  const prepared = chars.map((c): PreparedCharacteristic => {
+    const held = index.studies.get(c.id);
+    const list = held?.list ?? [];
+    const ordinals = held?.months ?? new Int32Array(0);
+    const to = firstAtOrAfter(ordinals, months.end + 1);
+    for (let i = firstAtOrAfter(ordinals, months.trendFirstMonth); i < to; i += 1) {
+      const y = rememberedQuickYield(list[i]!, c);
+      if (y === undefined) continue;
+      const m = ordinals[i]! - months.trendFirstMonth;
+      monthly[m]! *= y;
+      monthlyCount[m]! += 1;
+    }
+    // WINDOW_RULE: the window keeps the months under the limits in force in its last month.
+    const windowed = list.slice(firstAtOrAfter(ordinals, months.firstMonth), to);
+    const changes = c.limitChanges?.length ?? 0;
+    const version = changes ? limitVersionOf(c, options.endPeriod) : '';
+    const inWindow = changes ? windowed.filter((s) => limitVersionOf(c, s.period) === version) : windowed;
+    let cacheKey = `${c.id}@${c.rev}|${months.first}|`;
+    for (const s of inWindow) cacheKey += `${s.id}@${s.rev},`;
+    let cached = options.cache?.get(cacheKey);
+    if (!cached) {
+      const w = windowData(inWindow);
+      let result: WindowFigures | undefined;
+      if (w) {
+        try {
+          result = windowFiguresOfStudy({ data: w.data, period: options.endPeriod }, c, w.sdWithin);
+        } catch {
+          result = undefined;
+        }
+      }
+      cached = { result, months: w?.months.length ?? 0 };
+      options.cache?.set(cacheKey, cached);
+    }
+    return {
+      characteristic: c,
+      figures: cached.result,
+      months: cached.months,
+      limitsChanged: inWindow.length < windowed.length
+    };
+  });
+  const trend: (number | undefined)[] = [];
+  for (let m = 0; m < months.trendMonths; m += 1) {
+    const count = monthlyCount[m]!;
+    trend.push(
+      count > 0 && count === chars.length ? normalUpperQuantile(Math.min(1, 1 - monthly[m]!)) : undefined
+    );
+  }
+  return { characteristics: prepared, trend };
+}
+
 /** Ranks the portfolio; ties broken by zGap (lower first), cost (higher first), process name, then id. */
 export function rankPortfolio(
   records: PortfolioRecords,
@@ -241,14 +332,17 @@ export function rankPortfolio(
   options: RankingOptions
 ): ProcessRow[] {
   const weights = options.weights ?? DEFAULT_WEIGHTS;
-  const first = addMonths(options.endPeriod, -(options.windowMonths - 1));
   const trendMonths = options.trendMonths ?? 12;
-  const endMonth = monthOrdinal(options.endPeriod);
-  const firstMonth = endMonth - (options.windowMonths - 1);
-  const trendFirstMonth = endMonth - (trendMonths - 1);
+  const end = monthOrdinal(options.endPeriod);
+  const months = {
+    first: addMonths(options.endPeriod, -(options.windowMonths - 1)),
+    end,
+    firstMonth: end - (options.windowMonths - 1),
+    trendFirstMonth: end - (trendMonths - 1),
+    trendMonths
+  };
   const index = portfolioIndex(records);
-  const monthly = new Float64Array(trendMonths); // product of the month's yields, per trend month
-  const monthlyCount = new Int32Array(trendMonths);
+  const prepared = preparedFor(records, `${options.endPeriod}|${options.windowMonths}|${trendMonths}`);
 
   const rows: ProcessRow[] = [];
   for (const process of records.processes) {
@@ -258,50 +352,11 @@ export function rankPortfolio(
     const profile = profileFor(profiles, process.contextId);
     const shift = shortTermShift(profile);
     const chars = index.characteristics.get(process.id) ?? [];
-    monthly.fill(1);
-    monthlyCount.fill(0);
-    const charRows = chars.map((c) => {
-      const held = index.studies.get(c.id);
-      const list = held?.list ?? [];
-      const months = held?.months ?? new Int32Array(0);
-      const to = firstAtOrAfter(months, endMonth + 1);
-      for (let i = firstAtOrAfter(months, trendFirstMonth); i < to; i += 1) {
-        const y = rememberedQuickYield(list[i]!, c);
-        if (y === undefined) continue;
-        const m = months[i]! - trendFirstMonth;
-        monthly[m]! *= y;
-        monthlyCount[m]! += 1;
-      }
-      // WINDOW_RULE: the window keeps the months under the limits in force in its last month.
-      const from = firstAtOrAfter(months, firstMonth);
-      const windowed = list.slice(from, to);
-      const changes = c.limitChanges?.length ?? 0;
-      const version = changes ? limitVersionOf(c, options.endPeriod) : '';
-      const inWindow = changes ? windowed.filter((s) => limitVersionOf(c, s.period) === version) : windowed;
-      let cacheKey = `${c.id}@${c.rev}|${first}|`;
-      for (const s of inWindow) cacheKey += `${s.id}@${s.rev},`;
-      let cached = options.cache?.get(cacheKey);
-      if (!cached) {
-        const w = windowData(inWindow);
-        let result: WindowFigures | undefined;
-        if (w) {
-          try {
-            result = windowFiguresOf(
-              capabilityOfStudy(
-                { data: w.data, period: options.endPeriod },
-                c,
-                w.sdWithin !== undefined ? { sdWithin: w.sdWithin } : {}
-              )
-            );
-          } catch {
-            result = undefined;
-          }
-        }
-        cached = { result, months: w?.months.length ?? 0 };
-        options.cache?.set(cacheKey, cached);
-      }
-      const row = judgeCharacteristic(c, cached.result, profile, cached.months, options.endPeriod);
-      if (inWindow.length < windowed.length) row.badges.push('limits changed');
+    let windows = prepared.get(process.id);
+    if (!windows) prepared.set(process.id, (windows = prepareProcess(chars, index, options, months)));
+    const charRows = windows.characteristics.map((w) => {
+      const row = judgeCharacteristic(w.characteristic, w.figures, profile, w.months, options.endPeriod);
+      if (w.limitsChanged) row.badges.push('limits changed');
       return row;
     });
     const withData = charRows.filter((r) => r.result);
@@ -345,14 +400,7 @@ export function rankPortfolio(
         row.gainIfMet = Math.max(0, row.costPerYear - costPerYear(row.ppmAtTarget / 1e6, process));
       }
     }
-    for (let m = 0; m < trendMonths; m += 1) {
-      const count = monthlyCount[m]!;
-      row.trend.push(
-        count > 0 && count === chars.length
-          ? normalUpperQuantile(Math.min(1, 1 - monthly[m]!)) + shift
-          : undefined
-      );
-    }
+    for (const z of windows.trend) row.trend.push(z === undefined ? undefined : z + shift);
     const sl = leastSquaresSlope(row.trend);
     if (sl !== undefined) row.trendSlope = sl;
     const notShown = withData.some((r) => r.status !== 'meets, shown') ? 1 : 0;

@@ -21,14 +21,58 @@ export interface SummaryOptions {
  * Marked "summary only": with no values, normality and stability cannot be checked, and with no subgroups there
  * is no within sigma, so Cp/Cpk are not reported (Pp/Ppk are).
  */
-export function analyzeSummary(n: number, mu: number, sd: number, options: SummaryOptions): CapabilityResult {
-  const spec = options.spec;
+/** Refuses a summary no analysis can use (RangeError with what is wrong). */
+export function checkSummary(n: number, mu: number, sd: number, spec: Specification): void {
   checkSpecification(spec);
   if (!(Number.isInteger(n) && n >= 2))
     throw new RangeError(`n must be a whole number of at least 2, got ${n}`);
   if (!Number.isFinite(mu)) throw new RangeError('The mean must be a finite number');
   if (!(Number.isFinite(sd) && sd >= 0))
     throw new RangeError('The standard deviation must be a finite number ≥ 0');
+}
+
+/**
+ * The figures of a summary with a positive sd, without words: indices and normal tails with the overall sigma,
+ * their intervals (chi-square for Pp, Bissell for Ppk, and the fraction bounds derived from both), and the same
+ * with a within sigma when one is known. `analyzeSummary` builds its result from these; the portfolio keeps only
+ * these for each window (domain/window-figures.ts) — one computation, so the two can never disagree.
+ */
+export interface SummaryCore {
+  overall: ReturnType<typeof indices>;
+  tails: ReturnType<typeof normalTailFractions>;
+  pp?: IndexInterval;
+  ppk?: IndexInterval;
+  fraction?: ReturnType<typeof fractionIntervals>;
+  within?: { sd: number; indices: ReturnType<typeof indices>; cp?: IndexInterval; cpk?: IndexInterval };
+}
+
+export function summaryCore(
+  n: number,
+  mu: number,
+  sd: number,
+  spec: Specification,
+  level: number,
+  sdWithin?: number
+): SummaryCore {
+  const overall = indices(mu, sd, spec);
+  const core: SummaryCore = { overall, tails: normalTailFractions(mu, sd, spec) };
+  if (overall.spread !== undefined) core.pp = spreadIndexInterval(overall.spread, n, level);
+  if (overall.k !== undefined && overall.k > 0) {
+    core.ppk = bissellInterval(overall.k, n, level);
+    core.fraction = fractionIntervals(core.ppk, core.pp);
+  }
+  if (sdWithin !== undefined && sdWithin > 0) {
+    const w = indices(mu, sdWithin, spec);
+    core.within = { sd: sdWithin, indices: w };
+    if (w.spread !== undefined) core.within.cp = spreadIndexInterval(w.spread, n, level);
+    if (w.k !== undefined && w.k > 0) core.within.cpk = bissellInterval(w.k, n, level);
+  }
+  return core;
+}
+
+export function analyzeSummary(n: number, mu: number, sd: number, options: SummaryOptions): CapabilityResult {
+  const spec = options.spec;
+  checkSummary(n, mu, sd, spec);
   const level = options.confidence ?? 0.95;
   const assumptions = [
     'normal model',
@@ -59,8 +103,8 @@ export function analyzeSummary(n: number, mu: number, sd: number, options: Summa
     const inside = (spec.lsl === undefined || mu >= spec.lsl) && (spec.usl === undefined || mu <= spec.usl);
     return { ...base, yield: inside ? 1 : 0, zLevel: inside ? Infinity : -Infinity };
   }
-  const overall = indices(mu, sd, spec);
-  const tails = normalTailFractions(mu, sd, spec);
+  const core = summaryCore(n, mu, sd, spec, level, options.sdWithin);
+  const { overall, tails } = core;
   const result: CapabilityResult = {
     ...base,
     yield: 1 - tails.total,
@@ -78,36 +122,30 @@ export function analyzeSummary(n: number, mu: number, sd: number, options: Summa
   if (tails.zMin !== undefined) result.zMin = tails.zMin;
   if (tails.zLower !== undefined) result.zLower = tails.zLower;
   if (tails.zUpper !== undefined) result.zUpper = tails.zUpper;
-  if (result.pp !== undefined) result.intervals.pp = spreadIndexInterval(result.pp, n, level);
+  if (core.pp) result.intervals.pp = core.pp;
   if (result.cpm !== undefined && spec.target !== undefined)
     result.intervals.cpm = cpmInterval(result.cpm, n, mu, sd, spec.target, level);
-  if (result.ppk !== undefined && result.ppk > 0) {
-    result.intervals.ppk = bissellInterval(result.ppk, n, level);
-    Object.assign(
-      result.intervals,
-      fractionIntervals(
-        result.intervals.ppk as IndexInterval,
-        result.intervals.pp as IndexInterval | undefined
-      )
-    );
+  if (core.ppk && core.fraction) {
+    result.intervals.ppk = core.ppk;
+    Object.assign(result.intervals, core.fraction);
   }
   if (n < 30)
     warnings.add(
       'small-sample',
       `Only ${n} values behind the summary: intervals are wide; 30 or more are advised`
     );
-  if (options.sdWithin !== undefined && options.sdWithin > 0) {
-    const within = indices(mu, options.sdWithin, spec);
-    result.sdWithin = options.sdWithin;
+  if (core.within) {
+    const within = core.within.indices;
+    result.sdWithin = core.within.sd;
     if (within.spread !== undefined) {
       result.cp = within.spread;
-      result.intervals.cp = spreadIndexInterval(within.spread, n, level);
+      if (core.within.cp) result.intervals.cp = core.within.cp;
     }
     if (within.lower !== undefined) result.cpl = within.lower;
     if (within.upper !== undefined) result.cpu = within.upper;
     if (within.k !== undefined) {
       result.cpk = within.k;
-      if (within.k > 0) result.intervals.cpk = bissellInterval(within.k, n, level);
+      if (core.within.cpk) result.intervals.cpk = core.within.cpk;
     }
     assumptions[2] = `overall sigma from the merged summaries; ${options.sdWithinLabel ?? 'within sigma given'}`;
   }
