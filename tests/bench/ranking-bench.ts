@@ -7,6 +7,7 @@
  * a file), and strings built by template literals are slower to compare than parsed ones, which would flatter
  * or blame the code for the generator's doing.
  */
+import { WindowFiguresCache } from '../../src/lib/domain/window-figures-cache';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import type { Characteristic } from '../../src/lib/domain/characteristic';
@@ -119,7 +120,7 @@ export function measureScale(size: number): BenchRow[] {
       timed(() => [0, 3, 6, 9, 12, 15, 18, 21, 24, 27].map((q) => typedRanking(typed, end - q, 3)))
     )
   );
-  const cache: FiguresCache = new Map();
+  const cache: FiguresCache = new WindowFiguresCache();
   const options = { endPeriod: addMonths(BENCH_FIRST_PERIOD, end), windowMonths: 3, cache };
   const first = timed(() => rankPortfolio(records, BUILT_IN_PROFILES, options));
   const stricter = BUILT_IN_PROFILES.map((p) => ({
@@ -131,7 +132,7 @@ export function measureScale(size: number): BenchRow[] {
       timed(() => rankPortfolio(records, i % 2 ? BUILT_IN_PROFILES : stricter, options))
     )
   );
-  const reviewCache: FiguresCache = new Map();
+  const reviewCache: FiguresCache = new WindowFiguresCache();
   const quarter = '2026-Q4';
   const reviewFirst = timed(() =>
     buildQuarterReview(records, BUILT_IN_PROFILES, { quarter, cache: reviewCache })

@@ -5,6 +5,7 @@
  * records, studies arriving in any order (as after a merge) — the ranking and the review's quarter headlines are
  * compared with a plain computation that scans every record for every characteristic, to 1e-9.
  */
+import { WindowFiguresCache } from '../../src/lib/domain/window-figures-cache';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { Characteristic } from '../../src/lib/domain/characteristic';
@@ -235,7 +236,7 @@ describe('the indexed, cached ranking gives the figures of a plain record-by-rec
         (records, end, window) => {
           const endPeriod = MONTHS[end]!;
           const plain = plainRanking(records, endPeriod, window, 6);
-          const cache: FiguresCache = new Map();
+          const cache: FiguresCache = new WindowFiguresCache();
           for (const pass of [0, 1]) {
             const rows = rankPortfolio(records, BUILT_IN_PROFILES, {
               endPeriod,

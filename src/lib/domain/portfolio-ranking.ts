@@ -292,9 +292,7 @@ function prepareProcess(
     const changes = c.limitChanges?.length ?? 0;
     const version = changes ? limitVersionOf(c, options.endPeriod) : '';
     const inWindow = changes ? windowed.filter((s) => limitVersionOf(c, s.period) === version) : windowed;
-    let cacheKey = `${c.id}@${c.rev}|${months.first}|`;
-    for (const s of inWindow) cacheKey += `${s.id}@${s.rev},`;
-    let cached = options.cache?.get(cacheKey);
+    let cached = options.cache?.get(c, months.first, inWindow);
     if (!cached) {
       const w = windowData(inWindow);
       let result: WindowFigures | undefined;
@@ -306,7 +304,7 @@ function prepareProcess(
         }
       }
       cached = { result, months: w?.months.length ?? 0 };
-      options.cache?.set(cacheKey, cached);
+      options.cache?.set(c, months.first, inWindow, cached);
     }
     return {
       characteristic: c,

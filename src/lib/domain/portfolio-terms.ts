@@ -1,4 +1,5 @@
 import type { WindowFigures } from './window-figures';
+import type { WindowFiguresCache } from './window-figures-cache';
 import type { Characteristic, RiskClass } from './characteristic';
 import type { ContextProfile } from './context-profile';
 import type { ImprovementProject } from './improvement-project';
@@ -130,12 +131,8 @@ export interface RankingOptions {
   cache?: FiguresCache;
 }
 
-/**
- * Window figures computed once per characteristic and kept while its studies do not change: re-judging after a
- * target or weight change then costs only the comparison and the sort. Keyed by characteristic, window and the
- * id@rev of every study in it.
- */
-export type FiguresCache = Map<string, { result: WindowFigures | undefined; months: number }>;
+/** The cache of window figures a ranking may be given (window-figures-cache.ts). */
+export type FiguresCache = WindowFiguresCache;
 
 export interface PortfolioRecords {
   sites: readonly Site[];

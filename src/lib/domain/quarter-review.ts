@@ -1,3 +1,4 @@
+import { WindowFiguresCache } from './window-figures-cache';
 import { median } from '../stats/quantiles';
 import { zChangeTest, type ZEstimate } from '../stats/z-change-test';
 import { canonicalJson } from './canonical-json';
@@ -173,7 +174,7 @@ export function buildQuarterReview(
   options: ReviewOptions
 ): ReviewFigures {
   const records = scoped(allRecords, options.siteIds);
-  const cache: FiguresCache = options.cache ?? new Map();
+  const cache: FiguresCache = options.cache ?? new WindowFiguresCache();
   const rank = (quarter: string) =>
     rankPortfolio(records, profiles, {
       endPeriod: periodsOfQuarter(quarter)[2]!,

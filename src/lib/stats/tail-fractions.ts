@@ -35,14 +35,20 @@ function assemble(
   zUpper: number | undefined
 ): TailFractions {
   const total = Math.min(1, (below ?? 0) + (above ?? 0));
-  const zs = [zLower, zUpper].filter((v): v is number => v !== undefined);
-  return {
-    ...(below !== undefined ? { below, zLower } : {}),
-    ...(above !== undefined ? { above, zUpper } : {}),
-    total,
-    ...(zs.length ? { zMin: Math.min(...zs) } : {}),
-    zLevel: normalUpperQuantile(total)
-  };
+  // Built field by field (no spread of temporary objects): this runs for every window of a portfolio.
+  const out: TailFractions = { total, zLevel: 0 };
+  if (below !== undefined) {
+    out.below = below;
+    out.zLower = zLower;
+  }
+  if (above !== undefined) {
+    out.above = above;
+    out.zUpper = zUpper;
+  }
+  const zMin = zLower !== undefined && zUpper !== undefined ? Math.min(zLower, zUpper) : (zLower ?? zUpper);
+  if (zMin !== undefined) out.zMin = zMin;
+  out.zLevel = normalUpperQuantile(total);
+  return out;
 }
 
 /** Fractions from any model given its CDF and survival function at the limits (non-normal models). */

@@ -5,6 +5,7 @@
  * requests, and posts back only the ranked rows. A change of window, order, weight or target then costs a
  * re-judgement and a sort here, and nothing on the page's thread but receiving the rows.
  */
+import { WindowFiguresCache } from '../domain/window-figures-cache';
 import type { ContextProfile } from '../domain/context-profile';
 import { rankPortfolio } from '../domain/portfolio-ranking';
 import type {
@@ -44,7 +45,7 @@ export type PortfolioRankingMessage =
 const CACHE_LIMIT = 500_000;
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
-const cache: FiguresCache = new Map();
+const cache: FiguresCache = new WindowFiguresCache();
 let records: PortfolioRecords | undefined;
 
 scope.onmessage = async (event: MessageEvent<PortfolioRankingRequest>) => {

@@ -6,6 +6,7 @@
  * page and keeps the window figures of earlier requests, so a note, a site filter or another quarter re-judges
  * from what it already knows.
  */
+import { WindowFiguresCache } from '../domain/window-figures-cache';
 import type { ContextProfile } from '../domain/context-profile';
 import { quarterOf } from '../domain/period';
 import type { FiguresCache } from '../domain/portfolio-terms';
@@ -32,7 +33,7 @@ export type QuarterReviewMessage =
 const CACHE_LIMIT = 500_000;
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
-const cache: FiguresCache = new Map();
+const cache: FiguresCache = new WindowFiguresCache();
 
 scope.onmessage = async (event: MessageEvent<QuarterReviewRequest>) => {
   const { id, databaseName, quarter, siteIds, profiles, reporting } = event.data;

@@ -1,0 +1,84 @@
+import type { Characteristic } from './characteristic';
+import type { Study } from './study';
+import type { WindowFigures } from './window-figures';
+
+/** Windows kept per characteristic: ten review quarters and a few portfolio windows. */
+const PER_CHARACTERISTIC = 24;
+
+interface Entry {
+  rev: number;
+  first: string;
+  ids: string[];
+  revs: number[];
+  value: CachedWindow;
+}
+
+export interface CachedWindow {
+  result: WindowFigures | undefined;
+  months: number;
+}
+
+/**
+ * Window figures computed once per characteristic and kept while its studies do not change: re-judging after a
+ * target or weight change, or opening another quarter, then costs only the comparison and the sort. An entry
+ * is found by the characteristic's id and revision, the window's first month, and the id and revision of every
+ * study in the window — compared one by one, not joined into a key string per lookup (at company size those
+ * strings were a large share of the work and of the garbage).
+ */
+export class WindowFiguresCache {
+  #byCharacteristic = new Map<string, Entry[]>();
+  #size = 0;
+
+  get size(): number {
+    return this.#size;
+  }
+
+  clear(): void {
+    this.#byCharacteristic.clear();
+    this.#size = 0;
+  }
+
+  get(
+    c: Pick<Characteristic, 'id' | 'rev'>,
+    first: string,
+    studies: readonly Study[]
+  ): CachedWindow | undefined {
+    const entries = this.#byCharacteristic.get(c.id);
+    if (!entries) return undefined;
+    for (const e of entries) {
+      if (e.rev !== c.rev || e.first !== first || e.ids.length !== studies.length) continue;
+      let same = true;
+      for (let i = 0; i < studies.length && same; i += 1)
+        same = e.ids[i] === studies[i]!.id && e.revs[i] === studies[i]!.rev;
+      if (same) return e.value;
+    }
+    return undefined;
+  }
+
+  set(
+    c: Pick<Characteristic, 'id' | 'rev'>,
+    first: string,
+    studies: readonly Study[],
+    value: CachedWindow
+  ): void {
+    const entry: Entry = {
+      rev: c.rev,
+      first,
+      ids: studies.map((s) => s.id),
+      revs: studies.map((s) => s.rev),
+      value
+    };
+    const entries = this.#byCharacteristic.get(c.id);
+    if (!entries) {
+      this.#byCharacteristic.set(c.id, [entry]);
+      this.#size += 1;
+    } else if (entries.length < PER_CHARACTERISTIC) {
+      entries.push(entry);
+      this.#size += 1;
+    } else {
+      // Windows of edited studies pile up otherwise: the oldest entry of this characteristic goes.
+      entries.shift();
+      entries.push(entry);
+    }
+  }
+}
