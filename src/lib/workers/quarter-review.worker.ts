@@ -8,8 +8,7 @@
  */
 import { WindowFiguresCache } from '../domain/window-figures-cache';
 import type { ContextProfile } from '../domain/context-profile';
-import { quarterOf } from '../domain/period';
-import type { FiguresCache } from '../domain/portfolio-terms';
+import type { FiguresCache, PortfolioRecords } from '../domain/portfolio-terms';
 import { buildQuarterReview } from '../domain/quarter-review';
 import type { ReportingCurrency } from '../domain/reporting-currency';
 import type { ReviewFigures } from '../domain/review-figures';
@@ -19,6 +18,8 @@ import { readPortfolioRecords } from '../storage/portfolio-reader';
 export interface QuarterReviewRequest {
   id: number;
   databaseName: string;
+  /** Read the records again: the page saw its tables change since the last request. */
+  reload: boolean;
   quarter: string;
   siteIds: string[];
   profiles: readonly ContextProfile[];
@@ -26,7 +27,7 @@ export interface QuarterReviewRequest {
 }
 
 export type QuarterReviewMessage =
-  | { id: number; type: 'done'; figures: ReviewFigures; sites: Site[]; quarters: string[]; ms: number }
+  | { id: number; type: 'done'; figures: ReviewFigures; sites: Site[]; ms: number }
   | { id: number; type: 'error'; message: string };
 
 /** Entries beyond this are dropped all at once: old windows of edited studies would otherwise pile up. */
@@ -34,12 +35,13 @@ const CACHE_LIMIT = 500_000;
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 const cache: FiguresCache = new WindowFiguresCache();
+let records: PortfolioRecords | undefined;
 
 scope.onmessage = async (event: MessageEvent<QuarterReviewRequest>) => {
-  const { id, databaseName, quarter, siteIds, profiles, reporting } = event.data;
+  const { id, databaseName, reload, quarter, siteIds, profiles, reporting } = event.data;
   const started = performance.now();
   try {
-    const records = await readPortfolioRecords(databaseName);
+    if (reload || !records) records = await readPortfolioRecords(databaseName);
     if (cache.size > CACHE_LIMIT) cache.clear();
     const figures = buildQuarterReview(records, profiles, {
       quarter,
@@ -47,14 +49,11 @@ scope.onmessage = async (event: MessageEvent<QuarterReviewRequest>) => {
       cache,
       ...(reporting ? { reporting } : {})
     });
-    const quarters = new Set<string>();
-    for (const s of records.studies) quarters.add(quarterOf(s.period));
     scope.postMessage({
       id,
       type: 'done',
       figures,
       sites: [...records.sites].sort((a, b) => a.name.localeCompare(b.name)),
-      quarters: [...quarters].sort().reverse(),
       ms: performance.now() - started
     } satisfies QuarterReviewMessage);
   } catch (error) {
