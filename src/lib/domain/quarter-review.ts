@@ -187,12 +187,20 @@ export function buildQuarterReview(
   const previousQuarter = shiftQuarter(quarter, -1);
   const yearAgoQuarter = shiftQuarter(quarter, -4);
   const trendQuarters = options.trendQuarters ?? 8;
+  // Rows are kept for the quarters the review shows in detail; of the trend's other quarters only the share is
+  // kept (at company size ten quarters of rows were hundreds of megabytes).
   const ranked = new Map<string, ProcessRow[]>();
+  const trend: ReviewFigures['shareTrend'] = [];
   for (let i = trendQuarters - 1; i >= 0; i--) {
     const q = shiftQuarter(quarter, -i);
-    ranked.set(q, rank(q));
+    const rows = rank(q);
+    const h = headlineOf(q, rows);
+    trend.push({ quarter: q, reviewed: h.reviewed, share: h.share, shareShown: h.shareShown });
+    if (q === quarter || q === previousQuarter || q === yearAgoQuarter) ranked.set(q, rows);
   }
   if (!ranked.has(yearAgoQuarter)) ranked.set(yearAgoQuarter, rank(yearAgoQuarter));
+  if (!ranked.has(previousQuarter)) ranked.set(previousQuarter, rank(previousQuarter));
+  if (!ranked.has(quarter)) ranked.set(quarter, rank(quarter));
   const current = ranked.get(quarter)!;
   const previous = ranked.get(previousQuarter)!;
   const previousById = new Map(previous.map((r) => [r.process.id, r]));
@@ -336,13 +344,7 @@ export function buildQuarterReview(
     decliners: decliners.slice(0, 10),
     movedWithinNoise: movers.length - beyond.length,
     sites,
-    shareTrend: [...ranked.entries()]
-      .filter(([q]) => q >= shiftQuarter(quarter, -(trendQuarters - 1)) && q <= quarter)
-      .sort(([a], [b]) => a.localeCompare(b))
-      .map(([q, rows]) => {
-        const h = headlineOf(q, rows);
-        return { quarter: q, reviewed: h.reviewed, share: h.share, shareShown: h.shareShown };
-      }),
+    shareTrend: trend,
     pipeline,
     control,
     assumptions,
