@@ -4,6 +4,8 @@ import type { WindowFigures } from './window-figures';
 
 /** Windows kept per characteristic: ten review quarters and a few portfolio windows. */
 const PER_CHARACTERISTIC = 24;
+/** Entries in all; beyond it the cache starts again (characteristics deleted or reloaded under new ids). */
+const TOTAL = 500_000;
 
 interface Entry {
   rev: number;
@@ -68,6 +70,7 @@ export class WindowFiguresCache {
       revs: studies.map((s) => s.rev),
       value
     };
+    if (this.#size >= TOTAL) this.clear();
     const entries = this.#byCharacteristic.get(c.id);
     if (!entries) {
       this.#byCharacteristic.set(c.id, [entry]);

@@ -41,9 +41,6 @@ export type PortfolioRankingMessage =
     }
   | { id: number; type: 'error'; message: string };
 
-/** Entries beyond this are dropped all at once: old windows of edited studies would otherwise pile up. */
-const CACHE_LIMIT = 500_000;
-
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 const cache: FiguresCache = new WindowFiguresCache();
 let records: PortfolioRecords | undefined;
@@ -53,7 +50,6 @@ scope.onmessage = async (event: MessageEvent<PortfolioRankingRequest>) => {
   const started = performance.now();
   try {
     if (reload || !records) records = await readPortfolioRecords(databaseName);
-    if (cache.size > CACHE_LIMIT) cache.clear();
     const rows = rankPortfolio(records, profiles, { endPeriod, windowMonths, order, weights, cache });
     scope.postMessage({
       id,

@@ -30,9 +30,6 @@ export type QuarterReviewMessage =
   | { id: number; type: 'done'; figures: ReviewFigures; sites: Site[]; ms: number }
   | { id: number; type: 'error'; message: string };
 
-/** Entries beyond this are dropped all at once: old windows of edited studies would otherwise pile up. */
-const CACHE_LIMIT = 500_000;
-
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 const cache: FiguresCache = new WindowFiguresCache();
 let records: PortfolioRecords | undefined;
@@ -42,7 +39,6 @@ scope.onmessage = async (event: MessageEvent<QuarterReviewRequest>) => {
   const started = performance.now();
   try {
     if (reload || !records) records = await readPortfolioRecords(databaseName);
-    if (cache.size > CACHE_LIMIT) cache.clear();
     const figures = buildQuarterReview(records, profiles, {
       quarter,
       siteIds,
