@@ -1,6 +1,6 @@
 /**
  * Exchange file of 100 000 studies (30 raw values each, as a year of a large portfolio): writing it (canonical
- * JSON + SHA-256, then gzip), reading it back with every check (hash, structure, schema, duplicates, markup), and
+ * JSON + SHA-256, then gzip), reading it back with every check (hash, structure, schema, duplicate keys and ids, bounds), and
  * merging it into an equal record set, each beside a bare JSON.stringify / JSON.parse of the same records in the
  * same run. Peak heap is sampled before and after each step (a lower bound of the true peak). Prints only.
  */
@@ -115,7 +115,7 @@ export async function runExchangeFileBench(): Promise<BenchRow[]> {
   });
   rows.push({ name: `  … written gzip-compressed, ${mb(packed.byteLength)}`, ms: gzipMs });
   rows.push({
-    name: '  … read back with every check (hash, structure, zod schema, duplicates, markup)',
+    name: '  … read back with every check (hash, structure, zod schema, duplicate keys and ids, bounds)',
     ms: readMs,
     baselineName: 'JSON.parse of the same text',
     baselineMs: bareRead,
