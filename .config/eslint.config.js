@@ -7,7 +7,7 @@ import svelteConfig from '../svelte.config.js';
 
 /**
  * Layer rules: dependencies point inwards (ui → exchange → storage → domain → stats; workers use domain and
- * stats, and read through storage/portfolio-reader only; the command line uses stats, domain and exchange).
+ * stats, and reach storage only through storage/portfolio-reader (records read, read model kept); the command line uses stats, domain and exchange).
  * Each layer lists what it must not import, as
  * gitignore-style patterns that match at any folder depth and through the `$lib` alias (the storage
  * pattern catches `../../storage/x` and `$lib/storage/x` alike). A violation is an error. tests/unit/layer-rules.spec.ts
@@ -152,7 +152,7 @@ export default ts.config(
       'dexie',
       ...FRAMEWORKS
     ],
-    'workers compute on stats, domain and exchange, and read the portfolio only through storage/portfolio-reader; they never write to IndexedDB (the page commits)'
+    'workers compute on stats, domain and exchange, and reach IndexedDB only through storage/portfolio-reader, which reads records and keeps the device-local read model derived from them; they never write a record (the page commits)'
   ),
   layer(
     ['src/lib/ui/**', 'src/routes/**'],

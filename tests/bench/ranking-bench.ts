@@ -19,15 +19,30 @@ import {
   type FiguresCache,
   type PortfolioRecords
 } from '../../src/lib/domain/portfolio-ranking';
+import { MonthlyStatistics } from '../../src/lib/domain/monthly-statistics';
 import type { Process } from '../../src/lib/domain/process';
 import { buildQuarterReview } from '../../src/lib/domain/quarter-review';
 import type { Study } from '../../src/lib/domain/study';
 import type { BenchRow } from './engine-bench';
-import { typedPortfolio, typedRanking } from './typed-array-baseline';
+import { snapshotOf, storedForm } from '../../src/lib/storage/portfolio-reader';
+import {
+  describeCharacteristics,
+  fillTypedPortfolio,
+  typedPortfolioOf,
+  typedRanking
+} from './typed-array-baseline';
 
 export const BENCH_FIRST_PERIOD = '2024-01';
 
-export function generatePortfolio(processCount: number, months: number): PortfolioRecords {
+/**
+ * A generated portfolio. With `sink`, each process's studies go to it (as they would arrive from storage a page
+ * at a time) and are not kept: the records then hold no study, as in the app's workers.
+ */
+export function generatePortfolio(
+  processCount: number,
+  months: number,
+  sink?: (studies: Study[]) => void
+): PortfolioRecords {
   let s = 12345;
   const u = () => (s = (s * 48271) % 2147483647) / 2147483647;
   const meta = (id: string) => ({ id, createdAt: '', updatedAt: '', rev: 1, deviceId: 'bench' });
@@ -83,7 +98,9 @@ export function generatePortfolio(processCount: number, months: number): Portfol
       });
     }
     // Through JSON one process at a time: shaped as received, without one giant string at the peak.
-    for (const study of JSON.parse(JSON.stringify(own)) as Study[]) studies.push(study);
+    const received = JSON.parse(JSON.stringify(own)) as Study[];
+    if (sink) sink(received);
+    else for (const study of received) studies.push(study);
     // The generator's garbage is not the app's: collect it as it goes (when the process allows), so that the
     // peak memory printed is that of the records and the ranking, not of how the bench made them.
     if (p % 500 === 499) (globalThis as { gc?: () => void }).gc?.();
@@ -113,8 +130,27 @@ const fmt = (n: number) => n.toLocaleString('en-GB').replace(/,/g, ' ');
 /** Every row of one size, measured in this process. */
 export function measureScale(size: number): BenchRow[] {
   const months = 36;
-  const records = generatePortfolio(size, months);
-  const typed = typedPortfolio(records, months, BENCH_FIRST_PERIOD);
+  // The studies arrive a process at a time and go into the read model and the baseline's arrays; no study
+  // object outlives its page, as in the app's workers (storage/portfolio-reader.ts).
+  const statistics = new MonthlyStatistics();
+  const typed = typedPortfolioOf(
+    Array.from({ length: size }, (_, p) => `c${p}`),
+    months,
+    BENCH_FIRST_PERIOD
+  );
+  let buildMs = 0;
+  const bare = generatePortfolio(size, months, (page) => {
+    fillTypedPortfolio(typed, page);
+    buildMs += timed(() => statistics.appendNew(page));
+  });
+  describeCharacteristics(typed, bare.characteristics);
+  (globalThis as { gc?: () => void }).gc?.();
+  // As the worker restores it: the stored form cloned (what IndexedDB does) and turned back into a model.
+  const stored = storedForm(statistics.snapshot(), 0);
+  const restoreMs = timed(() =>
+    MonthlyStatistics.fromSnapshot(snapshotOf(structuredClone(stored)), new Map())
+  );
+  const records: PortfolioRecords = { ...bare, studies: [], statistics };
   const end = months - 1;
   const baseline = median([0, 1, 2, 3, 4].map(() => timed(() => typedRanking(typed, end, 3))));
   // The review ranks ten quarters (eight for the trend, the year-ago one, and the one before the projects).
@@ -147,7 +183,9 @@ export function measureScale(size: number): BenchRow[] {
   const base = { size, baselineName: 'typed-array loop, one ranking', baselineMs: baseline };
   const reviewBase = { size, baselineName: 'typed-array loop, ten rankings', baselineMs: reviewBaseline };
   return [
-    { name: `ranking ${label}, first computation`, ms: first, ...base, target: '≤ 10×' },
+    { name: `read model ${label}: built from every study, a page at a time`, ms: buildMs, size },
+    { name: `read model ${label}: restored from its stored form`, ms: restoreMs, size },
+    { name: `ranking ${label}, first computation from the read model`, ms: first, ...base, target: '≤ 10×' },
     { name: `ranking ${label}, recompute after a target change`, ms: again, ...base, target: '≤ 3×' },
     { name: `quarterly review ${label}, first computation`, ms: reviewFirst, ...reviewBase, target: '≤ 10×' },
     { name: `quarterly review ${label}, again (window figures cached)`, ms: reviewAgain, ...reviewBase }

@@ -7,12 +7,14 @@
  */
 import { normalCdf, normalSf, normalUpperQuantile } from '../../src/lib/stats/normal-distribution';
 import type { PortfolioRecords } from '../../src/lib/domain/portfolio-terms';
+import type { Study } from '../../src/lib/domain/study';
 import { monthOrdinal } from '../../src/lib/domain/portfolio-index';
 
 export interface TypedPortfolio {
   chars: number;
   months: number;
   firstMonth: number;
+  index: Map<string, number>;
   counted: Uint8Array;
   lsl: Float64Array;
   usl: Float64Array;
@@ -24,18 +26,19 @@ export interface TypedPortfolio {
   defectives: Float64Array;
 }
 
-export function typedPortfolio(
-  records: PortfolioRecords,
+/** Empty arrays for these characteristics (ids in row order), months from `firstPeriod`. */
+export function typedPortfolioOf(
+  ids: readonly string[],
   months: number,
   firstPeriod: string
 ): TypedPortfolio {
-  const chars = records.characteristics.length;
-  const index = new Map(records.characteristics.map((c, i) => [c.id, i]));
+  const chars = ids.length;
   const size = chars * months;
-  const t: TypedPortfolio = {
+  return {
     chars,
     months,
     firstMonth: monthOrdinal(firstPeriod),
+    index: new Map(ids.map((id, i) => [id, i])),
     counted: new Uint8Array(chars),
     lsl: new Float64Array(chars).fill(NaN),
     usl: new Float64Array(chars).fill(NaN),
@@ -45,15 +48,28 @@ export function typedPortfolio(
     units: new Float64Array(size),
     defectives: new Float64Array(size)
   };
-  records.characteristics.forEach((c, i) => {
+}
+
+/** Data kind and limits of each characteristic. */
+export function describeCharacteristics(
+  t: TypedPortfolio,
+  characteristics: PortfolioRecords['characteristics']
+): void {
+  for (const c of characteristics) {
+    const i = t.index.get(c.id);
+    if (i === undefined) continue;
     t.counted[i] = c.dataKind === 'counted' ? 1 : 0;
     if (c.lsl !== undefined) t.lsl[i] = c.lsl;
     if (c.usl !== undefined) t.usl[i] = c.usl;
-  });
-  for (const s of records.studies) {
-    const c = index.get(s.characteristicId);
+  }
+}
+
+/** Writes studies into their cells (the generator hands them over a process at a time). */
+export function fillTypedPortfolio(t: TypedPortfolio, studies: readonly Study[]): void {
+  for (const s of studies) {
+    const c = t.index.get(s.characteristicId);
     if (c === undefined) continue;
-    const k = c * months + (monthOrdinal(s.period) - t.firstMonth);
+    const k = c * t.months + (monthOrdinal(s.period) - t.firstMonth);
     const d = s.data;
     if (d.kind === 'summary') {
       t.n[k] = d.n;
@@ -64,7 +80,6 @@ export function typedPortfolio(
       t.defectives[k] = d.defectives;
     }
   }
-  return t;
 }
 
 /** One ranking: window of `window` months ending at month offset `end`; returns the order of characteristics. */

@@ -97,9 +97,9 @@ describe('layer rules hold at any depth and through $lib', () => {
       "import type { CapstanStorage } from '../storage/storage';"
     ],
     [
-      'worker → the read-only portfolio reader',
+      'worker → the portfolio reader',
       'src/lib/workers/probe.worker.ts',
-      "import { readPortfolioRecords } from '../storage/portfolio-reader';"
+      "import { readPortfolio } from '../storage/portfolio-reader';"
     ],
     [
       'command line → exchange',

@@ -20,6 +20,7 @@ import {
   type PortfolioRecords,
   type ProcessRow
 } from '../../src/lib/domain/portfolio-ranking';
+import { MonthlyStatistics } from '../../src/lib/domain/monthly-statistics';
 import type { Process } from '../../src/lib/domain/process';
 import { buildQuarterReview } from '../../src/lib/domain/quarter-review';
 import type { RecordMeta } from '../../src/lib/domain/record-meta';
@@ -221,6 +222,35 @@ const portfolioArb = fc
     return { sites, processes: ps, characteristics: cs, studies, projects: [] };
   });
 
+/**
+ * A read model that reached `studies` the way a device's does: earlier versions first (another month, other
+ * figures, some deleted — as edits and merges bring them), then the final ones, applied in batches of random
+ * size; a rebuild where the model asks for one, as its owner would.
+ */
+function modelThroughHistory(studies: readonly Study[], seed: number): MonthlyStatistics {
+  let s = seed >>> 0 || 1;
+  const rnd = () => (s = (s * 1103515245 + 12345) >>> 0) / 2 ** 32;
+  const history: Study[] = [];
+  for (const study of studies)
+    if (rnd() < 0.5)
+      history.push({
+        ...study,
+        period: MONTHS[Math.floor(rnd() * MONTHS.length)]!,
+        data: { kind: 'summary', n: 5, mean: 10 + rnd(), sd: 0.5 + rnd() },
+        ...(rnd() < 0.2 ? { deletedAt: '2025-01-01T00:00:00Z' } : {})
+      });
+  history.push(...studies);
+  const stored = new Map<string, Study>();
+  let model = new MonthlyStatistics();
+  for (let i = 0; i < history.length;) {
+    const batch = history.slice(i, (i += 1 + Math.floor(rnd() * 5)));
+    for (const study of batch) stored.set(study.id, study);
+    model.putAll(batch);
+    if (model.needsRebuild) model = MonthlyStatistics.fromStudies([...stored.values()]);
+  }
+  return model;
+}
+
 function close(a: number | undefined, b: number | undefined): void {
   if (a === undefined || b === undefined || !Number.isFinite(a) || !Number.isFinite(b)) expect(a).toBe(b);
   else expect(Math.abs(a - b)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(b)));
@@ -258,6 +288,32 @@ describe('the indexed, cached ranking gives the figures of a plain record-by-rec
         }
       ),
       { numRuns: 150, seed: 20261202 }
+    );
+  });
+
+  it('holds with a read model updated in place through a history of earlier versions, moves and deletions', () => {
+    fc.assert(
+      fc.property(portfolioArb, fc.integer(), fc.integer({ min: 2, max: 14 }), (records, seed, end) => {
+        const statistics = modelThroughHistory(records.studies, seed);
+        const endPeriod = MONTHS[end]!;
+        const plain = plainRanking(records, endPeriod, 3, 6);
+        const rows = rankPortfolio({ ...records, statistics }, BUILT_IN_PROFILES, {
+          endPeriod,
+          windowMonths: 3,
+          trendMonths: 6,
+          cache: new WindowFiguresCache()
+        });
+        expect(rows.length).toBe(plain.size);
+        for (const row of rows) {
+          const p = plain.get(row.process.id)!;
+          expect(row.status).toBe(p.status);
+          close(row.yield, p.yield);
+          close(row.zLevel, p.zLevel);
+          close(row.costPerYear, p.costPerYear);
+          row.trend.forEach((z, i) => close(z, p.trendPlain[i]));
+        }
+      }),
+      { numRuns: 150, seed: 20261204 }
     );
   });
 

@@ -5,11 +5,12 @@ import { windowFiguresOfStudy, type WindowFigures } from './window-figures';
 import type { Characteristic, RiskClass } from './characteristic';
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
 import { addMonths } from './period';
-import { firstAtOrAfter, monthOrdinal, portfolioIndex, type PortfolioIndex } from './portfolio-index';
+import { monthOrdinal, portfolioIndex } from './portfolio-index';
 import type { Process } from './process';
-import type { Study } from './study';
-import { limitsFor, limitVersionOf } from './specification-history';
-import { windowData } from './window-study';
+import { changeInForce, limitsFor, type Limits } from './specification-history';
+import { CELL, periodOfOrdinal, statisticsOf, type MonthlyStatistics } from './monthly-statistics';
+import type { Study, StudyData } from './study';
+import { poolDefectMonths, poolDefectiveMonths, poolMeasuredMonths, windowData } from './window-study';
 
 /**
  * The portfolio: every process judged against the level its industry context requires, on one comparable
@@ -45,23 +46,31 @@ export * from './portfolio-terms';
  */
 export function quickYield(study: Study, c: Characteristic): number | undefined {
   const d = study.data;
-  if (d.kind === 'defectives') return 1 - d.defectives / d.units;
-  if (d.kind === 'defects') return Math.exp(-d.defects / d.units);
-  let m: number;
-  let sd: number;
-  if (d.kind === 'summary') ({ mean: m, sd } = d);
-  else {
-    if (d.values.length < 2) return undefined;
-    ({ mean: m, sd } = summariseMoments(d.values));
-  }
+  if (d.kind === 'defectives' || d.kind === 'defects')
+    return countedYield(d.kind, d.units, d.kind === 'defects' ? d.defects : d.defectives);
+  if (d.kind === 'summary') return normalYield(d.mean, d.sd, limitsFor(c, study.period));
+  if (d.values.length < 2) return undefined;
+  const { mean, sd } = summariseMoments(d.values);
+  return normalYield(mean, sd, limitsFor(c, study.period));
+}
+
+/** Counted yield per unit: 1 − defectives/units, or e^(−DPU) (units free of defects, Poisson). */
+export function countedYield(kind: 'defectives' | 'defects', units: number, count: number): number {
+  return kind === 'defectives' ? 1 - count / units : Math.exp(-count / units);
+}
+
+/** Normal-model yield inside the limits; undefined without spread. */
+export function normalYield(mean: number, sd: number, limits: Limits): number | undefined {
   if (!(sd > 0)) return undefined;
-  const { lsl, usl } = limitsFor(c, study.period);
-  const below = lsl !== undefined ? normalCdf((lsl - m) / sd) : 0;
-  const above = usl !== undefined ? normalSf((usl - m) / sd) : 0;
+  const below = limits.lsl !== undefined ? normalCdf((limits.lsl - mean) / sd) : 0;
+  const above = limits.usl !== undefined ? normalSf((limits.usl - mean) / sd) : 0;
   return 1 - below - above;
 }
 
 const RISK_WEIGHT: Record<RiskClass, number> = { standard: 0, key: 1, safety: 2 };
+
+/** The z of each ppm requirement met so far (a normal quantile, once per characteristic per ranking otherwise). */
+const zOfPpmLevel = new Map<number, number>();
 
 /** Required z (as reported) for a profile and risk class: the one definition of the required level. */
 export function requiredZ(profile: ContextProfile, risk: RiskClass): number {
@@ -72,19 +81,24 @@ export function requiredZ(profile: ContextProfile, risk: RiskClass): number {
       return 3 * level + shift;
     case 'zLevel':
       return level;
-    case 'ppm':
-      return normalUpperQuantile(Math.min(1, level / 1e6)) + shift;
+    case 'ppm': {
+      let z = zOfPpmLevel.get(level);
+      if (z === undefined) {
+        if (zOfPpmLevel.size > 1000) zOfPpmLevel.clear();
+        zOfPpmLevel.set(level, (z = normalUpperQuantile(Math.min(1, level / 1e6))));
+      }
+      return z + shift;
+    }
   }
 }
 
-function badgesOf(r: WindowFigures, profile: ContextProfile | undefined): Badge[] {
+function badgesOf(r: WindowFigures): Badge[] {
   const b: Badge[] = [];
   if (r.kind === 'measured' && r.model !== 'normal') b.push('non-normal model');
   if (r.kind === 'summary') b.push('summary only');
   if (r.kind === 'defectives' || r.kind === 'defects') b.push('counted data');
   if (r.stable === false) b.push('not shown stable');
   if (r.kind === 'measured' || r.kind === 'summary' ? r.n < 30 : r.n < 100) b.push('small sample');
-  if (profile?.reporting === 'short-term') b.push('shift convention');
   return b;
 }
 
@@ -122,6 +136,39 @@ export function perUnitFigures(result: WindowFigures): {
   };
 }
 
+/**
+ * What judging a window needs that does not depend on the context profile: computed once per window, so that a
+ * change of target, weight or order only compares.
+ */
+export interface JudgeInput {
+  characteristic: Characteristic;
+  result: WindowFigures | undefined;
+  months: number;
+  unit?: ReturnType<typeof perUnitFigures>;
+  /** Limits in force in the window's last month. */
+  limits: Limits;
+  /** Badges that follow from the figures alone (the profile adds its own when judged). */
+  badges: Badge[];
+}
+
+export function judgeInput(
+  characteristic: Characteristic,
+  result: WindowFigures | undefined,
+  months: number,
+  period?: string
+): JudgeInput {
+  return {
+    characteristic,
+    result,
+    months,
+    ...(result ? { unit: perUnitFigures(result) } : {}),
+    // Without changes the characteristic's own limits are in force: no copy per window.
+    limits:
+      period && characteristic.limitChanges?.length ? limitsFor(characteristic, period) : characteristic,
+    badges: result ? badgesOf(result) : []
+  };
+}
+
 /** Judges one characteristic's window result against its context's requirement (STATUS_RULE). */
 export function judgeCharacteristic(
   characteristic: Characteristic,
@@ -130,9 +177,14 @@ export function judgeCharacteristic(
   months: number,
   period?: string
 ): CharacteristicRow {
+  return judgePrepared(judgeInput(characteristic, result, months, period), profile);
+}
+
+function judgePrepared(input: JudgeInput, profile: ContextProfile | undefined): CharacteristicRow {
+  const { characteristic, result, months } = input;
   const risk = characteristic.riskClass;
   const required = profile ? profile.levels[risk] : NaN;
-  if (!result || !profile)
+  if (!result || !profile || !input.unit)
     return {
       characteristic,
       status: 'no recent data',
@@ -142,13 +194,14 @@ export function judgeCharacteristic(
       ...(result ? { result } : {})
     };
   const shift = shortTermShift(profile);
-  const unit = perUnitFigures(result);
+  const unit = input.unit;
   const zReported = unit.z + shift;
   const zBound = unit.zBound !== undefined ? unit.zBound + shift : undefined;
   const needZ = requiredZ(profile, risk);
   let estimate: number;
   let bound: number | undefined;
-  let meets: (v: number) => boolean;
+  let meets: boolean;
+  let boundMeets = false;
   let zEstimate = zReported;
   switch (profile.measure) {
     case 'index': {
@@ -159,54 +212,64 @@ export function judgeCharacteristic(
       estimate = idx ?? zReported;
       bound = idx !== undefined ? idxBound : zBound;
       const level = idx !== undefined ? required : needZ;
-      meets = (v) => v >= level;
+      meets = estimate >= level;
+      boundMeets = bound !== undefined && bound >= level;
       if (idx !== undefined) zEstimate = 3 * idx + shift;
       break;
     }
     case 'zLevel':
       estimate = zReported;
       bound = zBound;
-      meets = (v) => v >= required;
+      meets = estimate >= required;
+      boundMeets = bound !== undefined && bound >= required;
       break;
     case 'ppm': {
       estimate = unit.fraction * 1e6;
       bound = unit.fractionBound !== undefined ? unit.fractionBound * 1e6 : undefined;
-      meets = (v) => v <= required;
+      meets = estimate <= required;
+      boundMeets = bound !== undefined && bound <= required;
       break;
     }
   }
   const unstable = result.stable === false;
-  const status: CharacteristicStatus = !meets(estimate)
+  const status: CharacteristicStatus = !meets
     ? 'short'
-    : bound !== undefined && meets(bound) && !unstable
+    : boundMeets && !unstable
       ? 'meets, shown'
       : 'meets, not shown';
-  const row: CharacteristicRow = {
-    characteristic,
-    status,
-    result,
-    estimate,
-    required,
-    requiredZ: needZ,
-    zShown: zReported,
-    zGap: zEstimate - needZ,
-    badges: badgesOf(result, profile),
-    months,
-    ...(bound !== undefined ? { bound } : {})
-  };
-  // Centring or spread, for measured data with both limits, judged against the requirement as an index.
-  const { lsl, usl } = period ? limitsFor(characteristic, period) : characteristic;
+  const badges =
+    profile.reporting === 'short-term'
+      ? [...input.badges, 'shift convention' as const]
+      : input.badges.slice();
+  // One literal with every field (see rankPortfolio).
+  const { lsl, usl } = input.limits;
   const sdNow = result.sdWithin ?? result.sdOverall;
+  let centring: CharacteristicRow['centring'];
+  // Centring or spread, for measured data with both limits, judged against the requirement as an index.
   if (lsl !== undefined && usl !== undefined && sdNow !== undefined && sdNow > 0) {
     const requiredIndex = (needZ - shift) / 3;
     const centredIndex = (usl - lsl) / (6 * sdNow);
-    row.centring = {
+    centring = {
       centredIndex,
       sdNow,
       sdNeeded: (usl - lsl) / (6 * requiredIndex),
       centringMeets: centredIndex >= requiredIndex
     };
   }
+  const row: CharacteristicRow = {
+    characteristic,
+    status,
+    result,
+    estimate,
+    bound,
+    required,
+    requiredZ: needZ,
+    zShown: zReported,
+    zGap: zEstimate - needZ,
+    centring,
+    badges,
+    months
+  };
   return row;
 }
 
@@ -218,83 +281,133 @@ export function costPerYear(
   return fraction * process.monthlyVolume * 12 * process.costPerDefective;
 }
 
+/** Position of each status in STATUS_ORDER (worst first). */
+const STATUS_RANK = Object.fromEntries(STATUS_ORDER.map((s, i) => [s, i])) as Record<
+  CharacteristicStatus,
+  number
+>;
+
 function statusRank(s: CharacteristicStatus): number {
-  return STATUS_ORDER.indexOf(s);
-}
-
-const quickYields = new WeakMap<Study, { characteristic: Characteristic; y: number | undefined }>();
-
-/** quickYield remembered per study and characteristic version (records are immutable once read). */
-function rememberedQuickYield(study: Study, c: Characteristic): number | undefined {
-  const known = quickYields.get(study);
-  if (known && known.characteristic === c) return known.y;
-  const y = quickYield(study, c);
-  quickYields.set(study, { characteristic: c, y });
-  return y;
+  return STATUS_RANK[s];
 }
 
 /** What a characteristic's window gives before it is judged: the same for every target, weight and order. */
 interface PreparedCharacteristic {
-  characteristic: Characteristic;
-  figures: WindowFigures | undefined;
-  months: number;
+  input: JudgeInput;
   limitsChanged: boolean;
 }
+
+/** How the judged rows' badges vary with the profile: none without one, else with or without the shift. */
+type BadgeVariant = 'none' | 'long-term' | 'short-term';
 
 /** A process's windows and its monthly trend as long-term z-levels (the context's shift is added when judged). */
 interface PreparedProcess {
   characteristics: PreparedCharacteristic[];
   trend: (number | undefined)[];
+  /** Slope of the trend (the same with the context's shift added to every month). */
+  trendSlope: number | undefined;
+  riskClass: RiskClass;
+  /** Characteristics with window figures, and the product of their yields. */
+  withData: number;
+  yield: number;
+  /** Long-term z-level of that yield (the context's shift is added when judged). */
+  zLevel: number;
+  /** The process's badges for each variant, built on first use. */
+  badges: Partial<Record<BadgeVariant, Badge[]>>;
+}
+
+/** The process's badges as the old per-row union gave them: each row's in order, then 'incomplete'. */
+function processBadges(p: PreparedProcess, variant: BadgeVariant): Badge[] {
+  const known = p.badges[variant];
+  if (known) return known;
+  const set = new Set<Badge>();
+  for (const c of p.characteristics) {
+    if (!c.input.result) continue;
+    if (variant !== 'none') for (const b of c.input.badges) set.add(b);
+    if (variant === 'short-term') set.add('shift convention');
+    if (c.limitsChanged) set.add('limits changed');
+  }
+  if (p.withData && p.withData < p.characteristics.length) set.add('incomplete');
+  return (p.badges[variant] = [...set]);
 }
 
 /**
- * Prepared windows per record set (by the identity of its study and characteristic arrays) and window: a
- * change of target, weight or order re-judges these without looking at a study again.
+ * Prepared windows per read model (and its version: it changes in place when a study is written) and window,
+ * for one characteristic array: a change of target, weight or order re-judges these without looking at a study
+ * again.
  */
 const preparedWindows = new WeakMap<
-  readonly Study[],
-  { characteristics: readonly Characteristic[]; byWindow: Map<string, Map<string, PreparedProcess>> }
+  MonthlyStatistics,
+  {
+    version: number;
+    characteristics: readonly Characteristic[];
+    byWindow: Map<string, Map<string, PreparedProcess>>;
+  }
 >();
 
-function preparedFor(records: PortfolioRecords, window: string): Map<string, PreparedProcess> {
-  let entry = preparedWindows.get(records.studies);
-  if (!entry || entry.characteristics !== records.characteristics) {
-    entry = { characteristics: records.characteristics, byWindow: new Map() };
-    preparedWindows.set(records.studies, entry);
+function preparedFor(
+  model: MonthlyStatistics,
+  characteristics: readonly Characteristic[],
+  window: string
+): Map<string, PreparedProcess> {
+  let entry = preparedWindows.get(model);
+  if (!entry || entry.characteristics !== characteristics || entry.version !== model.version) {
+    entry = { version: model.version, characteristics, byWindow: new Map() };
+    preparedWindows.set(model, entry);
   }
   let prepared = entry.byWindow.get(window);
   if (!prepared) entry.byWindow.set(window, (prepared = new Map()));
   return prepared;
 }
 
+const scratch = { monthly: new Float64Array(36), count: new Int32Array(36) };
+
 function prepareProcess(
   chars: readonly Characteristic[],
-  index: PortfolioIndex,
+  model: MonthlyStatistics,
   options: RankingOptions,
   months: { first: string; end: number; firstMonth: number; trendFirstMonth: number; trendMonths: number }
 ): PreparedProcess {
-  const monthly = new Float64Array(months.trendMonths).fill(1); // product of the month's yields
-  const monthlyCount = new Int32Array(months.trendMonths);
+  // Scratch arrays shared by every call (a ranking is synchronous): two small typed arrays per process were a
+  // measurable share of a company-size ranking.
+  if (scratch.monthly.length < months.trendMonths) {
+    scratch.monthly = new Float64Array(months.trendMonths);
+    scratch.count = new Int32Array(months.trendMonths);
+  }
+  const monthly = scratch.monthly.fill(1, 0, months.trendMonths); // product of the month's yields
+  const monthlyCount = scratch.count.fill(0, 0, months.trendMonths);
   const prepared = chars.map((c): PreparedCharacteristic => {
-    const held = index.studies.get(c.id);
-    const list = held?.list ?? [];
-    const ordinals = held?.months ?? new Int32Array(0);
-    const to = firstAtOrAfter(ordinals, months.end + 1);
-    for (let i = firstAtOrAfter(ordinals, months.trendFirstMonth); i < to; i += 1) {
-      const y = rememberedQuickYield(list[i]!, c);
+    const row = model.rowOf(c.id);
+    if (row === undefined)
+      return { input: judgeInput(c, undefined, 0, options.endPeriod), limitsChanged: false };
+    const changes = c.limitChanges?.length ?? 0;
+    const fixedLimits = changes ? undefined : c;
+    for (let m = months.trendFirstMonth; m <= months.end; m += 1) {
+      const cell = model.cellOf(row, m);
+      if (cell < 0 || model.kind[cell] === CELL.empty) continue;
+      const t = m - months.trendFirstMonth;
+      const y = cellQuickYield(model, cell, m, c, fixedLimits);
       if (y === undefined) continue;
-      const m = ordinals[i]! - months.trendFirstMonth;
-      monthly[m]! *= y;
-      monthlyCount[m]! += 1;
+      monthly[t]! *= y;
+      monthlyCount[t]! += 1;
     }
     // WINDOW_RULE: the window keeps the months under the limits in force in its last month.
-    const windowed = list.slice(firstAtOrAfter(ordinals, months.firstMonth), to);
-    const changes = c.limitChanges?.length ?? 0;
-    const version = changes ? limitVersionOf(c, options.endPeriod) : '';
-    const inWindow = changes ? windowed.filter((s) => limitVersionOf(c, s.period) === version) : windowed;
-    let cached = options.cache?.get(c, months.first, inWindow);
+    const since = changes ? changeInForce(c, options.endPeriod)?.from : undefined;
+    const from = since === undefined ? months.firstMonth : Math.max(months.firstMonth, monthOrdinal(since));
+    let limitsChanged = false;
+    for (let m = months.firstMonth; m < from; m += 1) {
+      const cell = model.cellOf(row, m);
+      if (cell >= 0 && model.kind[cell] !== CELL.empty) limitsChanged = true;
+    }
+    const cells: number[] = [];
+    for (let m = from; m <= months.end; m += 1) {
+      const cell = model.cellOf(row, m);
+      if (cell >= 0 && model.kind[cell] !== CELL.empty) cells.push(cell);
+    }
+    const stamps = cells.map((cell) => model.stamp[cell]!);
+    let cached = options.cache?.get(c, months.first, stamps);
     if (!cached) {
-      const w = windowData(inWindow);
+      const w = pooledWindow(model, cells) ?? rawWindow(model, cells);
       let result: WindowFigures | undefined;
       if (w) {
         try {
@@ -303,15 +416,10 @@ function prepareProcess(
           result = undefined;
         }
       }
-      cached = { result, months: w?.months.length ?? 0 };
-      options.cache?.set(c, months.first, inWindow, cached);
+      cached = { result, months: w ? w.months : 0 };
+      options.cache?.set(c, months.first, stamps, cached);
     }
-    return {
-      characteristic: c,
-      figures: cached.result,
-      months: cached.months,
-      limitsChanged: inWindow.length < windowed.length
-    };
+    return { input: judgeInput(c, cached.result, cached.months, options.endPeriod), limitsChanged };
   });
   const trend: (number | undefined)[] = [];
   for (let m = 0; m < months.trendMonths; m += 1) {
@@ -320,7 +428,105 @@ function prepareProcess(
       count > 0 && count === chars.length ? normalUpperQuantile(Math.min(1, 1 - monthly[m]!)) : undefined
     );
   }
-  return { characteristics: prepared, trend };
+  let withData = 0;
+  let y = 1;
+  for (const c of prepared)
+    if (c.input.result) {
+      withData += 1;
+      y *= c.input.result.yield;
+    }
+  return {
+    characteristics: prepared,
+    trend,
+    trendSlope: leastSquaresSlope(trend),
+    riskClass: chars.some((c) => c.riskClass === 'safety')
+      ? 'safety'
+      : chars.some((c) => c.riskClass === 'key')
+        ? 'key'
+        : 'standard',
+    withData,
+    yield: y,
+    zLevel: normalUpperQuantile(Math.min(1, 1 - y)),
+    badges: {}
+  };
+}
+
+/** A window of raw months, from their studies' values (windowData: model search, subgroups, stability). */
+function rawWindow(model: MonthlyStatistics, cells: readonly number[]) {
+  const studies = cells.map((cell) => model.studyAt(cell)).filter((s): s is Study => s !== undefined);
+  const w = studies.length === cells.length ? windowData(studies) : undefined;
+  return w && { ...w, months: w.months.length };
+}
+
+/** A month's quick yield (quickYield) from its cell of the read model. */
+function cellQuickYield(
+  model: MonthlyStatistics,
+  cell: number,
+  month: number,
+  c: Characteristic,
+  fixedLimits: Limits | undefined
+): number | undefined {
+  const kind = model.kind[cell];
+  if (kind === CELL.defectives || kind === CELL.defects)
+    return countedYield(
+      kind === CELL.defects ? 'defects' : 'defectives',
+      model.units[cell]!,
+      model.count[cell]!
+    );
+  if (kind === CELL.raw && model.n[cell]! < 2) return undefined;
+  const limits = fixedLimits ?? limitsFor(c, periodOfOrdinal(month));
+  return normalYield(model.mean[cell]!, model.sd[cell]!, limits);
+}
+
+/**
+ * A window pooled from the read model's cells, by the rules of windowData (window-study.ts) — or undefined when
+ * all months are raw (analysed from their values, rawWindow) or their kinds cannot be pooled together (windowData
+ * gives them no data either).
+ */
+function pooledWindow(
+  model: MonthlyStatistics,
+  cells: readonly number[]
+): { data: StudyData; sdWithin?: number; months: number } | undefined {
+  if (cells.length === 0) return undefined;
+  let raw = 0;
+  let measured = 0;
+  let defectives = 0;
+  let defects = 0;
+  for (const cell of cells) {
+    const k = model.kind[cell];
+    if (k === CELL.raw) raw += 1;
+    if (k === CELL.raw || k === CELL.summary) measured += 1;
+    else if (k === CELL.defectives) defectives += 1;
+    else if (k === CELL.defects) defects += 1;
+  }
+  const months = cells.length;
+  if (raw === months) return undefined;
+  if (measured === months)
+    return {
+      ...poolMeasuredMonths(
+        cells.map((cell) => ({ n: model.n[cell]!, mean: model.mean[cell]!, sd: model.sd[cell]! }))
+      ),
+      months
+    };
+  if (defectives === months)
+    return {
+      data: poolDefectiveMonths(
+        cells.map((cell) => ({ units: model.units[cell]!, defectives: model.count[cell]! }))
+      ),
+      months
+    };
+  if (defects === months)
+    return {
+      data: poolDefectMonths(
+        cells.map((cell) => ({
+          units: model.units[cell]!,
+          defects: model.count[cell]!,
+          opportunitiesPerUnit: model.opportunities[cell]!
+        }))
+      ),
+      months
+    };
+  return undefined;
 }
 
 /** Ranks the portfolio; ties broken by zGap (lower first), cost (higher first), process name, then id. */
@@ -340,7 +546,12 @@ export function rankPortfolio(
     trendMonths
   };
   const index = portfolioIndex(records);
-  const prepared = preparedFor(records, `${options.endPeriod}|${options.windowMonths}|${trendMonths}`);
+  const model = statisticsOf(records);
+  const prepared = preparedFor(
+    model,
+    records.characteristics,
+    `${options.endPeriod}|${options.windowMonths}|${trendMonths}`
+  );
 
   const rows: ProcessRow[] = [];
   for (const process of records.processes) {
@@ -351,57 +562,60 @@ export function rankPortfolio(
     const shift = shortTermShift(profile);
     const chars = index.characteristics.get(process.id) ?? [];
     let windows = prepared.get(process.id);
-    if (!windows) prepared.set(process.id, (windows = prepareProcess(chars, index, options, months)));
-    const charRows = windows.characteristics.map((w) => {
-      const row = judgeCharacteristic(w.characteristic, w.figures, profile, w.months, options.endPeriod);
-      if (w.limitsChanged) row.badges.push('limits changed');
-      return row;
-    });
-    const withData = charRows.filter((r) => r.result);
-    const badges = new Set<Badge>(withData.flatMap((r) => r.badges));
-    if (withData.length && withData.length < charRows.length) badges.add('incomplete');
-    const riskClass: RiskClass = chars.some((c) => c.riskClass === 'safety')
-      ? 'safety'
-      : chars.some((c) => c.riskClass === 'key')
-        ? 'key'
-        : 'standard';
+    if (!windows) prepared.set(process.id, (windows = prepareProcess(chars, model, options, months)));
+    const variant: BadgeVariant = !profile
+      ? 'none'
+      : profile.reporting === 'short-term'
+        ? 'short-term'
+        : 'long-term';
+    const charRows: CharacteristicRow[] = [];
+    let status: CharacteristicStatus = 'no recent data';
+    let weakest: CharacteristicRow | undefined;
+    let notShown = 0;
+    for (const w of windows.characteristics) {
+      const r = judgePrepared(w.input, profile);
+      if (w.limitsChanged) r.badges.push('limits changed');
+      charRows.push(r);
+      if (r.status !== 'no recent data' && STATUS_RANK[r.status] < STATUS_RANK[status]) status = r.status;
+      if (!r.result) continue;
+      if (!weakest || (r.zGap ?? Infinity) < (weakest.zGap ?? Infinity)) weakest = r;
+      if (r.status !== 'meets, shown') notShown = 1;
+    }
+    const riskClass = windows.riskClass;
+    // One object literal with every field (undefined where not known): rows built field by field went through
+    // a dozen shapes each, a third of a recompute at company size.
+    const y = weakest ? windows.yield : undefined;
+    const cost = y !== undefined ? costPerYear(1 - y, process) : undefined;
+    const needZ = weakest?.requiredZ;
+    const ppmAtTarget = needZ !== undefined ? normalSf(needZ - shift) * 1e6 : undefined;
+    const trend: (number | undefined)[] = [];
+    for (const z of windows.trend) trend.push(z === undefined ? undefined : z + shift);
     const row: ProcessRow = {
       process,
       site,
       profile,
       characteristics: charRows,
-      status: charRows.length
-        ? charRows.reduce<CharacteristicStatus>(
-            (worst, r) =>
-              r.status !== 'no recent data' && statusRank(r.status) < statusRank(worst) ? r.status : worst,
-            'no recent data'
-          )
-        : 'no recent data',
-      trend: [],
+      status,
+      yield: y,
+      ppm: y !== undefined ? (1 - y) * 1e6 : undefined,
+      zLevel: y !== undefined ? windows.zLevel + shift : undefined,
       zBasis: zBasisOf(profile),
-      badges: [...badges],
+      weakest,
+      zGap: weakest?.zGap,
+      requiredZ: needZ,
+      ppmAtTarget,
+      gainIfMet:
+        ppmAtTarget !== undefined && cost !== undefined
+          ? Math.max(0, cost - costPerYear(ppmAtTarget / 1e6, process))
+          : undefined,
+      costPerYear: cost,
+      trend,
+      trendSlope: windows.trendSlope,
+      badges: processBadges(windows, variant).slice(),
       projects: index.openProjects.get(process.id) ?? [],
       priority: 0,
       riskClass
     };
-    if (withData.length) {
-      const y = withData.reduce((a, r) => a * (r.result as WindowFigures).yield, 1);
-      row.yield = y;
-      row.ppm = (1 - y) * 1e6;
-      row.zLevel = normalUpperQuantile(Math.min(1, 1 - y)) + shift;
-      row.weakest = withData.reduce((a, b) => ((b.zGap ?? Infinity) < (a.zGap ?? Infinity) ? b : a));
-      row.zGap = row.weakest.zGap;
-      row.costPerYear = costPerYear(1 - y, process);
-      if (row.weakest.requiredZ !== undefined) {
-        row.requiredZ = row.weakest.requiredZ;
-        row.ppmAtTarget = normalSf(row.weakest.requiredZ - shift) * 1e6;
-        row.gainIfMet = Math.max(0, row.costPerYear - costPerYear(row.ppmAtTarget / 1e6, process));
-      }
-    }
-    for (const z of windows.trend) row.trend.push(z === undefined ? undefined : z + shift);
-    const sl = leastSquaresSlope(row.trend);
-    if (sl !== undefined) row.trendSlope = sl;
-    const notShown = withData.some((r) => r.status !== 'meets, shown') ? 1 : 0;
     row.priority =
       weights.gap * Math.max(0, -(row.zGap ?? 0)) +
       weights.cost * Math.log10(1 + (row.costPerYear ?? 0)) +

@@ -1,3 +1,4 @@
+import type { MonthlyStatistics } from './monthly-statistics';
 import type { WindowFigures } from './window-figures';
 import type { WindowFiguresCache } from './window-figures-cache';
 import type { Characteristic, RiskClass } from './characteristic';
@@ -140,4 +141,9 @@ export interface PortfolioRecords {
   characteristics: readonly Characteristic[];
   studies: readonly Study[];
   projects: readonly ImprovementProject[];
+  /**
+   * The read model of these studies (monthly-statistics.ts) when the caller keeps one up to date; built from
+   * `studies` otherwise.
+   */
+  statistics?: MonthlyStatistics;
 }

@@ -1,5 +1,4 @@
 import type { Characteristic } from './characteristic';
-import type { Study } from './study';
 import type { WindowFigures } from './window-figures';
 
 /** Windows kept per characteristic: ten review quarters and a few portfolio windows. */
@@ -10,8 +9,7 @@ const TOTAL = 500_000;
 interface Entry {
   rev: number;
   first: string;
-  ids: string[];
-  revs: number[];
+  stamps: Float64Array;
   value: CachedWindow;
 }
 
@@ -43,15 +41,14 @@ export class WindowFiguresCache {
   get(
     c: Pick<Characteristic, 'id' | 'rev'>,
     first: string,
-    studies: readonly Study[]
+    stamps: ArrayLike<number>
   ): CachedWindow | undefined {
     const entries = this.#byCharacteristic.get(c.id);
     if (!entries) return undefined;
     for (const e of entries) {
-      if (e.rev !== c.rev || e.first !== first || e.ids.length !== studies.length) continue;
+      if (e.rev !== c.rev || e.first !== first || e.stamps.length !== stamps.length) continue;
       let same = true;
-      for (let i = 0; i < studies.length && same; i += 1)
-        same = e.ids[i] === studies[i]!.id && e.revs[i] === studies[i]!.rev;
+      for (let i = 0; i < stamps.length && same; i += 1) same = e.stamps[i] === stamps[i];
       if (same) return e.value;
     }
     return undefined;
@@ -60,16 +57,10 @@ export class WindowFiguresCache {
   set(
     c: Pick<Characteristic, 'id' | 'rev'>,
     first: string,
-    studies: readonly Study[],
+    stamps: ArrayLike<number>,
     value: CachedWindow
   ): void {
-    const entry: Entry = {
-      rev: c.rev,
-      first,
-      ids: studies.map((s) => s.id),
-      revs: studies.map((s) => s.rev),
-      value
-    };
+    const entry: Entry = { rev: c.rev, first, stamps: Float64Array.from(stamps), value };
     if (this.#size >= TOTAL) this.clear();
     const entries = this.#byCharacteristic.get(c.id);
     if (!entries) {

@@ -1,6 +1,6 @@
-import { pooledWithinSd } from '../stats/pooled-moments';
-import { poolSummaries, summariseValues } from './combine-study-data';
-import type { Study, StudyData, SummaryData } from './study';
+import { poolMoments, pooledWithinSd, type Moments } from '../stats/pooled-moments';
+import { summariseValues } from './combine-study-data';
+import type { DefectivesData, DefectsData, Study, StudyData } from './study';
 
 /**
  * One characteristic's studies over a window of months, combined exactly into one data set — never by averaging
@@ -38,34 +38,60 @@ export function windowData(studies: readonly Study[]): WindowData | undefined {
     return { data: { kind: 'raw', values, subgroups }, months };
   }
   if ([...kinds].every((k) => k === 'raw' || k === 'summary')) {
-    const parts: SummaryData[] = sorted.map((s) =>
+    const parts: Moments[] = sorted.map((s) =>
       s.data.kind === 'summary' ? s.data : summariseValues((s.data as { values: number[] }).values)
     );
-    const pooled = parts.reduce((a, b) => poolSummaries(a, b));
-    const sdWithin = pooledWithinSd(parts);
-    return { data: pooled, months, ...(sdWithin !== undefined ? { sdWithin } : {}) };
+    return { ...poolMeasuredMonths(parts), months };
   }
-  if (kinds.size === 1 && kinds.has('defectives')) {
-    let units = 0;
-    let defectives = 0;
-    for (const s of sorted) {
-      if (s.data.kind !== 'defectives') continue;
-      units += s.data.units;
-      defectives += s.data.defectives;
-    }
-    return { data: { kind: 'defectives', units, defectives }, months };
-  }
-  if (kinds.size === 1 && kinds.has('defects')) {
-    const counts = sorted.flatMap((s) => (s.data.kind === 'defects' ? [s.data] : []));
-    const opps = new Set(counts.map((d) => d.opportunitiesPerUnit));
-    const defects = counts.reduce((a, d) => a + d.defects, 0);
-    if (opps.size === 1) {
-      const units = counts.reduce((a, d) => a + d.units, 0);
-      return { data: { kind: 'defects', units, defects, opportunitiesPerUnit: [...opps][0]! }, months };
-    }
-    // Different opportunity counts: compare on defects per opportunity, as one unit with all opportunities.
-    const opportunities = counts.reduce((a, d) => a + d.units * d.opportunitiesPerUnit, 0);
-    return { data: { kind: 'defects', units: opportunities, defects, opportunitiesPerUnit: 1 }, months };
-  }
+  if (kinds.size === 1 && kinds.has('defectives'))
+    return { data: poolDefectiveMonths(sorted.map((s) => s.data as DefectivesData)), months };
+  if (kinds.size === 1 && kinds.has('defects'))
+    return { data: poolDefectMonths(sorted.map((s) => s.data as DefectsData)), months };
   return undefined;
+}
+
+/**
+ * Months of measured data (each as n, mean, sd) merged in month order by the exact pooled mean and variance, with
+ * the pooled within-month sd. The one rule for a measured window that is not all raw; the portfolio's read model
+ * (monthly-statistics.ts) pools its cells through it too.
+ */
+export function poolMeasuredMonths(parts: readonly Moments[]): Pick<WindowData, 'data' | 'sdWithin'> {
+  let pooled = parts[0]!;
+  for (let i = 1; i < parts.length; i += 1) pooled = poolMoments(pooled, parts[i]!);
+  const sdWithin = pooledWithinSd(parts);
+  return {
+    data: { kind: 'summary', n: pooled.n, mean: pooled.mean, sd: pooled.sd },
+    ...(sdWithin !== undefined ? { sdWithin } : {})
+  };
+}
+
+/** Months of defectives counts: units and defectives summed. */
+export function poolDefectiveMonths(counts: readonly Omit<DefectivesData, 'kind'>[]): DefectivesData {
+  let units = 0;
+  let defectives = 0;
+  for (const d of counts) {
+    units += d.units;
+    defectives += d.defectives;
+  }
+  return { kind: 'defectives', units, defectives };
+}
+
+/**
+ * Months of defect counts: summed when every month has the same opportunities per unit; otherwise compared on
+ * defects per opportunity, as one unit with all opportunities.
+ */
+export function poolDefectMonths(counts: readonly Omit<DefectsData, 'kind'>[]): DefectsData {
+  let defects = 0;
+  let units = 0;
+  let opportunities = 0;
+  let same = true;
+  for (const d of counts) {
+    defects += d.defects;
+    units += d.units;
+    opportunities += d.units * d.opportunitiesPerUnit;
+    if (d.opportunitiesPerUnit !== counts[0]!.opportunitiesPerUnit) same = false;
+  }
+  return same
+    ? { kind: 'defects', units, defects, opportunitiesPerUnit: counts[0]!.opportunitiesPerUnit }
+    : { kind: 'defects', units: opportunities, defects, opportunitiesPerUnit: 1 };
 }

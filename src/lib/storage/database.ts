@@ -45,6 +45,33 @@ export interface MonthClash {
   detectedAt: string;
 }
 
+/**
+ * The portfolio's read model as stored (storage/portfolio-reader.ts): its snapshot with the id lists joined
+ * into one text each (one string clones far faster than hundreds of thousands), and the highest `localSeq` of
+ * the studies it reflects. Device-local and derived: deleting it loses nothing.
+ */
+export interface StoredReadModel {
+  key: string;
+  format: number;
+  /** Highest study `localSeq` applied. */
+  seq: number;
+  firstMonth: number;
+  span: number;
+  rowIds: string;
+  kind: Uint8Array;
+  n: Float64Array;
+  mean: Float64Array;
+  sd: Float64Array;
+  units: Float64Array;
+  count: Float64Array;
+  opportunities: Float64Array;
+  tag: Float64Array;
+  ids: string;
+  heldIds: [number, string[]][];
+  tombstones: string;
+  savedAt: string;
+}
+
 export const DEFAULT_DATABASE_NAME = 'capstan';
 
 /**
@@ -64,6 +91,7 @@ export class CapstanDatabase extends Dexie {
   contextProfiles!: Table<ContextProfileRecord, string>;
   reviews!: Table<QuarterReviewRecord, string>;
   monthClashes!: Table<MonthClash, string>;
+  readModels!: Table<StoredReadModel, string>;
 
   /** This device's write sequence (see local-sequence.ts); resumes above the highest stored value on open. */
   readonly sequence = new LocalSequence();

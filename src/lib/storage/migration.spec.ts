@@ -228,7 +228,7 @@ describe('schema upgrade v5 → v6', () => {
     v5.close();
     const current = new CapstanDatabase(name);
     await current.open();
-    expect(current.verno).toBe(7);
+    expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
     expect(await current.sites.get(site.id)).toEqual(site);
     expect(await current.reviews.count()).toBe(0);
     current.close();
@@ -271,7 +271,7 @@ describe('schema upgrade v6 → v7', () => {
     v6.close();
     const current = new CapstanDatabase(name);
     await current.open();
-    expect(current.verno).toBe(7);
+    expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
     expect(await current.studies.count()).toBe(3);
     for (const r of rows) expect(await current.studies.get(r.id)).toEqual(r);
     expect(await current.monthClashes.toArray()).toEqual([

@@ -1,20 +1,232 @@
-import { CapstanDatabase } from './database';
-import { loadPortfolioRecords } from './portfolio-overview';
+import { MonthlyStatistics, type MonthlyStatisticsSnapshot } from '../domain/monthly-statistics';
+import type { PortfolioRecords } from '../domain/portfolio-terms';
+import { isLive } from '../domain/record-meta';
+import type { Study } from '../domain/study';
+import { CapstanDatabase, type StoredReadModel } from './database';
 
 /**
- * Read-only access to the portfolio for a background worker: the worker reads the records straight from
- * IndexedDB, so that the page never receives (and the browser never clones on the page's thread) tens of
- * thousands of studies it does not show. This module reads and never writes; it is the one part of storage a
+ * Read access to the portfolio for a background worker: the worker reads the records straight from IndexedDB,
+ * so that the page never receives (and the browser never clones on the page's thread) tens of thousands of
+ * studies it does not show. This module never writes a record; the only thing it writes is the device-local
+ * read model it derives from the studies (a cache: deleting it loses nothing). It is the one part of storage a
  * worker may import (layer rule).
+ *
+ * The studies reach the worker as the read model (domain/monthly-statistics.ts), not as objects:
+ * - on the first request, the stored model is read (one row) with the few studies it holds (raw values);
+ * - then, and on every later request, only the studies written since (their `localSeq` above the last one
+ *   applied, less a margin) are read and applied;
+ * - the model is rebuilt from every study when there is none, when it asks for it, or when the studies table
+ *   holds another number of rows than the model knows of (a row the sequence did not show);
+ * - the model is stored again after it changed (`persist`, called once the answer is on its way).
  */
-const open = new Map<string, CapstanDatabase>();
+const READ_MODEL_KEY = 'monthly-statistics';
+const READ_MODEL_FORMAT = 1;
+/**
+ * `localSeq` follows the wall clock of the tab that wrote; a write stamped just before another tab's and
+ * committed just after it would be skipped by a strict "above". Re-reading the last five minutes costs little
+ * (applying a study twice changes nothing) and covers any such overlap.
+ */
+const SEQ_MARGIN_MS = 5 * 60_000;
 
-/** Every live record the ranking and the review need, from the database the page has already opened. */
-export async function readPortfolioRecords(databaseName: string): ReturnType<typeof loadPortfolioRecords> {
-  let db = open.get(databaseName);
-  if (!db) {
-    db = new CapstanDatabase(databaseName);
-    open.set(databaseName, db);
+interface Feed {
+  db: CapstanDatabase;
+  model?: MonthlyStatistics;
+  seq: number;
+  /** Whether the model changed since it was last stored. */
+  dirty: boolean;
+}
+
+const feeds = new Map<string, Feed>();
+
+function feedOf(databaseName: string): Feed {
+  let feed = feeds.get(databaseName);
+  if (!feed)
+    feeds.set(databaseName, (feed = { db: new CapstanDatabase(databaseName), seq: 0, dirty: false }));
+  return feed;
+}
+
+/** How the model was brought up to date, for the benchmark and the tests. */
+export type ReadModelSource = 'memory' | 'stored' | 'rebuilt';
+
+export interface PortfolioRead {
+  /** Live sites, processes, characteristics and projects; the studies are in `records.statistics`. */
+  records: PortfolioRecords & { statistics: MonthlyStatistics };
+  source: ReadModelSource;
+  /** Studies applied since the model was last up to date. */
+  applied: number;
+  /** Stores the model if it changed; safe to skip (the next read rebuilds or catches up). */
+  persist: () => Promise<void>;
+}
+
+/** The portfolio from the database the page has already opened, with its studies as the read model. */
+export async function readPortfolio(databaseName: string): Promise<PortfolioRead> {
+  const feed = feedOf(databaseName);
+  const { db } = feed;
+  let source: ReadModelSource = 'memory';
+  if (!feed.model) {
+    const restored = await restoreModel(db);
+    if (restored) {
+      feed.model = restored.model;
+      feed.seq = restored.seq;
+      source = 'stored';
+    }
   }
-  return loadPortfolioRecords(db);
+  const read = await db.transaction(
+    'r',
+    [db.sites, db.processes, db.characteristics, db.studies, db.projects],
+    async () => {
+      const [sites, processes, characteristics, projects] = await Promise.all([
+        db.sites.toArray(),
+        db.processes.toArray(),
+        db.characteristics.toArray(),
+        db.projects.toArray()
+      ]);
+      const since = feed.model ? Math.max(0, feed.seq - SEQ_MARGIN_MS) : undefined;
+      const changed =
+        since === undefined ? undefined : await db.studies.where('localSeq').above(since).toArray();
+      const rows = await db.studies.count();
+      return { sites, processes, characteristics, projects, changed, rows };
+    }
+  );
+  let applied = 0;
+  if (feed.model && read.changed) {
+    const version = feed.model.version;
+    feed.model.putAll(read.changed, seqOf);
+    if (feed.model.version !== version) {
+      applied = read.changed.length;
+      feed.dirty = true;
+    }
+    for (const s of read.changed) feed.seq = Math.max(feed.seq, seqOf(s));
+  }
+  if (!feed.model || feed.model.needsRebuild || feed.model.known !== read.rows) {
+    const rebuilt = await rebuildModel(db);
+    feed.model = rebuilt.model;
+    feed.seq = rebuilt.seq;
+    feed.dirty = true;
+    source = 'rebuilt';
+    applied = rebuilt.model.known;
+  }
+  const model = feed.model;
+  return {
+    records: {
+      sites: read.sites.filter(isLive),
+      processes: read.processes.filter(isLive),
+      characteristics: read.characteristics.filter(isLive),
+      studies: [],
+      projects: read.projects.filter(isLive),
+      statistics: model
+    },
+    source,
+    applied,
+    persist: async () => {
+      if (!feed.dirty || feed.model !== model) return;
+      feed.dirty = false;
+      await db.readModels.put(storedForm(model.snapshot(), feed.seq));
+    }
+  };
+}
+
+/** Studies read per request when rebuilding: the worker never holds every study at once. */
+const REBUILD_PAGE = 20_000;
+
+/** The model built from every study, read a page at a time by id in one transaction. */
+async function rebuildModel(db: CapstanDatabase): Promise<{ model: MonthlyStatistics; seq: number }> {
+  return db.transaction('r', db.studies, async () => {
+    const model = new MonthlyStatistics();
+    let seq = 0;
+    let after: string | undefined;
+    for (;;) {
+      const page = await (
+        after === undefined ? db.studies.orderBy(':id') : db.studies.where(':id').above(after)
+      )
+        .limit(REBUILD_PAGE)
+        .toArray();
+      if (!page.length) break;
+      model.appendNew(page, seqOf);
+      for (const s of page) seq = Math.max(seq, seqOf(s));
+      after = page[page.length - 1]!.id;
+    }
+    if (!model.needsRebuild) return { model, seq };
+    // Two live studies in one month across pages (a clash from before one-study-per-month): weigh them with
+    // every study at hand.
+    const studies = await db.studies.toArray();
+    return {
+      model: MonthlyStatistics.fromStudies(studies, seqOf),
+      seq: studies.reduce((a, s) => Math.max(a, seqOf(s)), 0)
+    };
+  });
+}
+
+function seqOf(s: Study): number {
+  return (s as Study & { localSeq?: number }).localSeq ?? 0;
+}
+
+async function restoreModel(
+  db: CapstanDatabase
+): Promise<{ model: MonthlyStatistics; seq: number } | undefined> {
+  const stored = await db.readModels.get(READ_MODEL_KEY);
+  if (!stored || stored.format !== READ_MODEL_FORMAT) return undefined;
+  const snap = snapshotOf(stored);
+  const wanted = snap.heldIds.flatMap(([, ids]) => ids);
+  const held = await db.studies.bulkGet(wanted);
+  const byId = new Map<string, Study>();
+  for (const s of held) if (s && isLive(s)) byId.set(s.id, s);
+  const { model, missing } = MonthlyStatistics.fromSnapshot(snap, byId);
+  // A held study gone or deleted without the sequence showing it: the stored model cannot be trusted.
+  return missing.length ? undefined : { model, seq: stored.seq };
+}
+
+const SEPARATOR = '\n';
+
+/** The snapshot as stored (exported for the benchmark, which restores it as a worker does). */
+export function storedForm(snap: MonthlyStatisticsSnapshot, seq: number): StoredReadModel {
+  return {
+    key: READ_MODEL_KEY,
+    format: READ_MODEL_FORMAT,
+    seq,
+    firstMonth: snap.firstMonth,
+    span: snap.span,
+    rowIds: snap.rowIds.join(SEPARATOR),
+    kind: snap.kind,
+    n: snap.n,
+    mean: snap.mean,
+    sd: snap.sd,
+    units: snap.units,
+    count: snap.count,
+    opportunities: snap.opportunities,
+    tag: snap.tag,
+    ids: snap.ids.join(SEPARATOR),
+    heldIds: snap.heldIds,
+    tombstones: snap.tombstones.join(SEPARATOR),
+    savedAt: new Date().toISOString()
+  };
+}
+
+export function snapshotOf(stored: StoredReadModel): MonthlyStatisticsSnapshot {
+  const split = (text: string) => (text === '' ? [] : text.split(SEPARATOR));
+  const size = stored.kind.length;
+  const ids = stored.ids === '' && size === 0 ? [] : stored.ids.split(SEPARATOR);
+  return {
+    format: 1,
+    firstMonth: stored.firstMonth,
+    span: stored.span,
+    rowIds: split(stored.rowIds),
+    kind: stored.kind,
+    n: stored.n,
+    mean: stored.mean,
+    sd: stored.sd,
+    units: stored.units,
+    count: stored.count,
+    opportunities: stored.opportunities,
+    tag: stored.tag,
+    ids,
+    heldIds: stored.heldIds,
+    tombstones: split(stored.tombstones)
+  };
+}
+
+/** Forgets the models held in memory (tests: a new worker starts with none). */
+export function forgetReadModels(): void {
+  for (const feed of feeds.values()) feed.db.close();
+  feeds.clear();
 }

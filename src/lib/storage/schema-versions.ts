@@ -115,7 +115,15 @@ export async function upgradeToV7(tx: Transaction): Promise<void> {
   if (rows.length > 0) await tx.table('monthClashes').bulkPut(rows);
 }
 
-export const CURRENT_SCHEMA_VERSION = 7;
+/**
+ * v8: the portfolio's read model (domain/monthly-statistics.ts) kept between visits, device-local. It is derived
+ * from the studies and rebuilt from them whenever it cannot be trusted, so no upgrade fills it.
+ */
+export const SCHEMA_V8 = {
+  readModels: 'key'
+} as const;
+
+export const CURRENT_SCHEMA_VERSION = 8;
 
 /** Declares all versions on a database instance, in order. */
 export function declareSchemaVersions(db: Dexie): void {
@@ -126,4 +134,5 @@ export function declareSchemaVersions(db: Dexie): void {
   db.version(5).stores(SCHEMA_V5).upgrade(upgradeToV5);
   db.version(6).stores(SCHEMA_V6);
   db.version(7).stores(SCHEMA_V7).upgrade(upgradeToV7);
+  db.version(8).stores(SCHEMA_V8);
 }

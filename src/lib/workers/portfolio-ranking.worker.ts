@@ -15,7 +15,7 @@ import type {
   RankingOrder,
   RankingWeights
 } from '../domain/portfolio-terms';
-import { readPortfolioRecords } from '../storage/portfolio-reader';
+import { readPortfolio } from '../storage/portfolio-reader';
 
 export interface PortfolioRankingRequest {
   id: number;
@@ -49,7 +49,8 @@ scope.onmessage = async (event: MessageEvent<PortfolioRankingRequest>) => {
   const { id, databaseName, reload, endPeriod, windowMonths, order, weights, profiles } = event.data;
   const started = performance.now();
   try {
-    if (reload || !records) records = await readPortfolioRecords(databaseName);
+    let persist: (() => Promise<void>) | undefined;
+    if (reload || !records) ({ records, persist } = await readPortfolio(databaseName));
     const rows = rankPortfolio(records, profiles, { endPeriod, windowMonths, order, weights, cache });
     scope.postMessage({
       id,
@@ -59,6 +60,8 @@ scope.onmessage = async (event: MessageEvent<PortfolioRankingRequest>) => {
       sites: records.sites.length,
       ms: performance.now() - started
     } satisfies PortfolioRankingMessage);
+    // The read model is stored once the answer is on its way; a failure only means the next visit catches up.
+    await persist?.().catch(() => undefined);
   } catch (error) {
     scope.postMessage({
       id,

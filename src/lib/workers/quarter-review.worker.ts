@@ -13,7 +13,7 @@ import { buildQuarterReview } from '../domain/quarter-review';
 import type { ReportingCurrency } from '../domain/reporting-currency';
 import type { ReviewFigures } from '../domain/review-figures';
 import type { Site } from '../domain/site';
-import { readPortfolioRecords } from '../storage/portfolio-reader';
+import { readPortfolio } from '../storage/portfolio-reader';
 
 export interface QuarterReviewRequest {
   id: number;
@@ -38,7 +38,8 @@ scope.onmessage = async (event: MessageEvent<QuarterReviewRequest>) => {
   const { id, databaseName, reload, quarter, siteIds, profiles, reporting } = event.data;
   const started = performance.now();
   try {
-    if (reload || !records) records = await readPortfolioRecords(databaseName);
+    let persist: (() => Promise<void>) | undefined;
+    if (reload || !records) ({ records, persist } = await readPortfolio(databaseName));
     const figures = buildQuarterReview(records, profiles, {
       quarter,
       siteIds,
@@ -52,6 +53,8 @@ scope.onmessage = async (event: MessageEvent<QuarterReviewRequest>) => {
       sites: [...records.sites].sort((a, b) => a.name.localeCompare(b.name)),
       ms: performance.now() - started
     } satisfies QuarterReviewMessage);
+    // The read model is stored once the answer is on its way; a failure only means the next visit catches up.
+    await persist?.().catch(() => undefined);
   } catch (error) {
     scope.postMessage({
       id,
