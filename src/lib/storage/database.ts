@@ -47,14 +47,14 @@ export interface MonthClash {
 
 /**
  * The portfolio's read model as stored (storage/portfolio-reader.ts): its snapshot with the id lists joined
- * into one text each (one string clones far faster than hundreds of thousands), and the highest `localSeq` of
- * the studies it reflects. Device-local and derived: deleting it loses nothing.
+ * into one text each (one string clones far faster than hundreds of thousands), and the write sequence from
+ * which later studies are read as changed. Device-local and derived: deleting it loses nothing.
  */
 export interface StoredReadModel {
   key: string;
   format: number;
-  /** Highest study `localSeq` applied. */
-  seq: number;
+  /** Studies with a `localSeq` above this were written after the model was read (storage/portfolio-reader.ts). */
+  since: number;
   firstMonth: number;
   span: number;
   rowIds: string;

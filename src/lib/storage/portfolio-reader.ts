@@ -13,8 +13,8 @@ import { CapstanDatabase, type StoredReadModel } from './database';
  *
  * The studies reach the worker as the read model (domain/monthly-statistics.ts), not as objects:
  * - on the first request, the stored model is read (one row) with the few studies it holds (raw values);
- * - then, and on every later request, only the studies written since (their `localSeq` above the last one
- *   applied, less a margin) are read and applied;
+ * - then, and on every later request, only the studies written since the last read began (their `localSeq`,
+ *   see SEQ_MARGIN_MS) are read and applied;
  * - the model is rebuilt from every study when there is none, when it asks for it, or when the studies table
  *   holds another number of rows than the model knows of (a row the sequence did not show);
  * - the model is stored again after it changed (`persist`, called once the answer is on its way).
@@ -22,16 +22,20 @@ import { CapstanDatabase, type StoredReadModel } from './database';
 const READ_MODEL_KEY = 'monthly-statistics';
 const READ_MODEL_FORMAT = 1;
 /**
- * `localSeq` follows the wall clock of the tab that wrote; a write stamped just before another tab's and
- * committed just after it would be skipped by a strict "above". Re-reading the last five minutes costs little
- * (applying a study twice changes nothing) and covers any such overlap.
+ * Which studies count as "written since": those whose `localSeq` is above the time the last read began, less a
+ * margin. IndexedDB runs a read-write transaction on the studies only after a read that began before it, so a
+ * write the last read did not see was stamped after that read began — give or take the clocks' jitter between
+ * tabs (a tab's sequence may run ahead of its clock in a burst, never behind it). Two seconds cover the jitter,
+ * and a study applied twice changes nothing. A wall clock found behind the last read (set back) means a rebuild;
+ * a study added behind the sequence's back changes the row count, which means a rebuild too.
  */
-const SEQ_MARGIN_MS = 5 * 60_000;
+const SEQ_MARGIN_MS = 2_000;
 
 interface Feed {
   db: CapstanDatabase;
   model?: MonthlyStatistics;
-  seq: number;
+  /** Studies with a `localSeq` above this are read as changed (see SEQ_MARGIN_MS). */
+  since: number;
   /** Whether the model changed since it was last stored. */
   dirty: boolean;
 }
@@ -41,7 +45,7 @@ const feeds = new Map<string, Feed>();
 function feedOf(databaseName: string): Feed {
   let feed = feeds.get(databaseName);
   if (!feed)
-    feeds.set(databaseName, (feed = { db: new CapstanDatabase(databaseName), seq: 0, dirty: false }));
+    feeds.set(databaseName, (feed = { db: new CapstanDatabase(databaseName), since: 0, dirty: false }));
   return feed;
 }
 
@@ -67,10 +71,13 @@ export async function readPortfolio(databaseName: string): Promise<PortfolioRead
     const restored = await restoreModel(db);
     if (restored) {
       feed.model = restored.model;
-      feed.seq = restored.seq;
+      feed.since = restored.since;
       source = 'stored';
     }
   }
+  const startedAt = Date.now();
+  // The clock set back since the last read: stamps may now fall below `since`; read everything again.
+  if (feed.model && startedAt + SEQ_MARGIN_MS < feed.since) feed.model = undefined;
   const read = await db.transaction(
     'r',
     [db.sites, db.processes, db.characteristics, db.studies, db.projects],
@@ -81,9 +88,7 @@ export async function readPortfolio(databaseName: string): Promise<PortfolioRead
         db.characteristics.toArray(),
         db.projects.toArray()
       ]);
-      const since = feed.model ? Math.max(0, feed.seq - SEQ_MARGIN_MS) : undefined;
-      const changed =
-        since === undefined ? undefined : await db.studies.where('localSeq').above(since).toArray();
+      const changed = feed.model ? await db.studies.where('localSeq').above(feed.since).toArray() : undefined;
       const rows = await db.studies.count();
       return { sites, processes, characteristics, projects, changed, rows };
     }
@@ -96,16 +101,15 @@ export async function readPortfolio(databaseName: string): Promise<PortfolioRead
       applied = read.changed.length;
       feed.dirty = true;
     }
-    for (const s of read.changed) feed.seq = Math.max(feed.seq, seqOf(s));
   }
   if (!feed.model || feed.model.needsRebuild || feed.model.known !== read.rows) {
     const rebuilt = await rebuildModel(db);
     feed.model = rebuilt.model;
-    feed.seq = rebuilt.seq;
     feed.dirty = true;
     source = 'rebuilt';
     applied = rebuilt.model.known;
   }
+  feed.since = startedAt - SEQ_MARGIN_MS;
   const model = feed.model;
   return {
     records: {
@@ -121,7 +125,7 @@ export async function readPortfolio(databaseName: string): Promise<PortfolioRead
     persist: async () => {
       if (!feed.dirty || feed.model !== model) return;
       feed.dirty = false;
-      await db.readModels.put(storedForm(model.snapshot(), feed.seq));
+      await db.readModels.put(storedForm(model.snapshot(), feed.since));
     }
   };
 }
@@ -130,10 +134,9 @@ export async function readPortfolio(databaseName: string): Promise<PortfolioRead
 const REBUILD_PAGE = 20_000;
 
 /** The model built from every study, read a page at a time by id in one transaction. */
-async function rebuildModel(db: CapstanDatabase): Promise<{ model: MonthlyStatistics; seq: number }> {
+async function rebuildModel(db: CapstanDatabase): Promise<{ model: MonthlyStatistics }> {
   return db.transaction('r', db.studies, async () => {
     const model = new MonthlyStatistics();
-    let seq = 0;
     let after: string | undefined;
     for (;;) {
       const page = await (
@@ -143,17 +146,13 @@ async function rebuildModel(db: CapstanDatabase): Promise<{ model: MonthlyStatis
         .toArray();
       if (!page.length) break;
       model.appendNew(page, seqOf);
-      for (const s of page) seq = Math.max(seq, seqOf(s));
       after = page[page.length - 1]!.id;
     }
-    if (!model.needsRebuild) return { model, seq };
+    if (!model.needsRebuild) return { model };
     // Two live studies in one month across pages (a clash from before one-study-per-month): weigh them with
     // every study at hand.
     const studies = await db.studies.toArray();
-    return {
-      model: MonthlyStatistics.fromStudies(studies, seqOf),
-      seq: studies.reduce((a, s) => Math.max(a, seqOf(s)), 0)
-    };
+    return { model: MonthlyStatistics.fromStudies(studies, seqOf) };
   });
 }
 
@@ -163,7 +162,7 @@ function seqOf(s: Study): number {
 
 async function restoreModel(
   db: CapstanDatabase
-): Promise<{ model: MonthlyStatistics; seq: number } | undefined> {
+): Promise<{ model: MonthlyStatistics; since: number } | undefined> {
   const stored = await db.readModels.get(READ_MODEL_KEY);
   if (!stored || stored.format !== READ_MODEL_FORMAT) return undefined;
   const snap = snapshotOf(stored);
@@ -173,17 +172,17 @@ async function restoreModel(
   for (const s of held) if (s && isLive(s)) byId.set(s.id, s);
   const { model, missing } = MonthlyStatistics.fromSnapshot(snap, byId);
   // A held study gone or deleted without the sequence showing it: the stored model cannot be trusted.
-  return missing.length ? undefined : { model, seq: stored.seq };
+  return missing.length ? undefined : { model, since: stored.since };
 }
 
 const SEPARATOR = '\n';
 
 /** The snapshot as stored (exported for the benchmark, which restores it as a worker does). */
-export function storedForm(snap: MonthlyStatisticsSnapshot, seq: number): StoredReadModel {
+export function storedForm(snap: MonthlyStatisticsSnapshot, since: number): StoredReadModel {
   return {
     key: READ_MODEL_KEY,
     format: READ_MODEL_FORMAT,
-    seq,
+    since,
     firstMonth: snap.firstMonth,
     span: snap.span,
     rowIds: snap.rowIds.join(SEPARATOR),
