@@ -43,7 +43,6 @@ import {
   type ProcessDetail,
   type ProcessOverview
 } from './portfolio-overview';
-import { loadQuarterCoverage, type QuarterCoverage } from './quarter-coverage';
 
 /**
  * Everything the app may do with stored data, as typed repositories over one open database. The database itself
@@ -80,7 +79,6 @@ export interface CapstanStorage {
     portfolioChangeMark(): ReturnType<typeof portfolioChangeMark>;
     processDetail(processId: string): Promise<ProcessDetail | undefined>;
     monthlyLogStatus(siteId: string, period: string): Promise<MonthlyLogStatus>;
-    quarterCoverage(quarter: string): Promise<QuarterCoverage>;
     summary(): Promise<DatabaseSummary>;
     isEmpty(): Promise<boolean>;
   };
@@ -208,7 +206,6 @@ export async function openStorage(
       portfolioChangeMark: () => portfolioChangeMark(db),
       processDetail: (processId) => loadProcessDetail(db, processId),
       monthlyLogStatus: (siteId, period) => loadMonthlyLogStatus(db, siteId, period),
-      quarterCoverage: (quarter) => loadQuarterCoverage(db, quarter),
       summary: () => summariseDatabase(db),
       isEmpty: () => isPortfolioEmpty(db)
     },

@@ -9,7 +9,9 @@
 import { WindowFiguresCache } from '../domain/window-figures-cache';
 import type { ContextProfile } from '../domain/context-profile';
 import type { FiguresCache, PortfolioRecords } from '../domain/portfolio-terms';
+import { quarterCoverage, type QuarterCoverage } from '../domain/quarter-coverage';
 import { buildQuarterReview } from '../domain/quarter-review';
+import { statisticsOf } from '../domain/monthly-statistics';
 import type { ReportingCurrency } from '../domain/reporting-currency';
 import type { ReviewFigures } from '../domain/review-figures';
 import type { Site } from '../domain/site';
@@ -27,7 +29,15 @@ export interface QuarterReviewRequest {
 }
 
 export type QuarterReviewMessage =
-  | { id: number; type: 'done'; figures: ReviewFigures; sites: Site[]; ms: number }
+  | {
+      id: number;
+      type: 'done';
+      figures: ReviewFigures;
+      /** Who reported in the quarter (from the read model, here rather than on the page's thread). */
+      coverage: QuarterCoverage;
+      sites: Site[];
+      ms: number;
+    }
   | { id: number; type: 'error'; message: string };
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
@@ -50,6 +60,7 @@ scope.onmessage = async (event: MessageEvent<QuarterReviewRequest>) => {
       id,
       type: 'done',
       figures,
+      coverage: quarterCoverage(records, statisticsOf(records), quarter),
       sites: [...records.sites].sort((a, b) => a.name.localeCompare(b.name)),
       ms: performance.now() - started
     } satisfies QuarterReviewMessage);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { QuarterCoverage } from '../../storage/quarter-coverage';
+import type { QuarterCoverage } from '../../domain/quarter-coverage';
 import { coverageChartOption } from './coverage-chart-option';
 
 const coverage: QuarterCoverage = {

@@ -1,5 +1,5 @@
 import type { EChartsCoreOption } from 'echarts/core';
-import type { QuarterCoverage } from '../../storage/quarter-coverage';
+import type { QuarterCoverage } from '../../domain/quarter-coverage';
 
 /** Colours of the three months of a quarter, light to dark: the last month reads as the most recent. */
 const MONTH_COLOURS = ['#c9d6de', '#7e9cb0', '#1f3a4d'];
