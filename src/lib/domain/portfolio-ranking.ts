@@ -345,6 +345,8 @@ const preparedWindows = new WeakMap<
   }
 >();
 
+const PREPARED_WINDOWS = 4;
+
 function preparedFor(
   model: MonthlyStatistics,
   characteristics: readonly Characteristic[],
@@ -356,7 +358,12 @@ function preparedFor(
     preparedWindows.set(model, entry);
   }
   let prepared = entry.byWindow.get(window);
-  if (!prepared) entry.byWindow.set(window, (prepared = new Map()));
+  if (!prepared) {
+    // The windows of the last few requests only: the review ranks ten quarters, and keeping every one of them
+    // prepared cost hundreds of megabytes at company size; the window figures cache keeps the figures anyway.
+    if (entry.byWindow.size >= PREPARED_WINDOWS) entry.byWindow.delete(entry.byWindow.keys().next().value!);
+    entry.byWindow.set(window, (prepared = new Map()));
+  }
   return prepared;
 }
 

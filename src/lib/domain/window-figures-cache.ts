@@ -9,7 +9,8 @@ const TOTAL = 500_000;
 interface Entry {
   rev: number;
   first: string;
-  stamps: Float64Array;
+  /** A plain array: a typed array costs some hundred bytes of its own, times every window kept. */
+  stamps: number[];
   value: CachedWindow;
 }
 
@@ -60,7 +61,7 @@ export class WindowFiguresCache {
     stamps: ArrayLike<number>,
     value: CachedWindow
   ): void {
-    const entry: Entry = { rev: c.rev, first, stamps: Float64Array.from(stamps), value };
+    const entry: Entry = { rev: c.rev, first, stamps: Array.from(stamps), value };
     if (this.#size >= TOTAL) this.clear();
     const entries = this.#byCharacteristic.get(c.id);
     if (!entries) {
