@@ -5,23 +5,12 @@
  * requests, and posts back only the ranked rows. A change of window, order, weight or target then costs a
  * re-judgement and a sort here, and nothing on the page's thread but receiving the rows.
  */
-import { WindowFiguresCache } from '../domain/window-figures-cache';
 import type { ContextProfile } from '../domain/context-profile';
 import { rankPortfolio } from '../domain/portfolio-ranking';
-import type {
-  FiguresCache,
-  PortfolioRecords,
-  ProcessRow,
-  RankingOrder,
-  RankingWeights
-} from '../domain/portfolio-terms';
-import { readPortfolio } from '../storage/portfolio-reader';
+import type { ProcessRow, RankingOrder, RankingWeights } from '../domain/portfolio-terms';
+import { servePortfolioRequests, type PortfolioWorkerRequest } from './portfolio-worker-loop';
 
-export interface PortfolioRankingRequest {
-  id: number;
-  databaseName: string;
-  /** Read the records again: the page saw its tables change since the last request. */
-  reload: boolean;
+export interface PortfolioRankingRequest extends PortfolioWorkerRequest {
   endPeriod: string;
   windowMonths: number;
   order: RankingOrder;
@@ -41,32 +30,12 @@ export type PortfolioRankingMessage =
     }
   | { id: number; type: 'error'; message: string };
 
-const scope = self as unknown as DedicatedWorkerGlobalScope;
-const cache: FiguresCache = new WindowFiguresCache();
-let records: PortfolioRecords | undefined;
+type Done = Extract<PortfolioRankingMessage, { type: 'done' }>;
 
-scope.onmessage = async (event: MessageEvent<PortfolioRankingRequest>) => {
-  const { id, databaseName, reload, endPeriod, windowMonths, order, weights, profiles } = event.data;
-  const started = performance.now();
-  try {
-    let persist: (() => Promise<void>) | undefined;
-    if (reload || !records) ({ records, persist } = await readPortfolio(databaseName));
-    const rows = rankPortfolio(records, profiles, { endPeriod, windowMonths, order, weights, cache });
-    scope.postMessage({
-      id,
-      type: 'done',
-      rows,
-      processes: records.processes.length,
-      sites: records.sites.length,
-      ms: performance.now() - started
-    } satisfies PortfolioRankingMessage);
-    // The read model is stored once the answer is on its way; a failure only means the next visit catches up.
-    await persist?.().catch(() => undefined);
-  } catch (error) {
-    scope.postMessage({
-      id,
-      type: 'error',
-      message: error instanceof Error ? error.message : String(error)
-    } satisfies PortfolioRankingMessage);
-  }
-};
+servePortfolioRequests<PortfolioRankingRequest, Omit<Done, 'id' | 'type' | 'ms'>>(
+  (records, { endPeriod, windowMonths, order, weights, profiles }, cache) => ({
+    rows: rankPortfolio(records, profiles, { endPeriod, windowMonths, order, weights, cache }),
+    processes: records.processes.length,
+    sites: records.sites.length
+  })
+);

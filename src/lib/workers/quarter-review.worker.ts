@@ -6,22 +6,16 @@
  * page and keeps the window figures of earlier requests, so a note, a site filter or another quarter re-judges
  * from what it already knows.
  */
-import { WindowFiguresCache } from '../domain/window-figures-cache';
 import type { ContextProfile } from '../domain/context-profile';
-import type { FiguresCache, PortfolioRecords } from '../domain/portfolio-terms';
 import { quarterCoverage, type QuarterCoverage } from '../domain/quarter-coverage';
 import { buildQuarterReview } from '../domain/quarter-review';
 import { statisticsOf } from '../domain/monthly-statistics';
 import type { ReportingCurrency } from '../domain/reporting-currency';
 import type { ReviewFigures } from '../domain/review-figures';
 import type { Site } from '../domain/site';
-import { readPortfolio } from '../storage/portfolio-reader';
+import { servePortfolioRequests, type PortfolioWorkerRequest } from './portfolio-worker-loop';
 
-export interface QuarterReviewRequest {
-  id: number;
-  databaseName: string;
-  /** Read the records again: the page saw its tables change since the last request. */
-  reload: boolean;
+export interface QuarterReviewRequest extends PortfolioWorkerRequest {
   quarter: string;
   siteIds: string[];
   profiles: readonly ContextProfile[];
@@ -40,37 +34,17 @@ export type QuarterReviewMessage =
     }
   | { id: number; type: 'error'; message: string };
 
-const scope = self as unknown as DedicatedWorkerGlobalScope;
-const cache: FiguresCache = new WindowFiguresCache();
-let records: PortfolioRecords | undefined;
+type Done = Extract<QuarterReviewMessage, { type: 'done' }>;
 
-scope.onmessage = async (event: MessageEvent<QuarterReviewRequest>) => {
-  const { id, databaseName, reload, quarter, siteIds, profiles, reporting } = event.data;
-  const started = performance.now();
-  try {
-    let persist: (() => Promise<void>) | undefined;
-    if (reload || !records) ({ records, persist } = await readPortfolio(databaseName));
-    const figures = buildQuarterReview(records, profiles, {
+servePortfolioRequests<QuarterReviewRequest, Omit<Done, 'id' | 'type' | 'ms'>>(
+  (records, { quarter, siteIds, profiles, reporting }, cache) => ({
+    figures: buildQuarterReview(records, profiles, {
       quarter,
       siteIds,
       cache,
       ...(reporting ? { reporting } : {})
-    });
-    scope.postMessage({
-      id,
-      type: 'done',
-      figures,
-      coverage: quarterCoverage(records, statisticsOf(records), quarter),
-      sites: [...records.sites].sort((a, b) => a.name.localeCompare(b.name)),
-      ms: performance.now() - started
-    } satisfies QuarterReviewMessage);
-    // The read model is stored once the answer is on its way; a failure only means the next visit catches up.
-    await persist?.().catch(() => undefined);
-  } catch (error) {
-    scope.postMessage({
-      id,
-      type: 'error',
-      message: error instanceof Error ? error.message : String(error)
-    } satisfies QuarterReviewMessage);
-  }
-};
+    }),
+    coverage: quarterCoverage(records, statisticsOf(records), quarter),
+    sites: [...records.sites].sort((a, b) => a.name.localeCompare(b.name))
+  })
+);
