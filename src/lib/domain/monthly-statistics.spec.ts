@@ -49,6 +49,21 @@ const writeArb = fc.record({
   batchEnd: fc.boolean()
 });
 
+/** A live study of characteristic c0. */
+function plainStudy(id: string, period: string, data: StudyData): Study {
+  return {
+    id,
+    rev: 1,
+    createdAt: '',
+    updatedAt: '',
+    deviceId: 'd',
+    characteristicId: 'c0',
+    period,
+    enteredBy: '',
+    data
+  };
+}
+
 /** Every non-empty cell as plain values, keyed by characteristic and month. */
 function cellsOf(model: MonthlyStatistics): Map<string, unknown> {
   const out = new Map<string, unknown>();
@@ -169,21 +184,10 @@ describe('monthly statistics read model', () => {
   });
 
   it('skips a study it shows already with the same tag, so re-reading recent writes changes nothing', () => {
-    const studies = ['2026-01', '2026-02'].map(
-      (period, i) =>
-        ({
-          id: `s${i}`,
-          rev: 1,
-          createdAt: '',
-          updatedAt: '',
-          deviceId: 'd',
-          characteristicId: 'c0',
-          period,
-          enteredBy: '',
-          data: { kind: 'defectives', units: 100, defectives: i },
-          localSeq: 10 + i
-        }) as Study & { localSeq: number }
-    );
+    const studies = ['2026-01', '2026-02'].map((period, i) => ({
+      ...plainStudy(`s${i}`, period, { kind: 'defectives', units: 100, defectives: i }),
+      localSeq: 10 + i
+    }));
     const tagOf = (s: Study) => (s as Study & { localSeq: number }).localSeq;
     const model = MonthlyStatistics.fromStudies(studies, tagOf);
     const version = model.version;
@@ -200,18 +204,8 @@ describe('monthly statistics read model', () => {
   });
 
   it('gives a cell a new stamp whenever it changes, and keeps it otherwise', () => {
-    const study = (id: string, period: string, mean: number): Study =>
-      ({
-        id,
-        rev: 1,
-        createdAt: '',
-        updatedAt: '',
-        deviceId: 'd',
-        characteristicId: 'c0',
-        period,
-        enteredBy: '',
-        data: { kind: 'summary', n: 10, mean, sd: 1 }
-      }) as Study;
+    const study = (id: string, period: string, mean: number) =>
+      plainStudy(id, period, { kind: 'summary', n: 10, mean, sd: 1 });
     const model = MonthlyStatistics.fromStudies([study('a', '2026-01', 1), study('b', '2026-02', 2)]);
     const row = model.rowOf('c0')!;
     const jan = model.cellOf(row, monthOrdinal('2026-01'));

@@ -2,6 +2,7 @@ import { Dexie, type DexieOptions, type Table } from 'dexie';
 import type { Characteristic } from '../domain/characteristic';
 import type { ContextProfileRecord } from '../domain/context-profile-record';
 import type { ImprovementProject } from '../domain/improvement-project';
+import type { MonthlyStatisticsSnapshot } from '../domain/monthly-statistics';
 import type { Process } from '../domain/process';
 import type { QuarterReviewRecord } from '../domain/quarter-review-record';
 import type { Site } from '../domain/site';
@@ -50,27 +51,16 @@ export interface MonthClash {
  * into one text each (one string clones far faster than hundreds of thousands), and the write sequence from
  * which later studies are read as changed. Device-local and derived: deleting it loses nothing.
  */
-export interface StoredReadModel {
+export type StoredReadModel = Omit<MonthlyStatisticsSnapshot, 'format' | 'rowIds' | 'ids' | 'tombstones'> & {
   key: string;
   format: number;
   /** Studies with a `localSeq` above this were written after the model was read (storage/portfolio-reader.ts). */
   since: number;
-  firstMonth: number;
-  span: number;
   rowIds: string;
-  kind: Uint8Array;
-  n: Float64Array;
-  mean: Float64Array;
-  sd: Float64Array;
-  units: Float64Array;
-  count: Float64Array;
-  opportunities: Float64Array;
-  tag: Float64Array;
   ids: string;
-  heldIds: [number, string[]][];
   tombstones: string;
   savedAt: string;
-}
+};
 
 export const DEFAULT_DATABASE_NAME = 'capstan';
 
