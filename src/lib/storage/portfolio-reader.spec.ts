@@ -77,7 +77,8 @@ describe('portfolio reader', () => {
     const after = await readPortfolio(s.databaseName);
     expect(after.source).toBe('stored');
     expect(after.applied).toBeGreaterThanOrEqual(1);
-    // The margin re-reads the last seconds' writes: the demo's load is within it, so more than one may be read.
+    // The margin re-reads writes stamped just before the last read: the demo's load may be within it, so more
+    // than one may be read.
     expect(figuresOf(after.records)).toEqual(figuresOf(await loadPortfolioRecords(databaseOf(s))));
     expect(figuresOf(after.records)).not.toEqual(figuresBefore);
     const again = await readPortfolio(s.databaseName);

@@ -23,13 +23,17 @@ const READ_MODEL_KEY = 'monthly-statistics';
 const READ_MODEL_FORMAT = 1;
 /**
  * Which studies count as "written since": those whose `localSeq` is above the time the last read began, less a
- * margin. IndexedDB runs a read-write transaction on the studies only after a read that began before it, so a
- * write the last read did not see was stamped after that read began — give or take the clocks' jitter between
- * tabs (a tab's sequence may run ahead of its clock in a burst, never behind it). Two seconds cover the jitter,
- * and a study applied twice changes nothing. A wall clock found behind the last read (set back) means a rebuild;
- * a study added behind the sequence's back changes the row count, which means a rebuild too.
+ * margin. A write the last read did not see belongs to a read-write transaction created after that read's
+ * (IndexedDB runs an overlapping read-write transaction created earlier before the read, which then sees it),
+ * and every put in it is stamped after its transaction was created — so after the read began, by the one wall
+ * clock every tab and worker of this browser reads (a tab's sequence may run ahead of that clock in a burst,
+ * never behind it). The margin covers only rounding between threads' readings of that clock; it is kept small
+ * because every study stamped within it is read again: a 2-second margin re-read the last 11 000 studies of a
+ * large merge on the next portfolio visit. A study applied twice changes nothing. A wall clock found behind the
+ * last read (set back) means a rebuild; a study added behind the sequence's back changes the row count, which
+ * means a rebuild too.
  */
-const SEQ_MARGIN_MS = 2_000;
+const SEQ_MARGIN_MS = 250;
 
 interface Feed {
   db: CapstanDatabase;

@@ -1,9 +1,9 @@
 import type { RulingMeasure } from '../domain/context-profile';
-import type { CharacteristicRow } from '../domain/portfolio-ranking';
+import type { RulingFigure } from '../domain/portfolio-list-row';
 import { formatIndex, formatPpm } from './capability-format';
 
 /** "Cpk 1.12 (bound 0.98) vs 1.33", in the unit of the measure that rules the context. */
-export function rulingText(row: CharacteristicRow, measure: RulingMeasure | undefined): string {
+export function rulingText(row: RulingFigure, measure: RulingMeasure | undefined): string {
   if (row.estimate === undefined) return '–';
   const bound =
     row.bound !== undefined
@@ -23,3 +23,6 @@ export function rulingText(row: CharacteristicRow, measure: RulingMeasure | unde
       return '–';
   }
 }
+
+/** The tag colour of a status: short warns, shown meeting is good, the rest plain. */
+export const statusClass = (s: string) => (s === 'short' ? 'warn' : s === 'meets, shown' ? 'good' : '');

@@ -1,15 +1,50 @@
-import type { PortfolioRankingMessage, PortfolioRankingRequest } from '../workers/portfolio-ranking.worker';
-import { workerService, type WorkerService } from './worker-service';
+import type { PortfolioFilters } from '../domain/portfolio-filters';
+import type { ProcessRow } from '../domain/portfolio-terms';
+import type {
+  CsvAsked,
+  PortfolioRankingMessage,
+  RankingAnswer,
+  RankingAsked,
+  RowAsked
+} from '../workers/portfolio-ranking.worker';
+import type { PortfolioWorkerRequest } from '../workers/portfolio-worker-loop';
+import { workerService } from './worker-service';
 
-export type PortfolioRankingAnswer = Extract<PortfolioRankingMessage, { type: 'done' }>;
+type Done = Extract<PortfolioRankingMessage, { type: 'done' }>;
 
-/** The portfolio page's worker (workers/portfolio-ranking.worker.ts), kept for the page's visit. */
-export function portfolioRankingWorker(): WorkerService<
-  Omit<PortfolioRankingRequest, 'id'>,
-  PortfolioRankingAnswer
-> {
-  return workerService(
+/** The ranked list as the page receives it, with the time the worker took. */
+export type PortfolioRankingAnswer = RankingAnswer & { ms: number };
+
+export interface PortfolioRanker {
+  rank: (
+    request: RankingAsked & { databaseName: string; reload: boolean }
+  ) => Promise<PortfolioRankingAnswer>;
+  /** The full row of one process of the last ranking; undefined if it was not ranked. */
+  row: (databaseName: string, processId: string) => Promise<ProcessRow | undefined>;
+  /** The last ranking's rows the filters let through, as CSV. */
+  csv: (databaseName: string, filters: PortfolioFilters) => Promise<string>;
+  close: () => void;
+}
+
+/**
+ * The portfolio page's worker (workers/portfolio-ranking.worker.ts), kept for the page's visit. Requests are
+ * answered in order, so a row or the CSV asked after a ranking comes from that ranking.
+ */
+export function portfolioRankingWorker(): PortfolioRanker {
+  const service = workerService<
+    Omit<PortfolioWorkerRequest, 'id'> & (RankingAsked | RowAsked | CsvAsked),
+    Done
+  >(
     () => new Worker(new URL('../workers/portfolio-ranking.worker.ts', import.meta.url), { type: 'module' }),
     'The portfolio could not be ranked'
   );
+  return {
+    rank: async (request) => (await service.ask(request)) as Done & PortfolioRankingAnswer,
+    row: async (databaseName, processId) =>
+      ((await service.ask({ databaseName, reload: false, ask: 'row', processId })) as { row?: ProcessRow })
+        .row,
+    csv: async (databaseName, filters) =>
+      ((await service.ask({ databaseName, reload: false, ask: 'csv', filters })) as { csv: string }).csv,
+    close: service.close
+  };
 }

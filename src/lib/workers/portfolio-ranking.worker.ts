@@ -2,40 +2,66 @@
 /**
  * The portfolio ranked away from the page: the worker reads the records from IndexedDB itself
  * (storage/portfolio-reader.ts) when the page says they changed, keeps them and the window figures between
- * requests, and posts back only the ranked rows. A change of window, order, weight or target then costs a
- * re-judgement and a sort here, and nothing on the page's thread but receiving the rows.
+ * requests, and posts back the ranked list's rows (domain/portfolio-list-row.ts), not the full rows. A change
+ * of window, order, weight or target then costs a re-judgement and a sort here, and nothing on the page's
+ * thread but receiving the list. The full rows of the last ranking stay here: one of them is sent when the
+ * page opens its details, and the CSV of the filtered list is written here.
  */
 import type { ContextProfile } from '../domain/context-profile';
+import { filterRows, type PortfolioFilters } from '../domain/portfolio-filters';
+import { listRowOf, type PortfolioListRow } from '../domain/portfolio-list-row';
 import { rankPortfolio } from '../domain/portfolio-ranking';
 import type { ProcessRow, RankingOrder, RankingWeights } from '../domain/portfolio-terms';
+import { portfolioCsv } from '../spreadsheet/portfolio-csv';
 import { servePortfolioRequests, type PortfolioWorkerRequest } from './portfolio-worker-loop';
 
-export interface PortfolioRankingRequest extends PortfolioWorkerRequest {
+export interface RankingAsked {
+  ask: 'rank';
   endPeriod: string;
   windowMonths: number;
   order: RankingOrder;
   weights: RankingWeights;
   profiles: readonly ContextProfile[];
 }
+/** The full row of one process of the last ranking (its details panel). */
+export interface RowAsked {
+  ask: 'row';
+  processId: string;
+}
+/** The last ranking's rows the filters let through, as CSV. */
+export interface CsvAsked {
+  ask: 'csv';
+  filters: PortfolioFilters;
+}
+
+export type PortfolioRankingRequest = PortfolioWorkerRequest & (RankingAsked | RowAsked | CsvAsked);
+
+export interface RankingAnswer {
+  rows: PortfolioListRow[];
+  /** Live processes and sites stored, ranked or not (the page's empty states). */
+  processes: number;
+  sites: number;
+}
 
 export type PortfolioRankingMessage =
-  | {
-      id: number;
-      type: 'done';
-      rows: ProcessRow[];
-      /** Live processes and sites stored, ranked or not (the page's empty states). */
-      processes: number;
-      sites: number;
-      ms: number;
-    }
+  | ({ id: number; type: 'done'; ms: number } & (
+      RankingAnswer | { row: ProcessRow | undefined } | { csv: string }
+    ))
   | { id: number; type: 'error'; message: string };
 
-type Done = Extract<PortfolioRankingMessage, { type: 'done' }>;
+let last: { rows: ProcessRow[]; endPeriod: string; windowMonths: number } | undefined;
 
-servePortfolioRequests<PortfolioRankingRequest, Omit<Done, 'id' | 'type' | 'ms'>>(
-  (records, { endPeriod, windowMonths, order, weights, profiles }, cache) => ({
-    rows: rankPortfolio(records, profiles, { endPeriod, windowMonths, order, weights, cache }),
-    processes: records.processes.length,
-    sites: records.sites.length
-  })
-);
+servePortfolioRequests<
+  PortfolioRankingRequest,
+  RankingAnswer | { row: ProcessRow | undefined } | { csv: string }
+>((records, request, cache) => {
+  if (request.ask === 'rank') {
+    const { endPeriod, windowMonths, order, weights, profiles } = request;
+    const rows = rankPortfolio(records, profiles, { endPeriod, windowMonths, order, weights, cache });
+    last = { rows, endPeriod, windowMonths };
+    return { rows: rows.map(listRowOf), processes: records.processes.length, sites: records.sites.length };
+  }
+  if (!last) throw new Error('nothing has been ranked yet');
+  if (request.ask === 'row') return { row: last.rows.find((r) => r.process.id === request.processId) };
+  return { csv: portfolioCsv(filterRows(last.rows, request.filters), last) };
+});

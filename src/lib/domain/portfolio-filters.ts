@@ -1,4 +1,4 @@
-import type { ProcessRow } from '../../domain/portfolio-terms';
+import type { CharacteristicStatus } from './portfolio-terms';
 
 /** What the person filters the ranked portfolio by; empty means "all". */
 export interface PortfolioFilters {
@@ -11,7 +11,17 @@ export interface PortfolioFilters {
 
 export const NO_FILTERS: PortfolioFilters = { site: '', context: '', risk: '', status: '', project: '' };
 
-export function filterRows(rows: readonly ProcessRow[], f: PortfolioFilters): ProcessRow[] {
+/** What filtering reads of a row: the page's list rows and the worker's full rows both have it. */
+interface FilteredRow {
+  site: { id: string };
+  process: { contextId: string };
+  riskClass: string;
+  status: CharacteristicStatus;
+  projects: readonly unknown[];
+}
+
+/** The rows the filters let through, in their order: one rule for the list on screen and its CSV. */
+export function filterRows<Row extends FilteredRow>(rows: readonly Row[], f: PortfolioFilters): Row[] {
   return rows.filter(
     (row) =>
       (!f.site || row.site.id === f.site) &&
@@ -21,5 +31,3 @@ export function filterRows(rows: readonly ProcessRow[], f: PortfolioFilters): Pr
       (!f.project || (f.project === 'with') === row.projects.length > 0)
   );
 }
-
-export const statusClass = (s: string) => (s === 'short' ? 'warn' : s === 'meets, shown' ? 'good' : '');
