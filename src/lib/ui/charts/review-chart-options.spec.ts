@@ -1,6 +1,15 @@
 import { describe, expect, it } from 'vitest';
+import demo from '../../../../seed-data/demo-portfolio.json';
+import { BUILT_IN_PROFILES } from '../../domain/context-profile';
+import { parseDemoPortfolio } from '../../domain/demo-portfolio';
+import { buildQuarterReview } from '../../domain/quarter-review';
 import type { ReviewProcessLine } from '../../domain/review-figures';
-import { paretoRows, zAgainstTargetOption } from './review-chart-options';
+import {
+  movementOption,
+  paretoRows,
+  siteDistributionOption,
+  zAgainstTargetOption
+} from './review-chart-options';
 
 const line = (
   id: string,
@@ -53,5 +62,24 @@ describe('long portfolios', () => {
     const rows = paretoRows(lines, 'EUR');
     expect(rows).toHaveLength(40);
     expect(rows.at(-1)!.cumulative).toBeCloseTo(0.8, 12);
+  });
+
+  it('draws a point per process as one path at company size, and as elements of their own in a small portfolio', () => {
+    const figures = buildQuarterReview(parseDemoPortfolio(demo).records, BUILT_IN_PROFILES, {
+      quarter: '2026-Q3'
+    });
+    type Series = { name: string; large?: boolean; largeThreshold?: number; data: unknown[] };
+    const perProcess = [
+      ...(siteDistributionOption(figures).series as Series[]).filter((x) => x.name === 'process'),
+      ...(movementOption(figures).series as Series[])
+    ];
+    expect(perProcess).toHaveLength(3);
+    for (const series of perProcess) {
+      expect(series.large).toBe(true);
+      // ECharts switches to one path only above the threshold: the demo's points stay elements (tooltips by
+      // name), 2 000 processes do not.
+      expect(series.largeThreshold).toBeGreaterThan(series.data.length);
+      expect(series.largeThreshold).toBeLessThan(2000);
+    }
   });
 });
