@@ -54,8 +54,9 @@ export function sizeProblem(bytes: number): string | undefined {
   return undefined;
 }
 
-async function sha256Hex(text: string): Promise<string> {
-  const digest = await crypto.subtle.digest('SHA-256', new TextEncoder().encode(text));
+async function sha256Hex(content: string | Uint8Array): Promise<string> {
+  const bytes = typeof content === 'string' ? new TextEncoder().encode(content) : content;
+  const digest = await crypto.subtle.digest('SHA-256', bytes as BufferSource);
   return Array.from(new Uint8Array(digest), (b) => b.toString(16).padStart(2, '0')).join('');
 }
 
@@ -202,18 +203,35 @@ export async function decodeExchangeFile(
     throw new ExchangeFileError(jsonProblem(text, e));
   }
   onStage('verifying');
-  return checkParsed(parsed, text, nowMs);
+  return checkParsed(parsed, text, bytes, nowMs);
 }
 
 /**
- * The text the writer hashed, when the file is exactly as written: everything before the final
- * `,"sha256":"…"}`. Hashing it directly spares re-serialising a large file; a file that was re-indented or
- * otherwise rewritten falls back to the canonical form.
+ * The SHA-256 of the bytes the writer hashed, when the file is exactly as written: everything before the final
+ * `,"sha256":"…"}`, closed with `}`. Hashing the file's own bytes spares encoding the text again (a fifth of
+ * `check`'s time on a 30 MB file) and re-serialising it. The closing brace is written for a moment over the
+ * tail's first byte, so that the digest reads one view of the file (it copies its input as it is called) and no
+ * 30 MB copy is made here; the byte is put back before anything else runs. Undefined when the file was
+ * re-indented or otherwise rewritten, or ends in white space other than ASCII: the canonical form then gives
+ * the answer. `bytes` is valid UTF-8 (the text was decoded from it strictly), so these are the bytes of that
+ * text.
  */
-function asWritten(text: string, sha256: string): string | undefined {
-  const tail = `,"sha256":"${sha256}"}`;
-  const trimmed = text.trimEnd();
-  return trimmed.endsWith(tail) ? `${trimmed.slice(0, -tail.length)}}` : undefined;
+async function writtenHash(bytes: Uint8Array, sha256: string): Promise<string | undefined> {
+  const start = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
+  let end = bytes.length;
+  while (end > start && [0x20, 0x09, 0x0a, 0x0d].includes(bytes[end - 1]!)) end -= 1;
+  const tail = new TextEncoder().encode(`,"sha256":"${sha256}"}`);
+  const bodyEnd = end - tail.length;
+  if (bodyEnd <= start) return undefined;
+  for (let i = 0; i < tail.length; i += 1) if (bytes[bodyEnd + i] !== tail[i]) return undefined;
+  let digest: Promise<string>;
+  bytes[bodyEnd] = 0x7d; // }
+  try {
+    digest = sha256Hex(bytes.subarray(start, bodyEnd + 1));
+  } finally {
+    bytes[bodyEnd] = tail[0]!;
+  }
+  return digest;
 }
 
 /** Path of a schema problem, naming the record (kind, index and id) when it lies inside one. */
@@ -227,7 +245,12 @@ function problemPlace(parsed: unknown, path: readonly (string | number)[]): stri
   return pathText(path);
 }
 
-async function checkParsed(parsed: unknown, text: string, nowMs: number): Promise<ChangeSet> {
+async function checkParsed(
+  parsed: unknown,
+  text: string,
+  bytes: Uint8Array,
+  nowMs: number
+): Promise<ChangeSet> {
   const structural = structuralProblem(parsed, MAX_RECORDS_PER_KIND) ?? duplicateKeyProblem(text);
   if (structural) throw new ExchangeFileError(structural);
   const top = parsed as Record<string, unknown>;
@@ -263,8 +286,11 @@ async function checkParsed(parsed: unknown, text: string, nowMs: number): Promis
     );
   }
   const { sha256, ...rest } = top;
-  const written = asWritten(text, sha256);
-  let matches = written !== undefined && (await sha256Hex(written)) === sha256;
+  // The digest of the bytes as written runs off this thread (Web Crypto): the schema is checked meanwhile, and
+  // its verdict given only once the hash has been found to match — a damaged file is named as damaged first.
+  const writtenDigest = writtenHash(bytes, sha256);
+  const result = exchangeFileSchema.safeParse(restore(parsed as Record<string, unknown>));
+  let matches = (await writtenDigest) === sha256;
   if (!matches) {
     let body: string;
     try {
@@ -279,7 +305,6 @@ async function checkParsed(parsed: unknown, text: string, nowMs: number): Promis
       'The content hash does not match: the file was changed or damaged after it was exported'
     );
   }
-  const result = exchangeFileSchema.safeParse(restore(parsed as Record<string, unknown>));
   if (!result.success) {
     const issues = result.error.issues;
     const first = issues[0]!;

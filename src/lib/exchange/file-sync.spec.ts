@@ -50,6 +50,27 @@ describe('exchange files between devices', () => {
     ).rejects.toThrow('content hash does not match');
   });
 
+  it('verifies a file as written by its own bytes — with a byte-order mark, a trailing newline, names beyond ASCII — and catches one changed byte', async () => {
+    const a = await device('a');
+    await a.sites.create({ name: 'Usine Nord-Est — Zürich', region: 'Nørre', timeZone: 'UTC' });
+    const bytes = await exportBytes(a);
+    const wrapped = new Uint8Array([0xef, 0xbb, 0xbf, ...bytes, 0x0d, 0x0a]);
+    // The canonical fallback must not be needed: spy on the one place it serialises again.
+    const canonical = await import('../domain/canonical-json');
+    const spy = vi.spyOn(canonical, 'canonicalJson');
+    const reread = await decodeExchangeFile(wrapped);
+    expect(reread.records.sites[0]?.name).toBe('Usine Nord-Est — Zürich');
+    expect(reread).toEqual(await decodeExchangeFile(bytes));
+    // The byte of the 'N' after the multi-byte characters before it: "Nørre" becomes "Mørre", still valid JSON.
+    const text = new TextDecoder().decode(bytes);
+    const at = new TextEncoder().encode(text.slice(0, text.indexOf('"Nørre"') + 1)).length;
+    const changed = Uint8Array.from(bytes);
+    expect(changed[at]).toBe('N'.charCodeAt(0));
+    changed[at] = 'M'.charCodeAt(0);
+    await expect(decodeExchangeFile(changed)).rejects.toThrow('content hash does not match');
+    expect(spy).toHaveBeenCalledTimes(1); // only for the changed file, whose bytes did not match
+  });
+
   it('carries quarterly reviews — notes and frozen figures — to another device', async () => {
     const a = await device('a');
     await a.loadDemo(demo);
