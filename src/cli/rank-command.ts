@@ -111,6 +111,8 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
   return 0;
 }
 
+const EXCHANGE_START = new RegExp(`^\\uFEFF?\\s*\\{\\s*"format"\\s*:\\s*"${EXCHANGE_FORMAT}"`);
+
 /**
  * Reads an exchange file (gzip or not; tombstones left out, its context profiles laid over the built-in ones)
  * or the demo portfolio file.
@@ -124,14 +126,16 @@ async function readPortfolio(file: string) {
   }
   const gzip = bytes[0] === 0x1f && bytes[1] === 0x8b;
   let json: unknown;
-  if (!gzip) {
+  // An exchange file as written (or re-indented) starts with its format: read it once, by the exchange reader,
+  // rather than parsing 30 MB here first only to learn what it is. Anything else is parsed to find out.
+  if (!gzip && !EXCHANGE_START.test(bytes.subarray(0, 200).toString('utf8'))) {
     try {
       json = JSON.parse(bytes.toString('utf8'));
     } catch (error) {
       throw new UsageError(`'${file}' is not JSON: ${(error as Error).message}`);
     }
   }
-  if (gzip || (json as { format?: unknown } | null)?.format === EXCHANGE_FORMAT) {
+  if (json === undefined || (json as { format?: unknown } | null)?.format === EXCHANGE_FORMAT) {
     const { records } = await readExchangeFile(file);
     return {
       records: {

@@ -407,6 +407,23 @@ describe('capstan check and merge', async () => {
     expect(fromExchange.rows).toEqual(fromDemo.rows);
   });
 
+  it('rank reads an exchange file however it is laid out: as written, re-indented with a byte-order mark, or with its keys in another order', async () => {
+    const written = readFileSync(basePath, 'utf8');
+    const parsed = JSON.parse(written) as Record<string, unknown>;
+    const indented = file('indented.capstan.json', `\uFEFF\n  ${JSON.stringify(parsed, null, 2)}\n`);
+    const { format, ...rest } = parsed;
+    const reordered = file('reordered.capstan.json', JSON.stringify({ ...rest, format }));
+    const rows = async (path: string) => {
+      const r = await run('rank', path, '--json');
+      expect(r.code).toBe(0);
+      return JSON.parse(r.out).rows as unknown[];
+    };
+    const expected = await rows(basePath);
+    expect(expected.length).toBeGreaterThan(0);
+    expect(await rows(indented)).toEqual(expected);
+    expect(await rows(reordered)).toEqual(expected);
+  });
+
   it('runs check and merge as `npm run -s cli` with exit codes 2 and 3', () => {
     const bad = spawnSync(
       'npm',
