@@ -226,7 +226,7 @@ export async function companyScaleRows(browser: Browser, work: string): Promise<
       target: 'with the merge ≤ 5 s'
     });
     rows.push({
-      name: `  … merged into the empty database (one transaction, written 1,000 records at a time); ${taskWords(mergeSeen.longTasks)}`,
+      name: `  … merged into the empty database (one transaction, written 250 records at a time); ${taskWords(mergeSeen.longTasks)}`,
       size,
       ms: merged,
       peakMB: mergeSeen.peakHeapMB
