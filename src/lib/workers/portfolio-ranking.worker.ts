@@ -43,18 +43,15 @@ export interface RankingAnswer {
   sites: number;
 }
 
+/** What each kind of request is answered with. */
+type Answer = RankingAnswer | { row: ProcessRow | undefined } | { csv: string };
+
 export type PortfolioRankingMessage =
-  | ({ id: number; type: 'done'; ms: number } & (
-      RankingAnswer | { row: ProcessRow | undefined } | { csv: string }
-    ))
-  | { id: number; type: 'error'; message: string };
+  ({ id: number; type: 'done'; ms: number } & Answer) | { id: number; type: 'error'; message: string };
 
 let last: { rows: ProcessRow[]; endPeriod: string; windowMonths: number } | undefined;
 
-servePortfolioRequests<
-  PortfolioRankingRequest,
-  RankingAnswer | { row: ProcessRow | undefined } | { csv: string }
->((records, request, cache) => {
+servePortfolioRequests<PortfolioRankingRequest, Answer>((records, request, cache) => {
   if (request.ask === 'rank') {
     const { endPeriod, windowMonths, order, weights, profiles } = request;
     const rows = rankPortfolio(records, profiles, { endPeriod, windowMonths, order, weights, cache });
