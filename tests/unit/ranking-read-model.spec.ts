@@ -327,8 +327,10 @@ describe('the indexed, cached ranking gives the figures of a plain record-by-rec
           const plain = [...plainRanking(records, end, 3, 3).values()];
           const reviewed = plain.filter((r) => r.status !== 'no recent data');
           const meeting = reviewed.filter((r) => r.status !== 'short').length;
+          const shown = reviewed.filter((r) => r.status === 'meets, shown').length;
           expect(point.reviewed).toBe(reviewed.length);
           close(point.share, reviewed.length ? meeting / reviewed.length : undefined);
+          close(point.shareShown, reviewed.length ? shown / reviewed.length : undefined);
         }
         const plainNow = [...plainRanking(records, '2026-12', 3, 3).values()];
         const cost = plainNow.reduce(

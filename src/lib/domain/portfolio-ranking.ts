@@ -536,13 +536,8 @@ function pooledWindow(
   return undefined;
 }
 
-/** Ranks the portfolio; ties broken by zGap (lower first), cost (higher first), process name, then id. */
-export function rankPortfolio(
-  records: PortfolioRecords,
-  profiles: readonly ContextProfile[],
-  options: RankingOptions
-): ProcessRow[] {
-  const weights = options.weights ?? DEFAULT_WEIGHTS;
+/** What every pass over the portfolio needs: the months, the index, the read model and its prepared windows. */
+function rankingContext(records: PortfolioRecords, options: RankingOptions) {
   const trendMonths = options.trendMonths ?? 12;
   const end = monthOrdinal(options.endPeriod);
   const months = {
@@ -552,42 +547,90 @@ export function rankPortfolio(
     trendFirstMonth: end - (trendMonths - 1),
     trendMonths
   };
-  const index = portfolioIndex(records);
   const model = statisticsOf(records);
-  const prepared = preparedFor(
+  return {
+    months,
     model,
-    records.characteristics,
-    `${options.endPeriod}|${options.windowMonths}|${trendMonths}`
-  );
+    index: portfolioIndex(records),
+    prepared: preparedFor(
+      model,
+      records.characteristics,
+      `${options.endPeriod}|${options.windowMonths}|${trendMonths}`
+    )
+  };
+}
 
-  const rows: ProcessRow[] = [];
+/** Each live process of a site, with its prepared windows and its context profile. */
+function* judgedProcesses(
+  records: PortfolioRecords,
+  profiles: readonly ContextProfile[],
+  options: RankingOptions
+) {
+  const { months, model, index, prepared } = rankingContext(records, options);
   for (const process of records.processes) {
     if (process.deletedAt || process.archivedAt) continue;
     const site = index.sites.get(process.siteId);
     if (!site) continue;
-    const profile = profileFor(profiles, process.contextId);
-    const shift = shortTermShift(profile);
     const chars = index.characteristics.get(process.id) ?? [];
     let windows = prepared.get(process.id);
     if (!windows) prepared.set(process.id, (windows = prepareProcess(chars, model, options, months)));
+    yield { process, site, windows, profile: profileFor(profiles, process.contextId), index };
+  }
+}
+
+/**
+ * A process's characteristics judged: their rows, the process's status (the worst of theirs), the weakest
+ * (smallest gap) and whether any with data is not shown to meet its target.
+ */
+function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefined) {
+  const rows: CharacteristicRow[] = [];
+  let status: CharacteristicStatus = 'no recent data';
+  let weakest: CharacteristicRow | undefined;
+  let notShown = 0;
+  for (const w of windows.characteristics) {
+    const r = judgePrepared(w.input, profile);
+    if (w.limitsChanged) r.badges.push('limits changed');
+    rows.push(r);
+    if (r.status !== 'no recent data' && STATUS_RANK[r.status] < STATUS_RANK[status]) status = r.status;
+    if (!r.result) continue;
+    if (!weakest || (r.zGap ?? Infinity) < (weakest.zGap ?? Infinity)) weakest = r;
+    if (r.status !== 'meets, shown') notShown = 1;
+  }
+  return { rows, status, weakest, notShown };
+}
+
+/**
+ * Only the status of each live process, in the records' order: what a quarter of the review's trend needs.
+ * The same judging as rankPortfolio's, without building, badging and sorting rows (ten quarters of full rows
+ * were most of the review's time and memory at company size).
+ */
+export function portfolioStatuses(
+  records: PortfolioRecords,
+  profiles: readonly ContextProfile[],
+  options: RankingOptions
+): CharacteristicStatus[] {
+  const statuses: CharacteristicStatus[] = [];
+  for (const { windows, profile } of judgedProcesses(records, profiles, options))
+    statuses.push(judgeProcess(windows, profile).status);
+  return statuses;
+}
+
+/** Ranks the portfolio; ties broken by zGap (lower first), cost (higher first), process name, then id. */
+export function rankPortfolio(
+  records: PortfolioRecords,
+  profiles: readonly ContextProfile[],
+  options: RankingOptions
+): ProcessRow[] {
+  const weights = options.weights ?? DEFAULT_WEIGHTS;
+  const rows: ProcessRow[] = [];
+  for (const { process, site, windows, profile, index } of judgedProcesses(records, profiles, options)) {
+    const shift = shortTermShift(profile);
     const variant: BadgeVariant = !profile
       ? 'none'
       : profile.reporting === 'short-term'
         ? 'short-term'
         : 'long-term';
-    const charRows: CharacteristicRow[] = [];
-    let status: CharacteristicStatus = 'no recent data';
-    let weakest: CharacteristicRow | undefined;
-    let notShown = 0;
-    for (const w of windows.characteristics) {
-      const r = judgePrepared(w.input, profile);
-      if (w.limitsChanged) r.badges.push('limits changed');
-      charRows.push(r);
-      if (r.status !== 'no recent data' && STATUS_RANK[r.status] < STATUS_RANK[status]) status = r.status;
-      if (!r.result) continue;
-      if (!weakest || (r.zGap ?? Infinity) < (weakest.zGap ?? Infinity)) weakest = r;
-      if (r.status !== 'meets, shown') notShown = 1;
-    }
+    const { rows: charRows, status, weakest, notShown } = judgeProcess(windows, profile);
     const riskClass = windows.riskClass;
     // One object literal with every field (undefined where not known): rows built field by field went through
     // a dozen shapes each, a third of a recompute at company size.

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import demo from '../../../seed-data/demo-portfolio.json';
 import { BUILT_IN_PROFILES } from './context-profile';
 import { parseDemoPortfolio } from './demo-portfolio';
-import type { ProcessRow } from './portfolio-ranking';
+import { portfolioStatuses, rankPortfolio, type ProcessRow } from './portfolio-ranking';
 import { buildQuarterReview, headlineOf, shiftQuarter } from './quarter-review';
 import { reviewFiguresSchema } from './review-figures';
 
@@ -70,6 +70,22 @@ describe('quarterly review', () => {
     const scoped = buildQuarterReview(records, BUILT_IN_PROFILES, { quarter: '2026-Q3', siteIds: [one.id] });
     expect(scoped.sites.map((s) => s.siteId)).toEqual([one.id]);
     expect(scoped.headline.processes).toBe(records.processes.filter((p) => p.siteId === one.id).length);
+  });
+});
+
+describe('the trend quarters judged by status only', () => {
+  it("gives each live process the status its full ranking row has, in the records' order", () => {
+    const records = parseDemoPortfolio(demo).records;
+    for (const endPeriod of ['2025-03', '2026-06', '2026-09']) {
+      const options = { endPeriod, windowMonths: 3, trendMonths: 0 };
+      const rows = rankPortfolio(records, BUILT_IN_PROFILES, options);
+      const byId = new Map(rows.map((r) => [r.process.id, r.status]));
+      const live = records.processes.filter((p) => !p.deletedAt && !p.archivedAt);
+      const statuses = portfolioStatuses(records, BUILT_IN_PROFILES, options);
+      expect(statuses).toEqual(live.map((p) => byId.get(p.id)));
+      // The demo has every status in these quarters, so the comparison above is not between empty lists.
+      expect(new Set(statuses).size).toBeGreaterThan(2);
+    }
   });
 });
 

@@ -8,9 +8,12 @@ import { addMonths, periodsOfQuarter, quarterOf } from './period';
 import { moneyTotals, ratesStatement, type ReportingCurrency } from './reporting-currency';
 import {
   BADGE_EXPLANATIONS,
+  portfolioStatuses,
   rankPortfolio,
   type Badge,
   type CharacteristicRow,
+  type CharacteristicStatus,
+  type RankingOptions,
   type FiguresCache,
   type PortfolioRecords,
   type ProcessRow
@@ -44,7 +47,30 @@ export function shiftQuarter(quarter: string, quarters: number): string {
   return quarterOf(addMonths(periodsOfQuarter(quarter)[0]!, 3 * quarters));
 }
 
-const MEETS = new Set(['meets, shown', 'meets, not shown']);
+const MEETS = new Set<CharacteristicStatus>(['meets, shown', 'meets, not shown']);
+
+/** How many processes were reviewed (had data in the quarter) and how many of them meet their target. */
+function meetingOf(statuses: Iterable<CharacteristicStatus>) {
+  let processes = 0;
+  let reviewed = 0;
+  let meeting = 0;
+  let meetingShown = 0;
+  for (const status of statuses) {
+    processes += 1;
+    if (status === 'no recent data') continue;
+    reviewed += 1;
+    if (MEETS.has(status)) meeting += 1;
+    if (status === 'meets, shown') meetingShown += 1;
+  }
+  return {
+    processes,
+    reviewed,
+    meeting,
+    meetingShown,
+    share: reviewed ? meeting / reviewed : undefined,
+    shareShown: reviewed ? meetingShown / reviewed : undefined
+  };
+}
 
 /**
  * Headline figures of one quarter's rows. `reviewed` counts processes with data in the quarter; shares are of
@@ -57,16 +83,15 @@ export function headlineOf(
   reporting?: ReportingCurrency
 ): ReviewHeadline {
   const reviewed = rows.filter((r) => r.status !== 'no recent data');
-  const meeting = reviewed.filter((r) => MEETS.has(r.status)).length;
-  const meetingShown = reviewed.filter((r) => r.status === 'meets, shown').length;
+  const m = meetingOf(rows.map((r) => r.status));
   return {
     quarter,
-    processes: rows.length,
-    reviewed: reviewed.length,
-    meeting,
-    meetingShown,
-    share: reviewed.length ? meeting / reviewed.length : undefined,
-    shareShown: reviewed.length ? meetingShown / reviewed.length : undefined,
+    processes: m.processes,
+    reviewed: m.reviewed,
+    meeting: m.meeting,
+    meetingShown: m.meetingShown,
+    share: m.share,
+    shareShown: m.shareShown,
     ...costsOf(reviewed, reporting),
     stale: reviewed.filter((r) => r.badges.includes('incomplete')).length,
     missing: rows.length - reviewed.length
@@ -175,28 +200,33 @@ export function buildQuarterReview(
 ): ReviewFigures {
   const records = scoped(allRecords, options.siteIds);
   const cache: FiguresCache = options.cache ?? new WindowFiguresCache();
-  const rank = (quarter: string) =>
-    rankPortfolio(records, profiles, {
-      endPeriod: periodsOfQuarter(quarter)[2]!,
-      windowMonths: 3,
-      // The review shows no monthly trend line: none is computed (ten quarters × every characteristic).
-      trendMonths: 0,
-      cache
-    });
+  const rankingOptions = (quarter: string): RankingOptions => ({
+    endPeriod: periodsOfQuarter(quarter)[2]!,
+    windowMonths: 3,
+    // The review shows no monthly trend line: none is computed (ten quarters × every characteristic).
+    trendMonths: 0,
+    cache
+  });
+  const rank = (quarter: string) => rankPortfolio(records, profiles, rankingOptions(quarter));
   const quarter = options.quarter;
   const previousQuarter = shiftQuarter(quarter, -1);
   const yearAgoQuarter = shiftQuarter(quarter, -4);
   const trendQuarters = options.trendQuarters ?? 8;
-  // Rows are kept for the quarters the review shows in detail; of the trend's other quarters only the share is
-  // kept (at company size ten quarters of rows were hundreds of megabytes).
+  // Full rows only for the quarters the review shows in detail; of the trend's other quarters only each
+  // process's status is judged (at company size ten quarters of rows were hundreds of megabytes).
+  const detailed = new Set([quarter, previousQuarter, yearAgoQuarter]);
   const ranked = new Map<string, ProcessRow[]>();
   const trend: ReviewFigures['shareTrend'] = [];
   for (let i = trendQuarters - 1; i >= 0; i--) {
     const q = shiftQuarter(quarter, -i);
-    const rows = rank(q);
-    const h = headlineOf(q, rows);
-    trend.push({ quarter: q, reviewed: h.reviewed, share: h.share, shareShown: h.shareShown });
-    if (q === quarter || q === previousQuarter || q === yearAgoQuarter) ranked.set(q, rows);
+    let statuses: CharacteristicStatus[];
+    if (detailed.has(q)) {
+      const rows = rank(q);
+      ranked.set(q, rows);
+      statuses = rows.map((r) => r.status);
+    } else statuses = portfolioStatuses(records, profiles, rankingOptions(q));
+    const m = meetingOf(statuses);
+    trend.push({ quarter: q, reviewed: m.reviewed, share: m.share, shareShown: m.shareShown });
   }
   if (!ranked.has(yearAgoQuarter)) ranked.set(yearAgoQuarter, rank(yearAgoQuarter));
   if (!ranked.has(previousQuarter)) ranked.set(previousQuarter, rank(previousQuarter));
