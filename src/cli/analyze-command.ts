@@ -13,6 +13,7 @@ import {
 } from './cli-arguments';
 import { toJson, toTable } from './figure-report';
 import type { CliIo } from './cli-io';
+import { resolutionOf } from '../lib/domain/figure-format';
 
 /** Every model the command accepts: the engine's list of models, plus automatic choice and the quantile method. */
 export const MODELS: readonly ModelChoice[] = ['auto', ...CANDIDATE_ORDER, 'quantile'];
@@ -94,6 +95,10 @@ export async function analyzeCommand(argv: readonly string[], io: CliIo): Promis
     ...(shift !== undefined ? { shortTermShift: shift } : {}),
     ...(minIndex !== undefined ? { requiredIndex: minIndex } : {})
   });
-  io.stdout(args.flags.has('json') ? toJson(result) : `${csv.columnName} from ${file}\n${toTable(result)}`);
+  io.stdout(
+    args.flags.has('json')
+      ? toJson(result)
+      : `${csv.columnName} from ${file}\n${toTable(result, resolutionOf(csv.values))}`
+  );
   return 0;
 }

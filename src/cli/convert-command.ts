@@ -3,6 +3,7 @@ import { zFromPpm } from '../lib/stats/sigma-level';
 import { numberFlag, parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
 import { toJson } from './figure-report';
+import { formatIndex, formatPpm, formatYield, PRINTED } from '../lib/domain/figure-format';
 
 const KNOWN = ['ppm', 'yield', 'z', 'shift', 'json'];
 
@@ -55,12 +56,13 @@ export function convertCommand(argv: readonly string[], io: CliIo): number {
     io.stdout(toJson(out));
   } else {
     const lines = [
-      `ppm                       ${fraction * 1e6}`,
-      `yield                     ${((1 - fraction) * 100).toPrecision(10)} %`,
-      `z-level (long-term)       ${zLevel}`,
+      `ppm                       ${formatPpm(fraction * 1e6, PRINTED)}`,
+      `yield                     ${formatYield(1 - fraction, PRINTED)}`,
+      `z-level (long-term)       ${formatIndex(zLevel, PRINTED)}`,
       ...(shift !== undefined
-        ? [`short-term sigma level     ${zLevel + shift}  (z-level + ${shift} shift)`]
-        : [])
+        ? [`short-term sigma level     ${formatIndex(zLevel + shift, PRINTED)}  (z-level + ${shift} shift)`]
+        : []),
+      '(figures rounded by the figure policy; --json gives them at full precision)'
     ];
     io.stdout(lines.join('\n'));
   }

@@ -6,9 +6,11 @@ import { readExchangeFile } from './exchange-file-input';
 import { BUILT_IN_PROFILES } from '../lib/domain/context-profile';
 import { parseDemoPortfolio } from '../lib/domain/demo-portfolio';
 import { isPeriod, periodsOfQuarter } from '../lib/domain/period';
+import { countOf, formatCount, formatIndex, PRINTED } from '../lib/domain/figure-format';
 import {
   portfolioColumn,
   portfolioRowObject,
+  writtenCell,
   zWithBasis,
   type PortfolioColumnKey
 } from '../lib/domain/portfolio-columns';
@@ -18,9 +20,6 @@ import { integerFlag, parseArguments, rejectUnknown, stringFlag, UsageError } fr
 import type { CliIo } from './cli-io';
 
 const KNOWN = ['period', 'quarter', 'window', 'json'];
-
-const f = (v: number | undefined, digits = 2) =>
-  v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
 
 export async function rankCommand(argv: readonly string[], io: CliIo): Promise<number> {
   const args = parseArguments(argv, ['json']);
@@ -65,7 +64,7 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
     return 0;
   }
   const lines = [
-    `Portfolio for the ${window} month${window === 1 ? '' : 's'} ending ${endPeriod} (${out.length} processes), highest priority first`,
+    `Portfolio for the ${countOf(window, 'month', 'months', PRINTED)} ending ${endPeriod} (${countOf(out.length, 'process', 'processes', PRINTED)}), highest priority first`,
     ''
   ];
   const printed: PortfolioColumnKey[] = [
@@ -84,19 +83,12 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
     lines.push(
       printed
         .map((k) => {
-          if (k === 'zLevel') return zWithBasis(row, (z) => f(z));
+          if (k === 'zLevel') return zWithBasis(row, (z) => formatIndex(z, PRINTED));
           if (k === 'costPerYear')
             return row.costPerYear === undefined
               ? '–'
-              : `${Math.round(row.costPerYear)} ${row.process.currency}`;
-          const v = portfolioColumn(k).value(row, i + 1);
-          return typeof v === 'number'
-            ? k === 'rank'
-              ? String(v)
-              : f(v)
-            : v === undefined
-              ? '–'
-              : String(v);
+              : `${formatCount(row.costPerYear, PRINTED)} ${row.process.currency}`;
+          return writtenCell(portfolioColumn(k), row, i + 1, PRINTED) || '–';
         })
         .join('\t')
     );

@@ -10,6 +10,8 @@ export interface RulingFigure {
   estimate?: number;
   bound?: number;
   required: number;
+  /** The required level as a z-level (counted data are judged on it where the measure is an index). */
+  requiredZ?: number;
   /** Which index the estimate is, where the measure is an index. */
   result?: { cpk?: number; ppk?: number };
 }
@@ -65,6 +67,7 @@ export function listRowOf(row: ProcessRow): PortfolioListRow {
     };
     if (weakest.estimate !== undefined) figure.estimate = weakest.estimate;
     if (weakest.bound !== undefined) figure.bound = weakest.bound;
+    if (weakest.requiredZ !== undefined) figure.requiredZ = weakest.requiredZ;
     if (weakest.result) {
       const { cpk, ppk } = weakest.result;
       figure.result = {};

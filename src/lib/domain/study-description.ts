@@ -1,42 +1,52 @@
 import { summariseMoments } from '../stats/pooled-moments';
+import {
+  countOf,
+  formatCount,
+  formatMeasured,
+  formatStatistic,
+  PRINTED,
+  resolutionOf
+} from './figure-format';
 import type { StudyData } from './study';
 
 /** How a study's data is described to people: one line, and rows for side-by-side comparison. */
 
-const number = (v: number) =>
-  Number.isInteger(v) ? v.toLocaleString('en') : String(Number(v.toPrecision(6)));
+/** A number as entered: its own decimals, never scientific notation. */
+const number = (v: number) => formatMeasured(v, resolutionOf([v]), PRINTED);
+const count = (v: number) => formatCount(v, PRINTED);
 
 /** The figures of a study's data, as rows a person can compare. */
 export function dataRows(data: StudyData): [string, string][] {
   switch (data.kind) {
     case 'raw': {
       const { mean, sd } = summariseMoments(data.values);
+      const resolution = resolutionOf(data.values);
       return [
-        ['data', `${data.values.length} measured values`],
-        ['n', number(data.values.length)],
-        ['mean', number(mean)],
-        ['sd', number(sd)]
+        ['data', countOf(data.values.length, 'measured value', 'measured values', PRINTED)],
+        ['n', count(data.values.length)],
+        ['mean', formatStatistic(mean, resolution, PRINTED)],
+        ['sd', formatStatistic(sd, resolution, PRINTED)]
       ];
     }
     case 'summary':
       return [
         ['data', 'summary (n, mean, sd)'],
-        ['n', number(data.n)],
+        ['n', count(data.n)],
         ['mean', number(data.mean)],
         ['sd', number(data.sd)]
       ];
     case 'defectives':
       return [
         ['data', 'defective units'],
-        ['units inspected', number(data.units)],
-        ['defective units', number(data.defectives)]
+        ['units inspected', count(data.units)],
+        ['defective units', count(data.defectives)]
       ];
     case 'defects':
       return [
         ['data', 'defects'],
-        ['units inspected', number(data.units)],
-        ['defects', number(data.defects)],
-        ['opportunities per unit', number(data.opportunitiesPerUnit)]
+        ['units inspected', count(data.units)],
+        ['defects', count(data.defects)],
+        ['opportunities per unit', count(data.opportunitiesPerUnit)]
       ];
   }
 }
@@ -45,12 +55,12 @@ export function dataRows(data: StudyData): [string, string][] {
 export function studyDataText(data: StudyData): string {
   switch (data.kind) {
     case 'raw':
-      return `${data.values.length} measured values${data.subgroups ? ` in ${new Set(data.subgroups).size} subgroups` : ''}`;
+      return `${countOf(data.values.length, 'measured value', 'measured values', PRINTED)}${data.subgroups ? ` in ${countOf(new Set(data.subgroups).size, 'subgroup', 'subgroups', PRINTED)}` : ''}`;
     case 'summary':
-      return `summary: n ${number(data.n)}, mean ${number(data.mean)}, sd ${number(data.sd)}`;
+      return `summary: n ${count(data.n)}, mean ${number(data.mean)}, sd ${number(data.sd)}`;
     case 'defectives':
-      return `${number(data.defectives)} defective of ${number(data.units)} units`;
+      return `${count(data.defectives)} defective of ${countOf(data.units, 'unit', 'units', PRINTED)}`;
     case 'defects':
-      return `${number(data.defects)} defects in ${number(data.units)} units × ${data.opportunitiesPerUnit} opportunities`;
+      return `${countOf(data.defects, 'defect', 'defects', PRINTED)} in ${countOf(data.units, 'unit', 'units', PRINTED)} × ${countOf(data.opportunitiesPerUnit, 'opportunity', 'opportunities', PRINTED)}`;
   }
 }

@@ -13,6 +13,7 @@ import { parseFields } from './parse-fields';
 import { periodProblem, type Period } from './period';
 import type { RecordMeta } from './record-meta';
 import { ValidationError } from './validation-error';
+import { resolutionOf } from './figure-format';
 
 /** Individual measurements, in the order taken; `subgroups[i]` names the subgroup of `values[i]`. */
 export interface RawData {
@@ -172,5 +173,21 @@ export function sampleSize(data: StudyData): number {
     case 'defectives':
     case 'defects':
       return data.units;
+  }
+}
+
+/**
+ * The resolution of a measured study's data (decimals, figure-format.ts): of its values; for a summary, one
+ * fewer than its mean and sd were entered with, so that they show as entered (a statistic is written one
+ * decimal finer than its data). Counts have none: 0.
+ */
+export function resolutionOfStudy(data: StudyData): number {
+  switch (data.kind) {
+    case 'raw':
+      return resolutionOf(data.values);
+    case 'summary':
+      return Math.max(0, resolutionOf([data.mean, data.sd]) - 1);
+    default:
+      return 0;
   }
 }

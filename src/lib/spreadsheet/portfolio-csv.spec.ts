@@ -19,6 +19,27 @@ describe('portfolio and study CSV', () => {
     expect(parsed[1]?.[0]).toBe('1');
   });
 
+  it('writes its figures by the figure policy: no scientific notation, no 17-digit floats, numbers stay numbers', () => {
+    const rows = rankPortfolio(records, BUILT_IN_PROFILES, { endPeriod: '2026-09', windowMonths: 3 });
+    const [header, ...body] = Papa.parse<string[]>(
+      portfolioCsv(rows, { endPeriod: '2026-09', windowMonths: 3 }).trim()
+    ).data;
+    const column = (name: string) => body.map((r) => r[header!.indexOf(name)]!);
+    for (const cell of body.flat()) {
+      expect(cell).not.toMatch(/\d[eE][+-]?\d/);
+      expect(cell).not.toMatch(/\.\d{8,}/);
+    }
+    // z-levels to 2 decimals, as on the page; the row's value, rounded, is what the cell says.
+    const z = column('z-level (as reported)');
+    expect(z.filter((c) => c !== '').every((c) => /^-?\d+\.\d\d$/.test(c))).toBe(true);
+    rows.forEach((r, i) => {
+      if (r.zLevel !== undefined) expect(Number(z[i])).toBeCloseTo(r.zLevel, 2);
+      if (r.yield !== undefined) expect(Math.abs(Number(column('yield')[i]) - r.yield)).toBeLessThan(1e-3);
+    });
+    // ppm grouped on the page, plain here: a spreadsheet reads 2865, not "2,865".
+    expect(column('ppm').every((c) => !c.includes(','))).toBe(true);
+  });
+
   it('writes a raw study value by value', () => {
     const raw = records.studies.find((s) => s.data.kind === 'raw')!;
     const parsed = Papa.parse<string[]>(studyCsv(raw, 'Width').trim()).data;

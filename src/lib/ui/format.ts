@@ -1,10 +1,8 @@
 /** Display formatting shared by the pages; one place so every page writes numbers the same way. */
 
-const integer = new Intl.NumberFormat(undefined, { maximumFractionDigits: 0 });
+import { formatCount } from '../domain/figure-format';
 
-export function formatCount(value: number): string {
-  return integer.format(value);
-}
+export { countOf, formatCount } from '../domain/figure-format';
 
 const moneyFormats = new Map<string, Intl.NumberFormat | undefined>();
 
@@ -20,7 +18,7 @@ export function formatMoney(value: number, currency: string): string {
     moneyFormats.set(currency, format);
   }
   const format = moneyFormats.get(currency);
-  return format ? format.format(value) : `${integer.format(value)} ${currency}`;
+  return format ? format.format(value) : `${formatCount(value)} ${currency}`;
 }
 
 export function formatBytes(bytes: number | undefined): string {

@@ -2,9 +2,7 @@ import { formatFixed } from '../capability-format';
 import { formatMoney } from '../format';
 
 /** How the review writes its figures: shares as whole percents, costs per currency, p-values briefly. */
-export function formatShare(share: number | undefined): string {
-  return share === undefined ? '–' : `${Math.round(share * 100)} %`;
-}
+export { formatShare } from '../../domain/figure-format';
 
 /**
  * Amounts per currency side by side ("€8,945 · ₹2,100,000"), never joined by a plus sign: they are not added.
