@@ -9,6 +9,7 @@ import { changeSetOf, encodeExchangeFile } from '../lib/exchange/exchange-file';
 import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
 import { readExchangeFile } from './exchange-file-input';
+import { countOf, PRINTED } from '../lib/domain/figure-format';
 
 declare const __APP_VERSION__: string | undefined;
 
@@ -65,7 +66,7 @@ export async function mergeCommand(argv: readonly string[], io: CliIo): Promise<
     else {
       io.stdout(
         [
-          `${conflicts.length} conflict(s): records changed in both files since they last met. Nothing was written.`,
+          `${countOf(conflicts.length, 'conflict', 'conflicts', PRINTED)}: records changed in both files since they last met. Nothing was written.`,
           ...conflicts.map((c) => `  ${c.title} (${KIND_LABEL[c.kind]} ${c.id}): ${c.question}`),
           'Choose with --prefer newer (later edit wins), base or incoming.'
         ].join('\n')

@@ -11,6 +11,7 @@ import { changeSetOf, encodeExchangeFile } from '../lib/exchange/exchange-file';
 import { readMasterList } from '../lib/spreadsheet/master-list-csv';
 import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
+import { countOf, PRINTED } from '../lib/domain/figure-format';
 
 declare const __APP_VERSION__: string | undefined;
 
@@ -66,7 +67,7 @@ export async function portfolioCommand(argv: readonly string[], io: CliIo): Prom
     if (json) io.stdout(JSON.stringify({ written: false, badRows: plan.badRows }, null, 2));
     io.stderr(
       [
-        `capstan portfolio: ${plan.badRows.length} bad row(s) in ${basename(path)}; nothing was written`,
+        `capstan portfolio: ${countOf(plan.badRows.length, 'bad row', 'bad rows', PRINTED)} in ${basename(path)}; nothing was written`,
         ...plan.badRows.map((b) => `  line ${b.line}: ${b.reasons.join('; ')}`)
       ].join('\n')
     );
@@ -111,7 +112,7 @@ export async function portfolioCommand(argv: readonly string[], io: CliIo): Prom
     );
   else
     io.stdout(
-      `${out}: ${c.newSites} sites, ${c.newProcesses} processes, ${c.newCharacteristics} characteristics ` +
+      `${out}: ${countOf(c.newSites, 'site', 'sites', PRINTED)}, ${countOf(c.newProcesses, 'process', 'processes', PRINTED)}, ${countOf(c.newCharacteristics, 'characteristic', 'characteristics', PRINTED)} ` +
         `(separator ${list.delimiter === '\t' ? 'tab' : `'${list.delimiter}'`}, decimal mark '${list.decimal}')`
     );
   return 0;

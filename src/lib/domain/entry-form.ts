@@ -3,6 +3,8 @@ import type { FieldProblem } from './validation-error';
 import { parseLocaleNumber, type DecimalMark } from './locale-number';
 import { parsePastedValues } from './pasted-values';
 import type { StudyData } from './study';
+import { countOf, PRINTED } from './figure-format';
+import { limitsText } from './limits-text';
 
 /**
  * What an entry form holds: text as typed (so a draft restores exactly what the person saw), turned into study
@@ -120,7 +122,7 @@ export function studyDataFromForm(form: EntryForm, decimal: DecimalMark = 'auto'
         problems.push({ field: 'raw', message: 'Type or paste the measured values' });
       const decimalMark = pasted.decimal.mark;
       const groups = pasted.subgroups ? new Set(pasted.subgroups).size : 0;
-      const rawSummary = `${pasted.values.length} value${pasted.values.length === 1 ? '' : 's'}${groups ? ` in ${groups} subgroups` : ''}${pasted.header ? `; header '${pasted.header.join(', ')}' skipped` : ''}`;
+      const rawSummary = `${countOf(pasted.values.length, 'value', 'values', PRINTED)}${groups ? ` in ${countOf(groups, 'subgroup', 'subgroups', PRINTED)}` : ''}${pasted.header ? `; header '${pasted.header.join(', ')}' skipped` : ''}`;
       if (problems.length)
         return { problems, rawSummary, decimalMark, ...(askDecimal ? { askDecimal } : {}) };
       return {
@@ -227,7 +229,7 @@ export function implausibleEntry(
         ? Math.abs((lsl ?? usl)! - target)
         : Math.abs(lsl ?? usl ?? 0) || 1;
   const margin = FAR_OUTSIDE_WIDTHS * width;
-  const limits = `LSL ${lsl ?? '–'}, USL ${usl ?? '–'}`;
+  const limits = limitsText({ lsl, usl }, PRINTED, ', ');
   if (
     (lsl !== undefined && low < lsl - margin) ||
     (usl !== undefined && high > usl + margin) ||

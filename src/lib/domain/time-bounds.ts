@@ -1,3 +1,4 @@
+import { countOf, PRINTED } from './figure-format';
 /**
  * The instants and dates a record may carry. Every time stamp must be a real calendar value (no 30 February, no
  * hour 25) and lie in a plausible span; a stamp ahead of the reading device's own clock by more than
@@ -106,8 +107,8 @@ export function isAheadOfClock(ms: number, nowMs: number): boolean {
 /** How far ahead, in words, for messages ("3 days", "2 hours"). */
 export function durationWords(ms: number): string {
   const hours = ms / 3_600_000;
-  if (hours < 48) return `${Math.round(hours)} hours`;
+  if (hours < 48) return countOf(Math.round(hours), 'hour', 'hours', PRINTED);
   const days = hours / 24;
-  if (days < 730) return `${Math.round(days)} days`;
-  return `${Math.round(days / 365.25)} years`;
+  if (days < 730) return countOf(Math.round(days), 'day', 'days', PRINTED);
+  return countOf(Math.round(days / 365.25), 'year', 'years', PRINTED);
 }

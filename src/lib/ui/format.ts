@@ -1,6 +1,6 @@
 /** Display formatting shared by the pages; one place so every page writes numbers the same way. */
 
-import { formatCount } from '../domain/figure-format';
+import { formatCount, formatMeasured, resolutionOf } from '../domain/figure-format';
 
 export { countOf, formatCount } from '../domain/figure-format';
 
@@ -33,9 +33,9 @@ export function formatBytes(bytes: number | undefined): string {
   return `${v.toFixed(u === 0 ? 0 : 1)} ${units[u]}`;
 }
 
-/** A limit or target, or an en dash where there is none. */
+/** A limit or target as entered (its own decimals, never scientific notation), or an en dash where there is none. */
 export function formatLimit(value: number | undefined): string {
-  return value === undefined ? '–' : String(value);
+  return value === undefined ? '–' : formatMeasured(value, resolutionOf([value]));
 }
 
 export function formatDateTime(iso: string): string {

@@ -1,3 +1,4 @@
+import { countOf } from './format';
 import type { Characteristic } from '../domain/characteristic';
 import { isPeriod } from '../domain/period';
 import type { Process } from '../domain/process';
@@ -198,7 +199,7 @@ export class MeasurementImportState {
         this.existing.length > 0 ? (this.mode as LogMode) : 'new'
       );
       const count = (a: string) => outcomes.filter((o) => o.action === a).length;
-      this.message = `Imported ${result.goodRows.toLocaleString()} values: ${count('created')} studies created, ${count('replaced')} replaced, ${count('combined')} combined.`;
+      this.message = `Imported ${countOf(result.goodRows, 'value', 'values')}: ${countOf(count('created'), 'study', 'studies')} created, ${count('replaced')} replaced, ${count('combined')} combined.`;
       this.stage = 'done';
     } catch (error) {
       this.failure =
