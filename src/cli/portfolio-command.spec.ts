@@ -69,7 +69,7 @@ describe('capstan portfolio', () => {
     const r = await run('portfolio', file('bad.csv', bad), '-o', out);
     expect(r.code).toBe(2);
     expect(existsSync(out)).toBe(false);
-    expect(r.err).toMatch(/4 bad row\(s\) in bad\.csv; nothing was written/);
+    expect(r.err).toMatch(/4 bad rows in bad\.csv; nothing was written/);
     expect(r.err).toMatch(/line 2: .*USL \(2\.4\) must be greater than LSL \(2\.6\)/);
     expect(r.err).toMatch(/line 3: .*'space-travel' is not a known industry context/);
     expect(r.err).toMatch(/line 3: .*risk class: 'critical'/);

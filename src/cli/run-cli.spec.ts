@@ -451,7 +451,7 @@ describe('capstan check and merge', async () => {
       }
     );
     expect(conflict.status).toBe(3);
-    expect(conflict.stdout).toMatch(/1 conflict\(s\)/);
+    expect(conflict.stdout).toMatch(/1 conflict:/);
   });
 });
 
