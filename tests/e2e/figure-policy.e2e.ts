@@ -1,0 +1,139 @@
+import { DEMO_QUARTER } from './demo-dates';
+import { expect, test, type Page } from '@playwright/test';
+import { startStaticServer, type RunningServer } from './static-server';
+
+/**
+ * Every main page with the demo loaded, at a laptop's 1366 px and a phone's 390 px, read as a practitioner reads
+ * it: no figure in scientific notation, no percentage with more decimals than the figure policy allows
+ * (domain/figure-format.ts: at most 5, never "100.00000 %" or "0.00000 %"), no count with its noun in the wrong
+ * number or a "(s)" placeholder, and no page wider than the screen (tables scroll inside their own box or
+ * become cards). A screenshot of each page is kept in tests/e2e/.output/pages/ to be looked at.
+ */
+
+let server: RunningServer;
+test.beforeEach(async () => {
+  server = await startStaticServer();
+});
+test.afterEach(async () => server.stop());
+
+/** A number in exponent form standing alone ("1.6e-3", "3.05e+4"); not part of a word or an id. */
+const SCIENTIFIC = /(?<![\w.-])\d+(?:[.,]\d+)?[eE][+-]?\d+(?!\w)/;
+const PERCENT = /(\d+)[.,](\d+)\s?%/g;
+const FALSE_PRECISION = /(?<![\d.,])(100|0)[.,]0{3,}\s?%/;
+const NOUNS =
+  'studies|sites|processes|months|values|records|characteristics|rows|conflicts|changes|days|projects|units|defects|rates|subgroups|quarters|warnings';
+const ONE_PLURAL = new RegExp(`(?<![\\d.,])1 (${NOUNS})\\b`);
+const PLACEHOLDER = /\w\((s|es)\)/;
+
+/** What a reader would find wrong on the page now: each problem with the text around it. */
+async function problemsOn(page: Page, name: string): Promise<string[]> {
+  const { text, overflow } = await page.evaluate(() => ({
+    text: document.body.innerText,
+    overflow: document.documentElement.scrollWidth - document.documentElement.clientWidth
+  }));
+  const around = (i: number) => JSON.stringify(text.slice(Math.max(0, i - 30), i + 30));
+  const problems: string[] = [];
+  const sci = SCIENTIFIC.exec(text);
+  if (sci) problems.push(`${name}: scientific notation ${around(sci.index)}`);
+  for (const m of text.matchAll(PERCENT))
+    if (m[2]!.length > 5)
+      problems.push(`${name}: percentage with ${m[2]!.length} decimals ${around(m.index)}`);
+  const precise = FALSE_PRECISION.exec(text);
+  if (precise) problems.push(`${name}: false precision ${around(precise.index)}`);
+  const plural = ONE_PLURAL.exec(text);
+  if (plural) problems.push(`${name}: "${plural[0]}" ${around(plural.index)}`);
+  const placeholder = PLACEHOLDER.exec(text);
+  if (placeholder) problems.push(`${name}: placeholder plural ${around(placeholder.index)}`);
+  if (overflow > 0) problems.push(`${name}: the page is ${overflow} px wider than the screen`);
+  return problems;
+}
+
+for (const [label, width, height] of [
+  ['1366 px', 1366, 900],
+  ['390 px', 390, 844]
+] as const) {
+  test(`at ${label}, every main page writes its figures by the policy and fits the screen`, async ({
+    page
+  }) => {
+    test.setTimeout(180_000);
+    await page.setViewportSize({ width, height });
+    const nav = async (name: string) => {
+      // On a phone the main menu may sit behind its button.
+      const link = page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name });
+      if (!(await link.isVisible())) await page.getByRole('button', { name: /menu/i }).click();
+      await link.click();
+    };
+    await page.goto(server.url);
+    await page.getByTestId('load-demo').click();
+    await expect(page.getByTestId('portfolio-table')).toBeVisible();
+    const pages: [string, () => Promise<void>][] = [
+      ['portfolio', async () => undefined],
+      [
+        'portfolio, a row open',
+        async () => {
+          await page
+            .getByTestId('portfolio-table')
+            .getByRole('button', { name: /details/i })
+            .first()
+            .click();
+          await expect(page.getByTestId('row-detail')).toBeVisible();
+        }
+      ],
+      [
+        'process page',
+        async () => {
+          await page.getByTestId('portfolio-table').locator('tbody tr').first().locator('a').first().click();
+          await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
+        }
+      ],
+      ['process list', async () => nav('Process')],
+      [
+        'monthly log',
+        async () => {
+          await nav('Monthly log');
+          await expect(page.getByTestId('open-count')).toBeVisible();
+        }
+      ],
+      [
+        'quarterly review',
+        async () => {
+          await nav('Quarterly review');
+          await page.getByTestId('quarter').selectOption(DEMO_QUARTER);
+          await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
+        }
+      ],
+      ['set-up', async () => nav('Set-up')],
+      ['file exchange', async () => nav('File exchange')],
+      ['settings', async () => nav('Settings')]
+    ];
+    const found: string[] = [];
+    for (const [name, open] of pages) {
+      await open();
+      await page.waitForTimeout(400);
+      found.push(...(await problemsOn(page, name)));
+      await page.screenshot({
+        path: `tests/e2e/.output/pages/${width}-${name.replace(/[^\w]+/g, '-')}.png`,
+        fullPage: true
+      });
+    }
+    expect(found).toEqual([]);
+  });
+}
+
+test('the checks can fail: each finds what it is for', async ({ page }) => {
+  await page.goto(server.url);
+  await page.evaluate(() => {
+    const p = document.createElement('p');
+    p.textContent = 'ppm 1.6e-3 · yield 100.00000 % · 99.9999912 % · 1 studies · 3 site(s)';
+    p.style.width = '5000px';
+    p.style.display = 'block';
+    document.body.append(p);
+  });
+  const found = (await problemsOn(page, 'planted')).join('\n');
+  expect(found).toContain('scientific notation');
+  expect(found).toContain('false precision');
+  expect(found).toContain('percentage with 7 decimals');
+  expect(found).toContain('"1 studies"');
+  expect(found).toContain('placeholder plural');
+  expect(found).toContain('wider than the screen');
+});
