@@ -132,8 +132,12 @@ test('logging a month twice asks to replace or combine, and a replace can be und
   await panel.getByRole('button', { name: 'Save study' }).click();
   await expect(page.getByTestId('saved-notice')).toContainText('(created)');
 
+  // Correcting starts from the study as saved: its kind and its figures, not a blank form.
   await open();
-  await panel.getByRole('textbox', { name: 'Units inspected', exact: true }).fill('1000');
+  await expect(panel.getByRole('heading', { name: /^Correct Bars broken at packing/ })).toBeVisible();
+  await expect(panel.getByRole('radio', { name: 'Units good or defective' })).toBeChecked();
+  await expect(panel.getByRole('textbox', { name: 'Units inspected', exact: true })).toHaveValue('1000');
+  await expect(panel.getByRole('textbox', { name: 'Defective units', exact: true })).toHaveValue('10');
   await panel.getByRole('textbox', { name: 'Defective units', exact: true }).fill('20');
   await panel.getByRole('button', { name: 'Save study' }).click();
   await expect(panel.getByRole('alert')).toContainText('choose whether to replace that study or combine');

@@ -3,7 +3,7 @@ import type { FieldProblem } from './validation-error';
 import { parseLocaleNumber, type DecimalMark } from './locale-number';
 import { parsePastedValues } from './pasted-values';
 import type { StudyData } from './study';
-import { countOf, PRINTED } from './figure-format';
+import { countOf, formatMeasured, PLAIN, PRINTED, resolutionOf } from './figure-format';
 import { limitsText } from './limits-text';
 
 /**
@@ -25,9 +25,19 @@ export interface EntryForm {
   rawDecimal?: '' | '.' | ',';
 }
 
-export function emptyEntryForm(dataKind: DataKind): EntryForm {
+/** What a new entry starts from: the characteristic's data kind, what it counts and its opportunities per unit. */
+type EntryDefaults = DataKind | Pick<Characteristic, 'dataKind' | 'countedAs' | 'opportunitiesPerUnit'>;
+
+/**
+ * An empty form for a characteristic: a counted one starts on what it counts (defectives or defects) with its
+ * own opportunities per unit, not 1 where the characteristic says 8.
+ */
+export function emptyEntryForm(defaults: EntryDefaults): EntryForm {
+  const c = typeof defaults === 'string' ? { dataKind: defaults } : defaults;
+  const countedAs = 'countedAs' in c ? c.countedAs : undefined;
+  const opportunities = 'opportunitiesPerUnit' in c ? c.opportunitiesPerUnit : undefined;
   return {
-    kind: dataKind === 'measured' ? 'summary' : 'defectives',
+    kind: c.dataKind === 'measured' ? 'summary' : (countedAs ?? 'defectives'),
     n: '',
     mean: '',
     sd: '',
@@ -35,9 +45,45 @@ export function emptyEntryForm(dataKind: DataKind): EntryForm {
     units: '',
     defectives: '',
     defects: '',
-    opportunities: '1',
+    opportunities: String(opportunities ?? 1),
     note: ''
   };
+}
+
+/**
+ * The form of a study as saved, to correct it: its own kind and figures, written with the person's decimal mark
+ * (raw values one per line, after their subgroup and a tab where they have one).
+ */
+export function entryFormOf(
+  study: { data: StudyData; note?: string },
+  defaults: EntryDefaults,
+  decimal: '.' | ','
+): EntryForm {
+  const text = (v: number) => {
+    const plain = formatMeasured(v, resolutionOf([v]), PLAIN);
+    return decimal === ',' ? plain.replace('.', ',') : plain;
+  };
+  const form: EntryForm = { ...emptyEntryForm(defaults), kind: study.data.kind, note: study.note ?? '' };
+  const d = study.data;
+  switch (d.kind) {
+    case 'summary':
+      return { ...form, n: String(d.n), mean: text(d.mean), sd: text(d.sd) };
+    case 'raw':
+      return {
+        ...form,
+        raw: d.values.map((v, i) => (d.subgroups ? `${d.subgroups[i]}\t${text(v)}` : text(v))).join('\n'),
+        rawDecimal: decimal
+      };
+    case 'defectives':
+      return { ...form, units: String(d.units), defectives: String(d.defectives) };
+    case 'defects':
+      return {
+        ...form,
+        units: String(d.units),
+        defects: String(d.defects),
+        opportunities: String(d.opportunitiesPerUnit)
+      };
+  }
 }
 
 export interface FormReading {
