@@ -29,3 +29,24 @@ describe('a first mapping of German headers', () => {
     expect(p.columns[guess.period]).toBe('Datum');
   });
 });
+
+describe('first guesses of an import', () => {
+  it('never takes a German date column for the values, even one of spreadsheet day numbers', () => {
+    const dayNumbers = previewCsv('Datum;Maß\n45234;24,99\n45235;25,01\n45236;24,98\n');
+    expect(guessMapping(dayNumbers)).toMatchObject({ value: 1, period: 0 });
+    const dated = previewCsv('Datum;Prüfer;Ergebnis\n03.11.2026;Meier;24,99\n04.11.2026;Meier;25,01\n');
+    expect(guessMapping(dated)).toMatchObject({ value: 2, period: 0 });
+    const grouped = previewCsv('Datum;Durchmesser;Stichprobe\n03.11.2026;24,99;1\n03.11.2026;25,01;1\n');
+    expect(guessMapping(grouped)).toMatchObject({ value: 1, subgroup: 2, period: 0 });
+  });
+
+  it('reads one column of decimal-comma numbers as one column, with or without a header', () => {
+    for (const text of ['Durchmesser\n24,995\n25,001\n24,998\n', '24,99\n25,01\n24,98\n', '1,234\n1,250\n']) {
+      const p = previewCsv(text, { localeMark: '.' });
+      expect(p.columns).toHaveLength(1);
+      expect(p.decimal).toBe(',');
+    }
+    // Two columns named in a header stay two columns.
+    expect(previewCsv('part,width\n1,24\n2,25\n').columns).toEqual(['part', 'width']);
+  });
+});

@@ -1,6 +1,6 @@
 import Papa from 'papaparse';
 import { parseLocaleNumber } from '../domain/locale-number';
-import { detectDecimal, detectDelimiter } from './measurement-csv';
+import { detectDelimiter, detectFileDecimal } from './measurement-csv';
 
 /** What the import dialog shows before anything is read in full: the detected format and the first rows. */
 export interface CsvPreview {
@@ -18,7 +18,7 @@ export interface CsvPreview {
  */
 export function previewCsv(
   text: string,
-  options: { delimiter?: ',' | ';' | '\t'; decimal?: '.' | ',' } = {}
+  options: { delimiter?: ',' | ';' | '\t'; decimal?: '.' | ','; localeMark?: '.' | ',' } = {}
 ): CsvPreview {
   const clean = text.replace(/^\uFEFF/, '');
   // The last line of a slice may be cut off: leave it out.
@@ -26,7 +26,7 @@ export function previewCsv(
   const complete = lines.length > 1 ? lines.slice(0, -1).join('\n') : clean;
   const delimiter = options.delimiter ?? detectDelimiter(complete);
   const rows = Papa.parse<string[]>(complete, { delimiter, skipEmptyLines: 'greedy' }).data.slice(0, 21);
-  const decimal = options.decimal ?? detectDecimal(rows.flat(), delimiter);
+  const decimal = options.decimal ?? detectFileDecimal(complete, rows.flat(), delimiter, options.localeMark);
   const first = rows[0] ?? [];
   const rest = rows.slice(1);
   const hasHeader =
@@ -45,8 +45,10 @@ export function previewCsv(
 }
 
 /**
- * A first mapping of the columns from the header words, and for the value column else the first column whose
- * cells are all numbers — not merely digits: a date column such as "Datum" holds digits but no numbers.
+ * A first mapping of the columns from the header words. The value column, where no header names it, is the
+ * last column whose cells are all numbers among those not taken as date, subgroup or characteristic — the rule
+ * pasted values follow (pasted-values.ts): a date column ("Datum") may hold digits, even spreadsheet day
+ * numbers, and sits before the measurements.
  */
 export function guessMapping(p: CsvPreview): {
   value: number;
@@ -54,16 +56,29 @@ export function guessMapping(p: CsvPreview): {
   period: number;
   characteristic: number;
 } {
-  const numeric = p.columns.findIndex(
-    (_, c) => p.rows.length > 0 && p.rows.every((r) => parseLocaleNumber(r[c] ?? '', p.decimal) !== undefined)
+  const subgroup = guessColumn(p.columns, ['subgroup', 'group', 'gruppe', 'stichprobe', 'sample']) ?? -1;
+  const period = guessColumn(p.columns, ['date', 'datum', 'time', 'period', 'month', 'monat', 'zeit']) ?? -1;
+  const characteristic = guessColumn(p.columns, ['characteristic', 'merkmal', 'feature', 'parameter']) ?? -1;
+  const free = p.columns
+    .map((_, c) => c)
+    .filter((c) => c !== subgroup && c !== period && c !== characteristic);
+  const numeric = free.filter(
+    (c) => p.rows.length > 0 && p.rows.every((r) => parseLocaleNumber(r[c] ?? '', p.decimal) !== undefined)
   );
+  const named = guessColumn(p.columns, [
+    'value',
+    'wert',
+    'valeur',
+    'measure',
+    'reading',
+    'ergebnis',
+    'result'
+  ]);
   return {
-    value:
-      guessColumn(p.columns, ['value', 'wert', 'valeur', 'measure', 'reading']) ??
-      (numeric >= 0 ? numeric : 0),
-    subgroup: guessColumn(p.columns, ['subgroup', 'group', 'gruppe', 'stichprobe', 'sample']) ?? -1,
-    period: guessColumn(p.columns, ['date', 'datum', 'time', 'period', 'month', 'zeit']) ?? -1,
-    characteristic: guessColumn(p.columns, ['characteristic', 'merkmal', 'feature', 'parameter']) ?? -1
+    value: named ?? numeric.at(-1) ?? free[0] ?? 0,
+    subgroup,
+    period,
+    characteristic
   };
 }
 

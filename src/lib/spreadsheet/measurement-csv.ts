@@ -34,8 +34,9 @@ export class CsvInputError extends Error {
 
 /**
  * Semicolon or tab when the first lines use it, comma otherwise (the common choice of European exports) —
- * except for a single column of numbers with decimal commas (`0,213` on every line), which is one column, not
- * two: it is read with a separator that does not occur.
+ * except for a single column of numbers with a comma in each (`0,213` or `24,995` on every line), which is one
+ * column of decimal-comma numbers, not two columns: it is read with a separator that does not occur. Whether a
+ * `1,234` there is a decimal comma is then the decimal mark's question (detectDecimal), not the separator's.
  */
 export function detectDelimiter(text: string): ',' | ';' | '\t' {
   const lines = text.split(/\r?\n/, 20).filter((l) => l.trim() !== '');
@@ -46,17 +47,39 @@ export function detectDelimiter(text: string): ',' | ';' | '\t' {
   const headed = !/\d/.test(lines[0] ?? '');
   // A header with a comma names two or more columns: the comma separates them.
   if (headed && lines[0]!.includes(',')) return ',';
-  const body = lines.slice(headed ? 1 : 0);
-  const oneNumberPerLine = body.length > 0 && body.every((l) => /^\s*[-+]?\d*,\d+\s*$/.test(l));
-  if (oneNumberPerLine && !inferDecimalMark(body, '.').ambiguous && inferDecimalMark(body, '.').mark === ',')
-    return ';';
-  return ',';
+  return oneColumnOfCommaNumbers(text) ? ';' : ',';
 }
 
-/** The decimal mark of the cells, by the one rule for pasted values and files (domain/decimal-mark.ts). */
-export function detectDecimal(cells: string[], delimiter: string): '.' | ',' {
+/**
+ * Whether the text is one column of numbers written with a comma (after an optional header without one): a
+ * file of decimal-comma measurements. Its comma is the decimal mark, even where each could also be read as
+ * grouping (`24,995`): a file with one number per line has no use for thousands separators.
+ */
+export function oneColumnOfCommaNumbers(text: string): boolean {
+  const lines = text.split(/\r?\n/, 20).filter((l) => l.trim() !== '');
+  const headed = !/\d/.test(lines[0] ?? '');
+  if (headed && lines[0]!.includes(',')) return false;
+  const body = lines.slice(headed ? 1 : 0);
+  return body.length > 0 && body.every((l) => /^\s*[-+]?\d*,\d+\s*$/.test(l));
+}
+
+/**
+ * The decimal mark of the cells, by the one rule for pasted values and files (domain/decimal-mark.ts); where the
+ * cells do not settle it, `fallback` (the reader's own mark in the app; a point on the command line).
+ */
+export function detectDecimal(cells: string[], delimiter: string, fallback: '.' | ',' = '.'): '.' | ',' {
   if (delimiter === ',') return '.';
-  return inferDecimalMark(cells, '.').mark;
+  return inferDecimalMark(cells, fallback).mark;
+}
+
+/** A file's decimal mark: a comma for one column of comma numbers, else from its cells (detectDecimal). */
+export function detectFileDecimal(
+  text: string,
+  cells: string[],
+  delimiter: string,
+  fallback: '.' | ',' = '.'
+): '.' | ',' {
+  return oneColumnOfCommaNumbers(text) ? ',' : detectDecimal(cells, delimiter, fallback);
 }
 
 function columnIndex(
@@ -87,7 +110,9 @@ export function readMeasurementCsv(text: string, options: MeasurementCsvOptions 
   if (rows.length === 0) throw new CsvInputError('The file has no rows');
   const sampleCells = rows.slice(0, 50).flat();
   const decimal =
-    !options.decimal || options.decimal === 'auto' ? detectDecimal(sampleCells, delimiter) : options.decimal;
+    !options.decimal || options.decimal === 'auto'
+      ? detectFileDecimal(clean, sampleCells, delimiter)
+      : options.decimal;
   const first = rows[0] as string[];
   const hasHeader = first.some((c) => c.trim() !== '' && parseLocaleNumber(c, decimal) === undefined);
   const header = hasHeader ? first : undefined;

@@ -1,3 +1,4 @@
+import { decimalMarkOf } from '../domain/locale-number';
 import { countOf } from './format';
 import type { Characteristic } from '../domain/characteristic';
 import { isPeriod } from '../domain/period';
@@ -72,7 +73,9 @@ export class MeasurementImportState {
     this.message = undefined;
     if (!f) return;
     this.file = f;
-    const p = previewCsv(await f.slice(0, 64 * 1024).text());
+    // Where the file does not settle its decimal mark, the reader's own decides (decimal-mark.ts).
+    const localeMark = decimalMarkOf(typeof navigator === 'undefined' ? undefined : navigator.language);
+    const p = previewCsv(await f.slice(0, 64 * 1024).text(), { localeMark });
     this.delimiter = p.delimiter;
     this.decimal = p.decimal;
     this.guessColumns(p);
