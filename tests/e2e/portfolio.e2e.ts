@@ -1,4 +1,4 @@
-import { DEMO_QUARTER } from './demo-dates';
+import { DEMO_QUARTER, demoAsLoaded } from './demo-dates';
 import { expect, test } from '@playwright/test';
 import { readFileSync } from 'node:fs';
 import { startStaticServer, type RunningServer } from './static-server';
@@ -42,6 +42,19 @@ test('loads the demo portfolio and lists every process; a click opens its proces
     await expect(figures.getByRole('heading', { name: 'Assumptions' })).toBeVisible();
     await expect(figures).toContainText('qualified people prevail');
   }
+  // Any month's figures and charts are reachable, not only the latest.
+  const loaded = demoAsLoaded().records;
+  const first = loaded.characteristics.find((x) => x.processId === target.id)!;
+  const older = loaded.studies
+    .filter((s) => s.characteristicId === first.id)
+    .map((s) => s.period)
+    .sort()
+    .at(-3)!;
+  await page.getByRole('button', { name: `Figures and charts of ${first.name} for ${older}` }).click();
+  await expect(
+    page.getByRole('region', { name: `Capability figures: ${first.name}, ${older}` })
+  ).toBeVisible();
+  await expect(page.getByRole('button', { name: `Download ${older} as CSV` })).toBeVisible();
 });
 
 test('every area of the navigation shows stored data, and charts arrive only when a page needs them', async ({
