@@ -34,8 +34,15 @@ test('the ranked portfolio follows a context target change, and a click leads to
   // A much stricter target for service work puts a service process at the top of the gap order.
   await page.getByRole('link', { name: 'Settings' }).click();
   await page.getByRole('button', { name: 'Edit targets of Transactional and service work' }).click();
-  await page.getByTestId('profile-form').locator('input[name="level-standard"]').fill('7');
-  await page.getByTestId('profile-form').locator('input[name="level-key"]').fill('7');
+  const form = page.getByTestId('profile-form');
+  await form.locator('input[name="level-standard"]').fill('7');
+  await form.locator('input[name="level-key"]').fill('7');
+  // The safety target (4.5) now asks less than the standard one: a reason is asked for, the levels named.
+  await expect(page.getByTestId('safety-lowered')).toContainText('standard characteristics (7)');
+  await page.getByRole('button', { name: 'Save targets' }).click();
+  await expect(form.locator('.error')).toContainText('say why');
+  await form.locator('input[name="level-safety"]').fill('7');
+  await expect(page.getByTestId('safety-lowered')).toHaveCount(0);
   await page.getByRole('button', { name: 'Save targets' }).click();
   await expect(page.getByText('Saved the targets of Transactional and service work')).toBeVisible();
   await page.getByRole('link', { name: 'Portfolio', exact: true }).click();

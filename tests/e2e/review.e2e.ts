@@ -186,6 +186,7 @@ test('a frozen review keeps its figures and says when the live data has moved on
   await page.getByRole('button', { name: 'Edit targets of Transactional and service work' }).click();
   await page.getByTestId('profile-form').locator('input[name="level-standard"]').fill('7');
   await page.getByTestId('profile-form').locator('input[name="level-key"]').fill('7');
+  await page.getByTestId('profile-form').locator('input[name="level-safety"]').fill('7');
   await page.getByRole('button', { name: 'Save targets' }).click();
   await expect(page.getByText('Saved the targets of Transactional and service work')).toBeVisible();
 

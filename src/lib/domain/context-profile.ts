@@ -37,6 +37,30 @@ export function zBasisOf(profile: Pick<ContextProfile, 'reporting'> | undefined)
   return profile?.reporting === 'short-term' ? 'short-term' : 'long-term';
 }
 
+/** Whether level `a` asks less than level `b` of the same measure: a lower index or z, a higher ppm. */
+export function isLooser(measure: RulingMeasure, a: number, b: number): boolean {
+  return measure === 'ppm' ? a > b : a < b;
+}
+
+/**
+ * Why an edited safety target needs a stated reason: it asks less than the built-in default for safety in this
+ * context, or less than the same context asks of standard characteristics. Undefined when it does neither.
+ */
+export function loweredSafetyTarget(
+  edited: Pick<ContextProfile, 'id' | 'measure' | 'levels'>
+): { builtIn?: number; standard?: number } | undefined {
+  const builtIn = BUILT_IN_PROFILES.find((p) => p.id === edited.id);
+  const safety = edited.levels.safety;
+  const belowBuiltIn =
+    builtIn && builtIn.measure === edited.measure && isLooser(edited.measure, safety, builtIn.levels.safety);
+  const belowStandard = isLooser(edited.measure, safety, edited.levels.standard);
+  if (!belowBuiltIn && !belowStandard) return undefined;
+  return {
+    ...(belowBuiltIn ? { builtIn: builtIn.levels.safety } : {}),
+    ...(belowStandard ? { standard: edited.levels.standard } : {})
+  };
+}
+
 export const BUILT_IN_PROFILES: readonly ContextProfile[] = [
   {
     id: 'vehicle-parts',
