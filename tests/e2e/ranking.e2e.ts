@@ -80,7 +80,16 @@ test('a measured process page shows history, histogram, probability plot and con
   await page.getByRole('link', { name: 'Camshaft journal grinding — line A', exact: true }).click();
   await expect(page.getByText('Journal diameter: z-level by month, required')).toBeVisible();
   await expect(page.getByText(/Journal diameter, \d{4}-\d{2}: values with the limits/)).toBeVisible();
-  await expect(page.getByText(/Journal diameter, \d{4}-\d{2}: normal probability plot/)).toBeVisible();
+  await expect(
+    page.getByText(/Journal diameter, \d{4}-\d{2}: probability plot against the \w+ model the figures use/)
+  ).toBeVisible();
+  // How well the model fits: the normality test, and the models compared when it rejects normality.
+  const models = page.getByRole('region', { name: /Models compared for Journal diameter/ });
+  await expect(models).toContainText(/Anderson–Darling A² [\d.]+, p [<\d.]/);
   await expect(page.getByText(/Journal diameter, \d{4}-\d{2}: control chart/)).toBeVisible();
   await expect(page.getByTestId('chart').nth(3).locator('svg')).toBeVisible();
+  // The control chart draws both panels: the location and the spread, each with its limits.
+  const control = page.getByTestId('chart').nth(3);
+  await expect(control.locator('svg text', { hasText: 'UCL' })).toHaveCount(2);
+  await page.screenshot({ path: 'tests/e2e/.output/pages/1280-process-charts.png', fullPage: true });
 });

@@ -1,3 +1,7 @@
+import { decimalsFor, P_VALUE_FLOOR } from '../stats/plain-number';
+
+export { decimalsFor };
+
 /**
  * How Capstan writes a figure for people — one policy for the pages, the portfolio's CSV download and the
  * command line's tables, so that the three never disagree. JSON output keeps full precision and does not pass
@@ -53,12 +57,6 @@ export function formatFixed(v: number, decimals: number, style: NumberStyle = SC
     formats.set(key, format);
   }
   return format.format(v);
-}
-
-/** Decimals that show `digits` significant digits of v (0 for numbers with that many whole digits). */
-export function decimalsFor(v: number, digits: number): number {
-  if (v === 0 || !Number.isFinite(v)) return 0;
-  return Math.min(20, Math.max(0, digits - 1 - Math.floor(Math.log10(Math.abs(v)))));
 }
 
 /** v to `digits` significant digits, in positional notation however small or large. */
@@ -180,7 +178,7 @@ export function countOf(n: number, one: string, many: string, style: NumberStyle
 /** A p-value: 3 decimals, "< 0.001" below (a smaller p says nothing more to a reader deciding on it). */
 export function formatPValue(p: number | undefined, style: NumberStyle = SCREEN): string {
   if (p === undefined || Number.isNaN(p)) return MISSING;
-  return p < 0.001 ? `< ${formatFixed(0.001, 3, style)}` : formatFixed(p, 3, style);
+  return p < P_VALUE_FLOOR ? `< ${formatFixed(P_VALUE_FLOOR, 3, style)}` : formatFixed(p, 3, style);
 }
 
 /** What a figure is, for writing it by the policy wherever it goes (portfolio-columns.ts names its columns'). */

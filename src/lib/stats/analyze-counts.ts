@@ -2,6 +2,7 @@ import { WarningList } from './result-warnings';
 import type { CapabilityResult } from './capability-result';
 import { clopperPearson, poissonCountInterval } from './confidence-bounds';
 import { normalUpperQuantile } from './normal-distribution';
+import { plainSignificant } from './plain-number';
 
 export interface CountOptions {
   confidence?: number;
@@ -51,7 +52,7 @@ export function analyzeDefectives(
   const zero = defectives === 0;
   if (zero) {
     assumptions.push(
-      `no defective seen: the z-level shown is the lower bound, from the one-sided upper bound p ≤ ${ci.upperBound.toPrecision(3)}`
+      `no defective seen: the z-level shown is the lower bound, from the one-sided upper bound p ≤ ${plainSignificant(ci.upperBound, 3)}`
     );
   }
   if (units < 100)
@@ -121,7 +122,7 @@ export function analyzeDefects(
   ];
   if (zero)
     assumptions.push(
-      `no defect seen: the z-level shown is the lower bound, from the one-sided upper bound DPMO ≤ ${(upperDpo * 1e6).toPrecision(3)}`
+      `no defect seen: the z-level shown is the lower bound, from the one-sided upper bound DPMO ≤ ${plainSignificant(upperDpo * 1e6, 3)}`
     );
   const result: CapabilityResult = {
     kind: 'defects',

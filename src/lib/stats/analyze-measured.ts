@@ -22,6 +22,7 @@ import { checkSpecification, type Specification } from './specification';
 import { individualsStability, subgroupStability, type StabilityResult } from './stability';
 import { fractionIntervals } from './fraction-bounds';
 import { modelTailFractions, normalTailFractions, type TailFractions } from './tail-fractions';
+import { plainPValue, plainSignificant } from './plain-number';
 
 export type ModelChoice = 'auto' | 'quantile' | ModelName;
 
@@ -251,7 +252,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
       modelName = model ? model.name : 'observed';
       if (model?.name !== 'normal' && normality) {
         assumptions.push(
-          `normality rejected (Anderson–Darling p = ${normality.p.toPrecision(2)}); models compared by A²`
+          `normality rejected (Anderson–Darling p ${plainPValue(normality.p).startsWith('<') ? '' : '= '}${plainPValue(normality.p)}); models compared by A²`
         );
       }
     }
@@ -319,13 +320,13 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
       })
     );
     result.modelParameters = { mean: mu, sd: sdOverall };
-    result.modelLabel = `normal (mean ${mu.toPrecision(6)}, overall sd ${sdOverall.toPrecision(4)})`;
+    result.modelLabel = `normal (mean ${plainSignificant(mu, 6)}, overall sd ${plainSignificant(sdOverall, 4)})`;
     result.method = `normal model; ${sdWithin !== undefined ? SIGMA_ESTIMATOR_LABELS[estimator] : 'no within sigma'}; overall sigma for Pp/Ppk, ppm, yield and z-level`;
     assumptions.unshift('normal model');
     if (normality && normality.p < 0.05)
       warnings.add(
         'normality-rejected',
-        `Normality is rejected (Anderson–Darling p = ${normality.p.toPrecision(2)}): the normal-model ppm may be far off in the tails`
+        `Normality is rejected (Anderson–Darling p ${plainPValue(normality.p).startsWith('<') ? '' : '= '}${plainPValue(normality.p)}): the normal-model ppm may be far off in the tails`
       );
     addNormalIntervals(result, n, level, spec.target);
   } else if (model) {
@@ -341,7 +342,7 @@ export function analyzeMeasured(values: ArrayLike<number>, options: MeasuredOpti
     if ((model.parameters.massAtZero ?? 0) > 1e-9) {
       warnings.add(
         'model-mass-below-zero',
-        `The Box-Cox model puts ${(model.parameters.massAtZero! * 100).toPrecision(2)} % of its mass at or below zero, where no value can lie: its lower tail is unreliable`
+        `The Box-Cox model puts ${plainSignificant(model.parameters.massAtZero! * 100, 2)} % of its mass at or below zero, where no value can lie: its lower tail is unreliable`
       );
     }
     result.modelLabel = model.label;

@@ -95,6 +95,29 @@ function spreadSignals(
   }
 }
 
+/**
+ * What a chart plots, in the order its limits and signals (RuleSignal.index) refer to: the location points
+ * (the values, or the means of subgroups of 2 or more) and the spread points (moving ranges |xᵢ − xᵢ₋₁|, or each
+ * subgroup's range or sample standard deviation, as `chart` says). The same arithmetic the limits rest on.
+ */
+export function controlChartSeries(
+  values: ArrayLike<number>,
+  groups: readonly number[][] | undefined,
+  chart: ChartKind
+): { location: number[]; spread: number[] } {
+  if (chart === 'individuals') {
+    const location = Array.from(values);
+    return { location, spread: location.slice(1).map((v, i) => Math.abs(v - location[i]!)) };
+  }
+  const usable = (groups ?? []).filter((g) => g.length >= 2);
+  return {
+    location: usable.map((g) => mean(g)),
+    spread: usable.map((g) =>
+      chart === 'xbar-r' ? Math.max(...g) - Math.min(...g) : Math.sqrt(sampleVariance(g))
+    )
+  };
+}
+
 /** Individuals and moving-range chart of values in time order. Needs at least 3 values. */
 export function individualsStability(values: ArrayLike<number>, knownMean?: number): StabilityResult {
   const n = values.length;
@@ -126,26 +149,21 @@ export function subgroupStability(groups: readonly number[][], sigmaWithin: numb
   if (usable.length < 3)
     throw new RangeError('At least 3 subgroups of 2 or more values are needed for a subgroup control chart');
   const size = Math.round(usable.reduce((a, g) => a + g.length, 0) / usable.length);
-  const means = usable.map((g) => mean(g));
+  const d3n = d3(size);
+  const chart: ChartKind = size <= 10 && d3n !== undefined ? 'xbar-r' : 'xbar-s';
+  const { location: means, spread } = controlChartSeries([], usable, chart);
   const centre = mean(means);
   const half = (3 * sigmaWithin) / Math.sqrt(size);
   const signals: RuleSignal[] = [];
   const counts = { rule1: 0, rule2: 0, rule3: 0, spread: 0 };
   runRules(means, centre, centre - half, centre + half, signals, counts);
-  const d3n = d3(size);
-  let chart: ChartKind;
-  let spread: number[];
   let factorLow: number;
   let factorHigh: number;
-  if (size <= 10 && d3n !== undefined) {
-    chart = 'xbar-r';
-    spread = usable.map((g) => Math.max(...g) - Math.min(...g));
-    const factor = (3 * d3n) / d2(size);
+  if (chart === 'xbar-r') {
+    const factor = (3 * d3n!) / d2(size);
     factorLow = Math.max(0, 1 - factor);
     factorHigh = 1 + factor;
   } else {
-    chart = 'xbar-s';
-    spread = usable.map((g) => Math.sqrt(sampleVariance(g)));
     const c = c4(size);
     const k = (3 * Math.sqrt(1 - c * c)) / c;
     factorLow = Math.max(0, 1 - k);

@@ -1,3 +1,5 @@
+import { plainSignificant } from '../plain-number';
+
 /**
  * The distribution models the engine fits, in the order the model search tries them and ties are broken: the
  * one list of model names (the search, the command line's `--model` and its usage text all read it).
@@ -35,5 +37,10 @@ export interface FitRefusal {
 }
 
 export function formatParameter(v: number): string {
-  return Number.isFinite(v) ? Number(v.toPrecision(4)).toString() : String(v);
+  // Four significant digits without trailing zeros, never in exponent form.
+  return Number.isFinite(v)
+    ? plainSignificant(v, 4)
+        .replace(/(\.\d*?)0+$/, '$1')
+        .replace(/\.$/, '')
+    : String(v);
 }

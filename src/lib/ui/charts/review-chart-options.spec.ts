@@ -52,7 +52,13 @@ describe('review chart options', () => {
       series: { data: unknown[] }[];
     };
     expect(option.yAxis.data).toEqual(['Pb · S', 'Pa · S']);
-    expect(option.series[1]!.data).toEqual([3.75, 3.75]);
+    // One bar per row, in the series whose legend colour it has: Pb is short, Pa meets.
+    expect(option.series[0]!.data).toEqual([2, '-']);
+    expect(option.series[1]!.data).toEqual(['-', 4]);
+    expect(option.series[2]!.data).toEqual([3.75, 3.75]);
+    const colours = (option as unknown as { series: { name: string; itemStyle: { color: string } }[] })
+      .series;
+    expect(colours[0]!.itemStyle.color).not.toBe(colours[1]!.itemStyle.color);
   });
 });
 

@@ -36,16 +36,35 @@ export function weakestJudged(
     .slice(0, limit);
 }
 
-/** z-level of each process with its required level, weakest first. */
+/**
+ * z-level of each process with its required level, weakest first. Short and meeting processes are two series
+ * (stacked, one bar per row), so that the legend's colours are the bars' colours.
+ */
 export function zAgainstTargetOption(lines: readonly ReviewProcessLine[]): EChartsCoreOption {
   const rows = weakestJudged(lines);
   const label = (l: ReviewProcessLine) => `${l.process} · ${l.site}`;
+  const bars = (name: string, short: boolean, color: string) => ({
+    type: 'bar',
+    name,
+    stack: 'z',
+    itemStyle: { color },
+    data: rows.map((l) => ((l.status === 'short') === short ? round(l.zLevel!) : '-'))
+  });
   return {
     ...base,
-    grid: { left: 8, right: 24, top: 28, bottom: 8, containLabel: true },
-    legend: { top: 0, data: ['z-level', 'required'] },
+    grid: { left: 8, right: 24, top: 28, bottom: 24, containLabel: true },
+    legend: { top: 0, data: ['short', 'meeting target', 'required'] },
     tooltip: { trigger: 'axis' },
-    xAxis: { type: 'value', name: 'z', min: (v: { min: number }) => Math.min(0, Math.floor(v.min)) },
+    xAxis: {
+      type: 'value',
+      name: 'z-level',
+      nameLocation: 'middle',
+      nameGap: 24,
+      min: (v: { min: number }) => Math.min(0, Math.floor(v.min)),
+      // The required levels are in view, not only the bars.
+      max: (v: { max: number }) =>
+        Math.ceil(Math.max(v.max, ...rows.map((l) => l.requiredZ ?? -Infinity)) + 0.5)
+    },
     yAxis: {
       type: 'category',
       data: rows.map(label),
@@ -53,14 +72,8 @@ export function zAgainstTargetOption(lines: readonly ReviewProcessLine[]): EChar
       axisLabel: { width: 260, overflow: 'truncate' }
     },
     series: [
-      {
-        type: 'bar',
-        name: 'z-level',
-        data: rows.map((l) => ({
-          value: round(l.zLevel!),
-          itemStyle: { color: l.status === 'short' ? SHORT : MEETS }
-        }))
-      },
+      bars('short', true, SHORT),
+      bars('meeting target', false, MEETS),
       {
         type: 'scatter',
         name: 'required',
