@@ -41,6 +41,11 @@ const MAX_RESOLUTION = 9;
 
 const formats = new Map<string, Intl.NumberFormat>();
 
+/** What stands for a missing figure ('–') or an unbounded one ('∞', '−∞'). */
+function notFinite(v: number | undefined): string {
+  return v === undefined || Number.isNaN(v) ? MISSING : v > 0 ? '∞' : '−∞';
+}
+
 /**
  * Fixed decimals in a style. One formatter per style and number of decimals, made once: building one per call
  * cost seconds on a review of 2 000 processes.
@@ -65,8 +70,7 @@ export function formatSignificant(
   digits: number,
   style: NumberStyle = SCREEN
 ): string {
-  if (v === undefined || Number.isNaN(v)) return MISSING;
-  if (!Number.isFinite(v)) return v > 0 ? '∞' : '−∞';
+  if (v === undefined || !Number.isFinite(v)) return notFinite(v);
   // Rounding to the digits can carry into a new one (0.0996 → 0.10): decimals are taken from the rounded value.
   const rounded = Number(v.toPrecision(digits));
   return formatFixed(rounded, decimalsFor(rounded, digits), style);
@@ -74,8 +78,7 @@ export function formatSignificant(
 
 /** An index or a z-level: 2 decimals. */
 export function formatIndex(v: number | undefined, style: NumberStyle = SCREEN): string {
-  if (v === undefined || Number.isNaN(v)) return MISSING;
-  if (!Number.isFinite(v)) return v > 0 ? '∞' : '−∞';
+  if (v === undefined || !Number.isFinite(v)) return notFinite(v);
   return formatFixed(v, INDEX_DECIMALS, style);
 }
 
@@ -156,8 +159,7 @@ export function formatMeasured(
   resolution: number,
   style: NumberStyle = SCREEN
 ): string {
-  if (v === undefined || Number.isNaN(v)) return MISSING;
-  if (!Number.isFinite(v)) return v > 0 ? '∞' : '−∞';
+  if (v === undefined || !Number.isFinite(v)) return notFinite(v);
   return formatFixed(v, resolution, style);
 }
 
