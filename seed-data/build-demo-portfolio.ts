@@ -169,7 +169,14 @@ export function buildDemoPortfolio(seed: number = DEMO_SEED): DemoPortfolio {
             ...(plan.lsl !== undefined ? { lsl: plan.lsl } : {}),
             ...(plan.usl !== undefined ? { usl: plan.usl } : {}),
             ...(plan.target !== undefined ? { target: plan.target } : {}),
-            ...(plan.physicalMin !== undefined ? { physicalMin: plan.physicalMin } : {})
+            ...(plan.physicalMin !== undefined ? { physicalMin: plan.physicalMin } : {}),
+            // A counted characteristic says what it counts, so that a new month's entry starts on it (with the
+            // opportunities per unit its name promises, not 1).
+            ...(plan.generator.shape === 'defects'
+              ? { countedAs: 'defects' as const, opportunitiesPerUnit: plan.generator.opportunities }
+              : plan.generator.shape === 'defectives'
+                ? { countedAs: 'defectives' as const }
+                : {})
           };
           characteristics.push(characteristic);
 

@@ -12,6 +12,18 @@ describe('demo portfolio generator', () => {
     expect(JSON.stringify(buildDemoPortfolio())).toBe(JSON.stringify(built));
   });
 
+  it('names what each counted characteristic counts, with the opportunities per unit its studies use', () => {
+    const { characteristics, studies } = built.records;
+    for (const c of characteristics.filter((x) => x.dataKind === 'counted')) {
+      const kinds = new Set(studies.filter((s) => s.characteristicId === c.id).map((s) => s.data));
+      for (const d of kinds) {
+        expect(d.kind).toBe(c.countedAs);
+        if (d.kind === 'defects') expect(d.opportunitiesPerUnit).toBe(c.opportunitiesPerUnit);
+      }
+    }
+    expect(characteristics.some((c) => c.opportunitiesPerUnit === 8)).toBe(true);
+  });
+
   it('gives a different portfolio for another seed', () => {
     expect(JSON.stringify(buildDemoPortfolio(7))).not.toBe(JSON.stringify(built));
   });
