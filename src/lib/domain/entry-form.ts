@@ -3,7 +3,7 @@ import type { FieldProblem } from './validation-error';
 import { parseLocaleNumber, type DecimalMark } from './locale-number';
 import { parsePastedValues } from './pasted-values';
 import type { StudyData } from './study';
-import { countOf, formatMeasured, PLAIN, PRINTED, resolutionOf } from './figure-format';
+import { countOf, formatAsEntered, PLAIN, PRINTED } from './figure-format';
 import { limitsText } from './limits-text';
 
 /**
@@ -60,7 +60,7 @@ export function entryFormOf(
   decimal: '.' | ','
 ): EntryForm {
   const text = (v: number) => {
-    const plain = formatMeasured(v, resolutionOf([v]), PLAIN);
+    const plain = formatAsEntered(v, PLAIN);
     return decimal === ',' ? plain.replace('.', ',') : plain;
   };
   const form: EntryForm = { ...emptyEntryForm(defaults), kind: study.data.kind, note: study.note ?? '' };

@@ -163,6 +163,11 @@ export function formatMeasured(
   return formatFixed(v, resolution, style);
 }
 
+/** A number as it was entered: its own decimals (a limit, a reported mean), never scientific notation. */
+export function formatAsEntered(v: number, style: NumberStyle = SCREEN): string {
+  return formatMeasured(v, resolutionOf([v]), style);
+}
+
 /** A mean or standard deviation of data at this resolution: one decimal more than the data. */
 export function formatStatistic(
   v: number | undefined,

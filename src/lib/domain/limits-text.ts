@@ -1,4 +1,4 @@
-import { formatMeasured, PRINTED, resolutionOf, type NumberStyle } from './figure-format';
+import { formatAsEntered, PRINTED, type NumberStyle } from './figure-format';
 import type { Limits } from './specification-history';
 
 /**
@@ -8,7 +8,7 @@ import type { Limits } from './specification-history';
  */
 export function limitsText(limits: Limits, style: NumberStyle = PRINTED, separator = ' · '): string {
   const parts: string[] = [];
-  const write = (v: number) => formatMeasured(v, resolutionOf([v]), style);
+  const write = (v: number) => formatAsEntered(v, style);
   if (limits.lsl !== undefined) parts.push(`LSL ${write(limits.lsl)}`);
   if (limits.target !== undefined) parts.push(`target ${write(limits.target)}`);
   if (limits.usl !== undefined) parts.push(`USL ${write(limits.usl)}`);

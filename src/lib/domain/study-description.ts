@@ -1,8 +1,8 @@
 import { summariseMoments } from '../stats/pooled-moments';
 import {
   countOf,
+  formatAsEntered,
   formatCount,
-  formatMeasured,
   formatStatistic,
   PRINTED,
   resolutionOf
@@ -12,7 +12,7 @@ import type { StudyData } from './study';
 /** How a study's data is described to people: one line, and rows for side-by-side comparison. */
 
 /** A number as entered: its own decimals, never scientific notation. */
-const number = (v: number) => formatMeasured(v, resolutionOf([v]), PRINTED);
+const number = (v: number) => formatAsEntered(v, PRINTED);
 const count = (v: number) => formatCount(v, PRINTED);
 
 /** The figures of a study's data, as rows a person can compare. */

@@ -1,6 +1,6 @@
 /** Display formatting shared by the pages; one place so every page writes numbers the same way. */
 
-import { formatCount, formatMeasured, resolutionOf } from '../domain/figure-format';
+import { formatAsEntered, formatCount } from '../domain/figure-format';
 
 export { countOf, formatCount } from '../domain/figure-format';
 
@@ -35,7 +35,7 @@ export function formatBytes(bytes: number | undefined): string {
 
 /** A limit or target as entered (its own decimals, never scientific notation), or an en dash where there is none. */
 export function formatLimit(value: number | undefined): string {
-  return value === undefined ? '–' : formatMeasured(value, resolutionOf([value]));
+  return value === undefined ? '–' : formatAsEntered(value);
 }
 
 export function formatDateTime(iso: string): string {

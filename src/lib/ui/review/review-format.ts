@@ -1,3 +1,4 @@
+import { formatPValue } from '../../domain/figure-format';
 import { formatFixed } from '../capability-format';
 import { formatMoney } from '../format';
 
@@ -25,7 +26,9 @@ export function formatChange(v: number | undefined, digits = 2): string {
   return v > 0 ? `+${text}` : v < 0 ? `−${text}` : text;
 }
 
+/** A p-value by the figure policy, as the review writes it: "p < 0.001", "p = 0.214". */
 export function formatP(p: number | undefined): string {
   if (p === undefined) return 'not testable';
-  return p < 0.001 ? 'p < 0.001' : `p = ${p.toFixed(3)}`;
+  const text = formatPValue(p);
+  return text.startsWith('<') ? `p ${text}` : `p = ${text}`;
 }
