@@ -13,7 +13,8 @@ import { countOf, PRINTED } from '../lib/domain/figure-format';
 
 declare const __APP_VERSION__: string | undefined;
 
-const PREFER: Record<string, ConflictRule> = { newer: 'newer', base: 'local', incoming: 'incoming' };
+/** `--prefer` of `merge` and `gather`: which side a conflict keeps. */
+export const PREFER: Record<string, ConflictRule> = { newer: 'newer', base: 'local', incoming: 'incoming' };
 
 /** Exit code when conflicts stop a merge (no `--prefer`): distinct from bad input (2). */
 export const CONFLICT_EXIT = 3;

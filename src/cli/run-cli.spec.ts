@@ -1,9 +1,10 @@
 import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { checkValues, expectAbsolute, furnaceThickness } from '../../tests/support/reference-data';
+import { canonicalJson } from '../lib/domain/canonical-json';
 import { runCli } from './run-cli';
 
 const dir = mkdtempSync(join(tmpdir(), 'capstan-cli-'));
@@ -391,6 +392,98 @@ describe('capstan check and merge', async () => {
     expect(live).toHaveLength(1);
     expect(live[0]!.data).toMatchObject({ mean: 10.2 });
     expect((await run('check', out)).code).toBe(0);
+  });
+
+  describe('gather', () => {
+    let folders = 0;
+    /** A folder as a sync service leaves it: device files, files still being written, a note, a cut-off file. */
+    const folderWith = (files: Record<string, string | Uint8Array>) => {
+      folders += 1;
+      const path = join(dir, `shared-${folders}`);
+      mkdirSync(path);
+      for (const [name, content] of Object.entries(files)) {
+        if (typeof content === 'string') copyFileSync(content, join(path, name));
+        else writeFileSync(join(path, name), content);
+      }
+      return path;
+    };
+    const recordsIn = async (path: string) =>
+      (await decodeExchangeFile(new Uint8Array(readFileSync(path)))).records;
+
+    it('merges every exchange file, skips names still being written, names a damaged file and exits 0', async () => {
+      const whole = readFileSync(hqPath);
+      const folder = folderWith({
+        'base.capstan.json': basePath,
+        'hq.capstan.json.gz': hqPath,
+        '.syncthing.site.capstan.json.tmp': whole.subarray(0, 50),
+        '~syncthing~site.capstan.json.tmp': whole.subarray(0, 50),
+        'site.capstan.json.part': whole.subarray(0, 50),
+        'notes.txt': new TextEncoder().encode('not an exchange file'),
+        'cut-off.capstan.json.gz': whole.subarray(0, whole.length - 30)
+      });
+      const out = join(folder, 'office.capstan.json');
+      const r = await run('gather', folder, '-o', out);
+      expect(r.code).toBe(0);
+      expect(r.err.trim().split('\n')).toEqual([
+        expect.stringMatching(/^capstan gather: skipped 'cut-off\.capstan\.json\.gz': /)
+      ]);
+      expect(r.out).toMatch(/from 2 files, 1 damaged file skipped/);
+      const merged = await recordsIn(out);
+      expect(merged.sites.find((x) => x.id === base.sites[0]!.id)?.name).toBe('Renamed at HQ');
+      expect(merged.studies).toHaveLength(base.studies.length);
+      expect(readdirSync(folder).filter((n) => n.startsWith('.office'))).toEqual([]);
+      expect((await run('check', out)).code).toBe(0);
+
+      // Gathering again with its own output in the folder changes no record.
+      const again = await run('gather', folder, '-o', out);
+      expect(again.code).toBe(0);
+      expect(canonicalJson(await recordsIn(out))).toBe(canonicalJson(merged));
+
+      // --strict: a damaged file stops it, with exit 2 and nothing written.
+      const strictOut = join(dir, 'strict.capstan.json');
+      const strict = await run('gather', folder, '-o', strictOut, '--strict');
+      expect(strict.code).toBe(2);
+      expect(strict.err).toMatch(/--strict given: nothing was written/);
+      expect(existsSync(strictOut)).toBe(false);
+    });
+
+    it('stops at conflicts with exit 3 and writes nothing; --prefer settles them; a conflict copy is read like any file', async () => {
+      const folder = folderWith({
+        'base.capstan.json': basePath,
+        'hq.capstan.json.gz': hqPath,
+        'site.capstan.json.sync-conflict-20261203-101010-ABCDEFG.json': sitePath
+      });
+      const out = join(dir, 'gathered-conflict.capstan.json');
+      const stop = await run('gather', folder, '-o', out, '--json');
+      expect(stop.code).toBe(3);
+      const j = JSON.parse(stop.out);
+      expect(j.written).toBe(false);
+      expect(j.conflicts.map((c: { id: string; type: string }) => [c.id, c.type])).toEqual([
+        [base.sites[0]!.id, 'record']
+      ]);
+      expect(existsSync(out)).toBe(false);
+      const ok = await run('gather', folder, '-o', out, '--prefer', 'newer');
+      expect(ok.code).toBe(0);
+      expect(ok.out).toMatch(/1 conflict settled: newer/);
+      expect((await recordsIn(out)).sites.find((x) => x.id === base.sites[0]!.id)?.name).toBe(
+        'Renamed at the site'
+      );
+      // The settled file in the folder ends the conflict for everyone: gathering again asks nothing.
+      copyFileSync(out, join(folder, 'office.capstan.json'));
+      expect((await run('gather', folder, '-o', join(dir, 'after-settle.capstan.json'))).code).toBe(0);
+    });
+
+    it('refuses an empty folder, a missing one and a wrong option with exit 2 and one line', async () => {
+      const empty = folderWith({ 'notes.txt': new TextEncoder().encode('x') });
+      const r = await run('gather', empty, '-o', join(dir, 'never.capstan.json'));
+      expect(r.code).toBe(2);
+      expect(r.err).toMatch(/No exchange files in/);
+      expect((await run('gather', join(dir, 'no-such-folder'), '-o', join(dir, 'x.json'))).err).toMatch(
+        /Cannot read the folder/
+      );
+      expect((await run('gather', empty, '-o', join(dir, 'x.json'), '--prefer', 'mine')).code).toBe(2);
+      expect((await run('gather', empty)).err).toMatch(/gather needs a folder and an output/);
+    });
   });
 
   it('rank reads an exchange file and ranks it as the demo file', async () => {

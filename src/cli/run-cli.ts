@@ -1,6 +1,7 @@
 import { CsvInputError } from '../lib/spreadsheet/measurement-csv';
 import { analyzeCommand, MODELS } from './analyze-command';
 import { checkCommand } from './check-command';
+import { gatherCommand } from './gather-command';
 import { mergeCommand } from './merge-command';
 import { UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
@@ -22,11 +23,14 @@ export const USAGE = `Capstan command line — capability figures with their ass
           (FILE: an exchange file or the demo portfolio file)
   check   FILE [--json]                      validate an exchange file; print its header and counts
   merge   BASE INCOMING -o OUT [--prefer newer|base|incoming] [--json]
+  gather  FOLDER -o OUT [--prefer newer|base|incoming] [--strict] [--json]
+          every exchange file in a shared sync folder merged into one (names still being written are skipped;
+          a damaged file is named on stderr and skipped, or with --strict stops it)
   portfolio LIST.csv -o OUT.capstan.json [--delimiter ,|;|tab] [--decimal .|,] [--from YYYY-MM] [--json]
           a master list (one row per characteristic) as an exchange file for setting up every site
 
 Exit 0 on success; 2 on bad input, with one line on stderr saying what and where (portfolio: one per bad row);
-3 when merge finds conflicts and no --prefer was given (nothing written).`;
+3 when merge or gather finds conflicts and no --prefer was given (nothing written).`;
 
 /** Runs one command; returns the exit code. Bad input never throws out of here. */
 export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
@@ -45,6 +49,8 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         return await checkCommand(rest, io);
       case 'merge':
         return await mergeCommand(rest, io);
+      case 'gather':
+        return await gatherCommand(rest, io);
       case 'portfolio':
         return await portfolioCommand(rest, io);
       case undefined:
@@ -54,7 +60,7 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         return command === undefined ? 2 : 0;
       default:
         throw new UsageError(
-          `Unknown command '${command}'; use analyze, counts, convert, rank, check, merge or portfolio (help lists them)`
+          `Unknown command '${command}'; use analyze, counts, convert, rank, check, merge, gather or portfolio (help lists them)`
         );
     }
   } catch (error) {

@@ -14,6 +14,13 @@ import type {
   ReceiveResult,
   PeerRecord
 } from './change-set-store';
+import {
+  loadFolderHandle,
+  loadFolderSyncState,
+  saveFolderHandle,
+  saveFolderSyncState,
+  type FolderSyncState
+} from './folder-sync-state';
 import { loadClock, loadDeviceId, loadDeviceName, saveDeviceName, writeContextFor } from './device-identity';
 import { ContextProfileRepository } from './context-profile-repository';
 import { EntryDraftRepository } from './entry-draft-repository';
@@ -100,6 +107,16 @@ export interface CapstanStorage {
     backupStatus(): Promise<BackupStatus>;
     reminderDays(): Promise<number>;
     setReminderDays(days: number): Promise<number>;
+  };
+  /** The shared sync folder: its stored handle and what the last syncs saw (device-local). */
+  readonly syncFolder: {
+    handle(): Promise<unknown>;
+    /** Undefined forgets the folder and what was seen in it. */
+    setHandle(handle: unknown): Promise<void>;
+    state(): Promise<FolderSyncState>;
+    saveState(state: FolderSyncState): Promise<void>;
+    /** This device's write sequence so far: it grows with every record written here, typed or merged. */
+    writeMark(): number;
   };
   readonly clock: HybridClock;
   loadDemo(file: unknown): Promise<DemoLoadResult>;
@@ -233,6 +250,13 @@ export async function openStorage(
         await db.deviceSettings.put({ key: REMINDER_KEY, value: v });
         return v;
       }
+    },
+    syncFolder: {
+      handle: () => loadFolderHandle(db),
+      setHandle: (handle) => saveFolderHandle(db, handle),
+      state: () => loadFolderSyncState(db),
+      saveState: (state) => saveFolderSyncState(db, state),
+      writeMark: () => db.sequence.latest
     },
     loadDemo: (file) => loadDemoPortfolio(db, file),
     demoPresent: () => isDemoPresent(db),

@@ -1,0 +1,220 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { canonicalJson } from './canonical-json';
+import { HybridClock } from './hybrid-clock';
+import { emptyRecords, type RecordsByKind } from './record-kinds';
+import type { ConflictRule } from './record-merge';
+import {
+  editableOf,
+  isLive,
+  stampDeleted,
+  stampNew,
+  stampUpdate,
+  type RecordMeta,
+  type WriteContext
+} from './record-meta';
+import { gatherRecordSets, type GatherSource } from './record-set-gather';
+import { mergeRecordSets } from './record-set-merge';
+
+/**
+ * `gather` over random multi-device histories: four devices start from one office's portfolio, rename and
+ * delete sites, log months (the same month on two devices is common), and send files to each other in random
+ * order ("newer edit wins"). Their record sets are then gathered as a shared folder would hold them.
+ *
+ * 1. The result equals merging the sets one after the other with `mergeRecordSets` (whichever path ran).
+ * 2. Without conflicts, the order of the sets does not matter.
+ * 3. Gathering again with the result among the sets changes no record.
+ * 4. Without a rule, the fast path never hides a conflict: it reports none only when the one-by-one merge
+ *    raises none either.
+ */
+const RUNS = Number(process.env.CAPSTAN_GATHER_RUNS ?? 300);
+const T0 = Date.parse('2026-11-15T08:00:00Z');
+const MONTHS = ['2026-08', '2026-09', '2026-10'];
+
+type Op =
+  | { op: 'rename'; device: number; site: number; name: number }
+  | { op: 'deleteSite'; device: number; site: number }
+  | { op: 'log'; device: number; ch: number; month: number; value: number }
+  | { op: 'send'; from: number; to: number };
+
+const device = fc.nat(3);
+const opArb: fc.Arbitrary<Op> = fc.oneof(
+  {
+    weight: 2,
+    arbitrary: fc.record({ op: fc.constant('rename' as const), device, site: fc.nat(1), name: fc.nat(5) })
+  },
+  { weight: 1, arbitrary: fc.record({ op: fc.constant('deleteSite' as const), device, site: fc.nat(1) }) },
+  {
+    weight: 4,
+    arbitrary: fc.record({
+      op: fc.constant('log' as const),
+      device,
+      ch: fc.nat(2),
+      month: fc.nat(2),
+      value: fc.nat(100)
+    })
+  },
+  { weight: 4, arbitrary: fc.record({ op: fc.constant('send' as const), from: device, to: device }) }
+);
+
+function writerFor(deviceId: string, clock: { ms: number }): WriteContext {
+  let ids = 0;
+  return {
+    deviceId,
+    now: () => new Date(clock.ms),
+    newId: () => `${deviceId}-${(ids += 1)}`,
+    clock: new HybridClock(deviceId, () => clock.ms)
+  };
+}
+
+/** The office's starting portfolio: two sites, one process each, three characteristics in all. */
+function startingPortfolio(ctx: WriteContext): RecordsByKind {
+  const records = emptyRecords();
+  const sites = [0, 1].map((i) => stampNew({ name: `Site ${i}`, timeZone: 'UTC' }, ctx));
+  const processes = sites.map((s, i) => stampNew({ siteId: s.id, name: `Process ${i}` }, ctx));
+  const characteristics = [0, 1, 2].map((i) =>
+    stampNew({ processId: processes[i % 2]!.id, name: `Characteristic ${i}` }, ctx)
+  );
+  return { ...records, sites, processes, characteristics } as unknown as RecordsByKind;
+}
+
+function runHistory(ops: readonly Op[]): GatherSource[] {
+  const clock = { ms: T0 };
+  const writers = [0, 1, 2, 3].map((d) => writerFor(`device-${d}`, clock));
+  const start = startingPortfolio(writers[0]!);
+  const held: RecordsByKind[] = [start, start, start, start];
+  const settle = writerFor('command-line', clock);
+  for (const op of ops) {
+    clock.ms += 60_000;
+    if (op.op === 'send') {
+      if (op.from === op.to) continue;
+      held[op.to] = mergeRecordSets(held[op.to]!, held[op.from]!, 'newer', settle).records;
+      continue;
+    }
+    const mine = held[op.device]!;
+    const ctx = writers[op.device]!;
+    if (op.op === 'rename') {
+      const site = mine.sites[op.site]!;
+      const next = stampUpdate(site, { ...editableOf(site), name: `Name ${op.name}` }, ctx);
+      held[op.device] = { ...mine, sites: mine.sites.map((s) => (s.id === site.id ? next : s)) };
+    } else if (op.op === 'deleteSite') {
+      // As the app deletes a site: with everything under it, in one write.
+      const site = mine.sites[op.site]!;
+      if (!isLive(site)) continue;
+      const processes = new Set(mine.processes.filter((p) => p.siteId === site.id).map((p) => p.id));
+      const characteristics = new Set(
+        mine.characteristics.filter((c) => processes.has(c.processId)).map((c) => c.id)
+      );
+      const under = (id: string, ids: Set<string>) => ids.has(id);
+      const drop = <T extends RecordMeta>(r: T, inside: boolean) =>
+        inside && isLive(r) ? stampDeleted(r, ctx) : r;
+      held[op.device] = {
+        ...mine,
+        sites: mine.sites.map((s) => drop(s, s.id === site.id)),
+        processes: mine.processes.map((p) => drop(p, under(p.id, processes))),
+        characteristics: mine.characteristics.map((c) => drop(c, under(c.id, characteristics))),
+        studies: mine.studies.map((x) => drop(x, under(x.characteristicId, characteristics)))
+      };
+    } else {
+      const ch = mine.characteristics[op.ch]!;
+      const period = MONTHS[op.month]!;
+      if (!isLive(ch)) continue; // The app logs only on a live characteristic.
+      if (mine.studies.some((s) => isLive(s) && s.characteristicId === ch.id && s.period === period))
+        continue;
+      const study = stampNew(
+        {
+          characteristicId: ch.id,
+          period,
+          data: { kind: 'summary' as const, n: 30, mean: op.value, sd: 1 },
+          enteredBy: ctx.deviceId
+        },
+        ctx
+      );
+      held[op.device] = { ...mine, studies: [...mine.studies, study] };
+    }
+  }
+  return held.map((records, i) => ({ name: `device-${i}.capstan.json`, records }));
+}
+
+function oneByOne(sources: readonly GatherSource[], rule: ConflictRule | undefined, writer: WriteContext) {
+  let records = emptyRecords();
+  let conflicts = 0;
+  for (const s of sources) {
+    const merged = mergeRecordSets(records, s.records, rule, writer);
+    records = merged.records;
+    conflicts += merged.conflicts.length;
+  }
+  return { records, conflicts };
+}
+
+const fixedWriter = () => writerFor('command-line', { ms: T0 + 86_400_000 });
+const history = fc.array(opArb, { minLength: 1, maxLength: 30 });
+
+describe('gathering many record sets into one', () => {
+  it(`equals merging them one by one, ignores their order when nothing conflicts, and is idempotent (${RUNS} histories)`, () => {
+    const paths = { fast: 0, 'one-by-one': 0 };
+    fc.assert(
+      fc.property(history, fc.infiniteStream(fc.nat()), (ops, shuffle) => {
+        const sources = runHistory(ops);
+        const gathered = gatherRecordSets(sources, 'newer', fixedWriter());
+        paths[gathered.path] += 1;
+        const expected = oneByOne(sources, 'newer', fixedWriter());
+        expect(canonicalJson(gathered.records)).toBe(canonicalJson(expected.records));
+
+        const again = gatherRecordSets(
+          [...sources, { name: 'office.capstan.json', records: gathered.records }],
+          'newer',
+          fixedWriter()
+        );
+        expect(canonicalJson(again.records)).toBe(canonicalJson(gathered.records));
+
+        if (gathered.path === 'fast') {
+          const keys = [...sources].map((s) => ({ s, k: shuffle.next().value as number }));
+          const reordered = keys.sort((a, b) => a.k - b.k).map((x) => x.s);
+          const other = gatherRecordSets(reordered, undefined, fixedWriter());
+          expect(other.conflicts).toEqual([]);
+          expect(canonicalJson(other.records)).toBe(canonicalJson(gathered.records));
+        }
+
+        const unruled = gatherRecordSets(sources, undefined, fixedWriter());
+        if (unruled.path === 'fast') expect(oneByOne(sources, undefined, fixedWriter()).conflicts).toBe(0);
+        else expect(oneByOne(sources, undefined, fixedWriter()).conflicts).toBeGreaterThan(0);
+      }),
+      { numRuns: RUNS }
+    );
+    // Both paths were exercised, or the equality above proves little.
+    expect(paths.fast).toBeGreaterThan(RUNS / 10);
+    expect(paths['one-by-one']).toBeGreaterThan(RUNS / 10);
+  });
+
+  it('reports a conflict once a later set no longer settles it, naming the set that raised it', () => {
+    const clock = { ms: T0 };
+    const office = writerFor('office', clock);
+    const start = startingPortfolio(office);
+    const site = start.sites[0]!;
+    clock.ms += 1000;
+    const a = {
+      ...start,
+      sites: [stampUpdate(site, { ...editableOf(site), name: 'A' }, writerFor('a', clock)), start.sites[1]!]
+    };
+    clock.ms += 1000;
+    const b = {
+      ...start,
+      sites: [stampUpdate(site, { ...editableOf(site), name: 'B' }, writerFor('b', clock)), start.sites[1]!]
+    };
+    const open = gatherRecordSets([
+      { name: 'a.capstan.json', records: a },
+      { name: 'b.capstan.json', records: b }
+    ]);
+    expect(open.conflicts.map((c) => [c.source, c.conflict.key])).toEqual([['b.capstan.json', site.id]]);
+    // A set in which someone already settled the two (its version has seen both) ends the conflict.
+    const settled = mergeRecordSets(a, b, 'incoming', office).records;
+    const closed = gatherRecordSets([
+      { name: 'a.capstan.json', records: a },
+      { name: 'b.capstan.json', records: b },
+      { name: 'c.capstan.json', records: settled }
+    ]);
+    expect(closed.conflicts).toEqual([]);
+    expect(closed.records.sites.find((s) => s.id === site.id)?.name).toBe('B');
+  });
+});
