@@ -1,6 +1,7 @@
 import { getContext, setContext } from 'svelte';
 import { openStorage, type CapstanStorage } from '../storage/storage';
 import { readStorageHealth, requestPersistence, type StorageHealth } from '../storage/storage-health';
+import type { FolderSyncController } from './folder-sync.svelte';
 
 /**
  * What every page needs: the open storage (once it is open), this device's persistence status and the
@@ -13,6 +14,8 @@ export class AppState {
   blocked = $state.raw<string | undefined>(undefined);
   health = $state.raw<StorageHealth | undefined>(undefined);
   online = $state(true);
+  /** Sync through a shared folder: started once storage is open (loaded then, off the first page's code). */
+  folderSync = $state.raw<FolderSyncController | undefined>(undefined);
 
   async open(): Promise<void> {
     try {
@@ -22,10 +25,26 @@ export class AppState {
       this.openError = error instanceof Error ? error.message : String(error);
       return;
     }
+    // Only a device that uses a sync folder loads its code at start; the File exchange page loads it too.
+    if (await this.storage.syncFolder.handle()) void this.loadFolderSync();
     // Ask once per start; browsers remember a grant, and a refusal costs nothing.
     await requestPersistence().catch(() => undefined);
     await this.refreshHealth();
   }
+
+  /** Creates (once) and starts the folder sync of this device. */
+  async loadFolderSync(): Promise<FolderSyncController | undefined> {
+    const storage = this.storage;
+    if (!storage) return undefined;
+    this.folderSyncLoading ??= import('./folder-sync.svelte').then(async ({ FolderSyncController }) => {
+      const controller = new FolderSyncController(storage);
+      await controller.start();
+      this.folderSync = controller;
+      return controller;
+    });
+    return this.folderSyncLoading;
+  }
+  private folderSyncLoading: Promise<FolderSyncController> | undefined;
 
   async refreshHealth(): Promise<void> {
     this.health = await readStorageHealth();
