@@ -109,7 +109,9 @@ export async function gatherCommand(argv: readonly string[], io: CliIo): Promise
           ...conflicts.map(
             (c) => `  ${c.title} (${KIND_LABEL[c.kind]} ${c.id}, raised by ${c.source}): ${c.question}`
           ),
-          'Settle them in the app, or choose with --prefer newer (later edit wins), base or incoming.'
+          gathered.refused
+            ? `--prefer ${preferText} cannot settle them (${gathered.refused}): settle them in the app.`
+            : 'Settle them in the app, or choose with --prefer newer (later edit wins), base or incoming.'
         ].join('\n')
       );
     }

@@ -3,12 +3,19 @@
  * beside `npm run env` (npm's own start, the least any npm script costs); and `rank` and `check` of a
  * 2 000-process exchange file, beside a Node process that only reads and JSON.parses the same file. Medians of
  * five runs. Prints only.
+ *
+ * `gather` of a shared folder: the same portfolio as 50 site devices' files (each site's records with the
+ * targets, as each device holds them before any sync), beside a Node process that reads and JSON.parses the
+ * 50 files.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { emptyRecords, parentIdOf, RECORD_KINDS } from '../../src/lib/domain/record-kinds';
+import type { RecordMeta } from '../../src/lib/domain/record-meta';
+import { changeSetOf, decodeExchangeFile, encodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 import { companyPortfolioFile } from './company-portfolio-file';
 import type { BenchRow } from './engine-bench';
 
@@ -25,6 +32,36 @@ function medianRun(command: string, args: string[], runs = 5): number {
   return times.sort((a, b) => a - b)[Math.floor(times.length / 2)]!;
 }
 
+/** The company file split into one file per site, as each site's device would write it. */
+export async function writeSiteDeviceFiles(bytes: Uint8Array, folder: string): Promise<string[]> {
+  const { header, records } = await decodeExchangeFile(bytes);
+  const siteOf = new Map<string, string>();
+  for (const site of records.sites) siteOf.set(site.id, site.id);
+  for (const kind of RECORD_KINDS) {
+    for (const r of records[kind] as RecordMeta[]) {
+      const parent = parentIdOf(kind, r);
+      if (parent !== undefined && siteOf.has(parent)) siteOf.set(r.id, siteOf.get(parent)!);
+    }
+  }
+  const paths: string[] = [];
+  for (const [i, site] of records.sites.entries()) {
+    const own = emptyRecords() as unknown as Record<string, RecordMeta[]>;
+    for (const kind of RECORD_KINDS) {
+      own[kind] = (records[kind] as RecordMeta[]).filter(
+        (r) => kind === 'contextProfiles' || siteOf.get(r.id) === site.id
+      );
+    }
+    const name = `Works-${i + 1}-${String(i).padStart(8, '0')}.capstan.json`;
+    const changeSet = changeSetOf(
+      { ...header, exportedBy: { deviceId: `site-device-${i}`, deviceName: `Works ${i + 1}` } },
+      own as never
+    );
+    writeFileSync(join(folder, name), await encodeExchangeFile(changeSet));
+    paths.push(join(folder, name));
+  }
+  return paths;
+}
+
 export async function runCommandLineBench(): Promise<BenchRow[]> {
   const dir = mkdtempSync(join(tmpdir(), 'capstan-cli-bench-'));
   try {
@@ -38,6 +75,23 @@ export async function runCommandLineBench(): Promise<BenchRow[]> {
     ]);
     const check = medianRun('npm', ['run', '-s', 'cli', '--', 'check', file]);
     const rank = medianRun('npm', ['run', '-s', 'cli', '--', 'rank', file]);
+    const folder = join(dir, 'shared');
+    mkdirSync(folder);
+    const deviceFiles = await writeSiteDeviceFiles(readFileSync(file), folder);
+    const parseAll = medianRun(process.execPath, [
+      '-e',
+      `for (const f of ${JSON.stringify(deviceFiles)}) JSON.parse(require('fs').readFileSync(f, 'utf8'))`
+    ]);
+    const gather = medianRun('npm', [
+      'run',
+      '-s',
+      'cli',
+      '--',
+      'gather',
+      folder,
+      '-o',
+      join(dir, 'gathered.json')
+    ]);
     const parseBase = {
       baselineName: 'node reading and JSON.parse of the file',
       baselineMs: parse,
@@ -57,7 +111,15 @@ export async function runCommandLineBench(): Promise<BenchRow[]> {
         ...parseBase,
         target: '≤ 2.5×'
       },
-      { name: '`rank` of the same file', ms: rank, ...parseBase, target: '≤ 2.5×' }
+      { name: '`rank` of the same file', ms: rank, ...parseBase, target: '≤ 2.5×' },
+      {
+        name: "`gather` of 50 site devices' files of the same portfolio",
+        ms: gather,
+        baselineName: 'node reading and JSON.parse of the 50 files',
+        baselineMs: parseAll,
+        size: 2000,
+        target: '≤ 3×'
+      }
     ];
   } finally {
     rmSync(dir, { recursive: true, force: true });

@@ -9,6 +9,15 @@
  */
 export function canonicalJson(value: unknown, maxDepth = 64): string {
   try {
+    // Fast path: a copy with every object's keys inserted in sorted order, written by JSON.stringify. Same text
+    // (JSON.stringify follows insertion order, writes numbers and strings the same way and leaves out undefined
+    // keys), about ten times faster on a company's file than joining the pieces here. Objects with array-index
+    // keys ("0", "12") cannot be reordered that way (the engine lists those first, by value): they take `write`.
+    try {
+      return JSON.stringify(sortedCopy(value, 0, maxDepth));
+    } catch (error) {
+      if (error !== INDEX_KEYS) throw error;
+    }
     return write(value, 0, maxDepth);
   } catch (error) {
     // Paths are only worked out when something is wrong: building them for every value costs more than the rest.
@@ -47,6 +56,45 @@ function problemPath(
     if (found) return found;
   }
   return undefined;
+}
+
+/** The same text built piece by piece, for every value: the reference the fast path is tested against. */
+export function canonicalJsonPiecewise(value: unknown, maxDepth = 64): string {
+  return write(value, 0, maxDepth);
+}
+
+/** Thrown by `sortedCopy` when an object has array-index keys, which only `write` can order. */
+const INDEX_KEYS = Symbol('array-index keys');
+const ARRAY_INDEX = /^(?:0|[1-9]\d*)$/;
+
+function sortedCopy(value: unknown, depth: number, maxDepth: number): unknown {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new RangeError('value is not a finite number');
+    return value;
+  }
+  if (value === null || typeof value === 'string' || typeof value === 'boolean') return value;
+  if (typeof value !== 'object') throw new TypeError(`a value cannot be written as JSON (${typeof value})`);
+  if (depth >= maxDepth) throw new RangeError(`value is nested more than ${maxDepth} levels deep`);
+  if (Array.isArray(value)) {
+    let copy: unknown[] | undefined;
+    for (let i = 0; i < value.length; i++) {
+      const item: unknown = value[i];
+      const out = item === undefined ? null : sortedCopy(item, depth + 1, maxDepth);
+      if (copy === undefined && out !== item) copy = value.slice(0, i);
+      if (copy !== undefined) copy.push(out);
+    }
+    return copy ?? value;
+  }
+  const obj = value as Record<string, unknown>;
+  const keys = Object.keys(obj).sort();
+  // No prototype: a key named __proto__ stays an ordinary key, as JSON.parse made it.
+  const copy: Record<string, unknown> = Object.create(null) as Record<string, unknown>;
+  for (const key of keys) {
+    if (ARRAY_INDEX.test(key) && Number(key) < 4294967295) throw INDEX_KEYS;
+    const item = obj[key];
+    if (item !== undefined) copy[key] = sortedCopy(item, depth + 1, maxDepth);
+  }
+  return copy;
 }
 
 /** Keys are few and repeat in every record: their quoted form is computed once. */

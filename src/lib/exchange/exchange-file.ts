@@ -74,17 +74,30 @@ export function changeSetOf(header: HeaderInput, records: RecordsByKind): Change
   };
 }
 
-/** Canonical text of a change set, hash included: the same change set always gives the same bytes. */
+/**
+ * Canonical bytes of a change set, hash included: the same change set always gives the same bytes. The body is
+ * encoded to UTF-8 once; the hash is taken of those bytes and its key appended to them ("sha256" sorts after
+ * every other top-level key, so the result is still the canonical form of the whole object).
+ */
+async function exchangeBytes(changeSet: ChangeSet): Promise<Uint8Array> {
+  const body = new TextEncoder().encode(
+    canonicalJson({
+      format: EXCHANGE_FORMAT,
+      formatVersion: EXCHANGE_FORMAT_VERSION,
+      header: changeSet.header,
+      records: changeSet.records
+    })
+  );
+  const tail = new TextEncoder().encode(`,"sha256":"${await sha256Hex(body)}"}`);
+  const out = new Uint8Array(body.byteLength - 1 + tail.byteLength);
+  out.set(body.subarray(0, body.byteLength - 1));
+  out.set(tail, body.byteLength - 1);
+  return out;
+}
+
+/** The canonical text (what `exchangeBytes` encodes), for tests and tools that compare files as text. */
 export async function exchangeText(changeSet: ChangeSet): Promise<string> {
-  const body = canonicalJson({
-    format: EXCHANGE_FORMAT,
-    formatVersion: EXCHANGE_FORMAT_VERSION,
-    header: changeSet.header,
-    records: changeSet.records
-  });
-  const hash = await sha256Hex(body);
-  // "sha256" sorts after every other top-level key, so this is still the canonical form of the whole object.
-  return `${body.slice(0, -1)},"sha256":"${hash}"}`;
+  return new TextDecoder().decode(await exchangeBytes(changeSet));
 }
 
 async function pipeBytes(
@@ -122,7 +135,7 @@ export async function encodeExchangeFile(
   changeSet: ChangeSet,
   options: { gzip?: boolean } = {}
 ): Promise<Uint8Array> {
-  const bytes = new TextEncoder().encode(await exchangeText(changeSet));
+  const bytes = await exchangeBytes(changeSet);
   return options.gzip ? pipeBytes(bytes, new CompressionStream('gzip'), Number.MAX_SAFE_INTEGER) : bytes;
 }
 
