@@ -5,6 +5,7 @@ import type { ConflictRule } from '../lib/domain/record-merge';
 import { summariseConflict } from '../lib/domain/conflict-summary';
 import { RecordIndex } from '../lib/domain/record-index';
 import { mergeRecordSets } from '../lib/domain/record-set-merge';
+import { MergeRefused } from '../lib/domain/change-set-merge';
 import { changeSetOf, encodeExchangeFile } from '../lib/exchange/exchange-file';
 import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
@@ -47,7 +48,17 @@ export async function mergeCommand(argv: readonly string[], io: CliIo): Promise<
   }
   const rule = preferText === undefined ? undefined : PREFER[preferText];
   const [base, incoming] = [await readExchangeFile(basePath), await readExchangeFile(incomingPath)];
-  const merged = mergeRecordSets(base.records, incoming.records, rule);
+  let merged: ReturnType<typeof mergeRecordSets>;
+  try {
+    merged = mergeRecordSets(base.records, incoming.records, rule);
+  } catch (error) {
+    // A rule that cannot settle (bringing a deleted parent back would leave a month with two studies).
+    if (!(error instanceof MergeRefused)) throw error;
+    io.stderr(
+      `capstan merge: --prefer ${preferText} cannot settle the conflicts (${error.message}): settle them in the app`
+    );
+    return CONFLICT_EXIT;
+  }
   const lookup = lookupIn(base.records, incoming.records);
   const conflicts = merged.conflicts.map((c) => {
     const summary = summariseConflict(c, lookup);

@@ -186,6 +186,14 @@ test('two devices sync through a shared folder; a crossing edit waits on both an
   await syncNow(site);
   await expect(siteRows.first()).toHaveAttribute('data-outcome', 'merged');
 
+  // Kept to be looked at: the panel with a device's file listed, wide and narrow; nothing wider than the screen.
+  for (const width of [1366, 390]) {
+    await site.setViewportSize({ width, height: 900 });
+    await site.getByTestId('folder-sync').scrollIntoViewIfNeeded();
+    expect(await site.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(width);
+    await site.screenshot({ path: `tests/e2e/.output/pages/${width}-shared-sync-folder.png` });
+  }
+
   // The folder is remembered: after a restart the device syncs by itself.
   await office.reload();
   await nav(office, 'File exchange').click();
