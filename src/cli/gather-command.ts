@@ -1,18 +1,16 @@
-import { readdir, rename, rm, writeFile } from 'node:fs/promises';
-import { basename, dirname, join, resolve } from 'node:path';
+import { readdir } from 'node:fs/promises';
+import { join } from 'node:path';
 import { summariseConflict } from '../lib/domain/conflict-summary';
 import { countOf, PRINTED } from '../lib/domain/figure-format';
 import { KIND_LABEL, type RecordsByKind } from '../lib/domain/record-kinds';
 import { RecordIndex } from '../lib/domain/record-index';
 import { gatherRecordSets, type GatherSource } from '../lib/domain/record-set-gather';
-import { changeSetOf, encodeExchangeFile } from '../lib/exchange/exchange-file';
-import { folderEntryRole, unfinishedNameOf } from '../lib/exchange/folder-names';
+import { folderEntryRole } from '../lib/exchange/folder-names';
 import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
 import { readExchangeFile } from './exchange-file-input';
 import { CONFLICT_EXIT, PREFER } from './merge-command';
-
-declare const __APP_VERSION__: string | undefined;
+import { mergedChangeSet, writeExchangeOutput } from './merged-output';
 
 /** The header lists at most this many sources (the format's limit is 10); the rest are counted. */
 const NAMED_SOURCES = 9;
@@ -118,24 +116,8 @@ export async function gatherCommand(argv: readonly string[], io: CliIo): Promise
     return CONFLICT_EXIT;
   }
 
-  const changeSet = changeSetOf(
-    {
-      appVersion: typeof __APP_VERSION__ === 'string' ? __APP_VERSION__ : 'command-line',
-      exportedBy: { deviceId: 'command-line', deviceName: 'capstan gather' },
-      exportedAt: new Date().toISOString(),
-      scope: { kind: 'merged', sources: sourceList(sources.map((s) => s.name)) }
-    },
-    gathered.records
-  );
-  const finalPath = resolve(out);
-  const partPath = join(dirname(finalPath), unfinishedNameOf(basename(finalPath)));
-  try {
-    await writeFile(partPath, await encodeExchangeFile(changeSet, { gzip: out.endsWith('.gz') }));
-    await rename(partPath, finalPath);
-  } catch {
-    await rm(partPath, { force: true });
-    throw new UsageError(`Cannot write '${out}'`);
-  }
+  const changeSet = mergedChangeSet('gather', sourceList(sources.map((s) => s.name)), gathered.records);
+  await writeExchangeOutput(out, changeSet);
   const total = Object.values(changeSet.header.counts).reduce((a, b) => a + b, 0);
   if (json) io.stdout(JSON.stringify({ written: true, out, ...report, records: total }, null, 2));
   else {

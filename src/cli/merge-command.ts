@@ -1,4 +1,3 @@
-import { writeFile } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { KIND_LABEL, type RecordsByKind } from '../lib/domain/record-kinds';
 import type { ConflictRule } from '../lib/domain/record-merge';
@@ -6,13 +5,11 @@ import { summariseConflict } from '../lib/domain/conflict-summary';
 import { RecordIndex } from '../lib/domain/record-index';
 import { mergeRecordSets } from '../lib/domain/record-set-merge';
 import { MergeRefused } from '../lib/domain/change-set-merge';
-import { changeSetOf, encodeExchangeFile } from '../lib/exchange/exchange-file';
 import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
 import { readExchangeFile } from './exchange-file-input';
+import { mergedChangeSet, writeExchangeOutput } from './merged-output';
 import { countOf, PRINTED } from '../lib/domain/figure-format';
-
-declare const __APP_VERSION__: string | undefined;
 
 /** `--prefer` of `merge` and `gather`: which side a conflict keeps. */
 export const PREFER: Record<string, ConflictRule> = { newer: 'newer', base: 'local', incoming: 'incoming' };
@@ -86,20 +83,10 @@ export async function mergeCommand(argv: readonly string[], io: CliIo): Promise<
     }
     return CONFLICT_EXIT;
   }
-  const changeSet = changeSetOf(
-    {
-      appVersion: typeof __APP_VERSION__ === 'string' ? __APP_VERSION__ : 'command-line',
-      exportedBy: { deviceId: 'command-line', deviceName: 'capstan merge' },
-      exportedAt: new Date().toISOString(),
-      scope: { kind: 'merged', sources: [basename(basePath), basename(incomingPath)] }
-    },
-    merged.records
+  await writeExchangeOutput(
+    out,
+    mergedChangeSet('merge', [basename(basePath), basename(incomingPath)], merged.records)
   );
-  try {
-    await writeFile(out, await encodeExchangeFile(changeSet, { gzip: out.endsWith('.gz') }));
-  } catch {
-    throw new UsageError(`Cannot write '${out}'`);
-  }
   const c = merged.counts;
   if (json)
     io.stdout(

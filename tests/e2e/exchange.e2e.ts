@@ -1,12 +1,12 @@
-import { chromium, expect, test, type BrowserContext, type Page } from '@playwright/test';
+import { expect, test, type Page } from '@playwright/test';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { canonicalJson } from '../../src/lib/domain/canonical-json';
 import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
-import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../support/chromium.mjs';
 import { QUIET_MONTH } from './demo-dates';
-import { startStaticServer, waitForServiceWorker, type RunningServer } from './static-server';
+import { deviceProfiles, editVehicleKeyTarget, nav } from './device-profiles';
+import { startStaticServer, type RunningServer } from './static-server';
 
 /**
  * Two devices in two separate Chromium profiles (own user-data directories, so own IndexedDB): the quality
@@ -15,42 +15,18 @@ import { startStaticServer, waitForServiceWorker, type RunningServer } from './s
 const MONTH = QUIET_MONTH;
 let server: RunningServer;
 const work = mkdtempSync(join(tmpdir(), 'capstan-exchange-e2e-'));
-const profiles: { context: BrowserContext; dir: string }[] = [];
+const profiles = deviceProfiles();
 
 test.beforeEach(async () => {
   server = await startStaticServer();
 });
 test.afterEach(async () => {
-  for (const p of profiles.splice(0)) {
-    await p.context.close();
-    rmSync(p.dir, { recursive: true, force: true });
-  }
+  await profiles.closeAll();
   await server.stop();
 });
 test.afterAll(() => rmSync(work, { recursive: true, force: true }));
 
-async function device(label: string, name: string): Promise<{ page: Page; context: BrowserContext }> {
-  const dir = mkdtempSync(join(tmpdir(), `capstan-profile-${label}-`));
-  const context = await chromium.launchPersistentContext(dir, {
-    executablePath: CHROMIUM_PATH,
-    args: CHROMIUM_ARGS,
-    acceptDownloads: true,
-    locale: 'en-GB'
-  });
-  profiles.push({ context, dir });
-  const page = context.pages()[0] ?? (await context.newPage());
-  await page.goto(server.url);
-  await waitForServiceWorker(page);
-  await nav(page, 'Settings').click();
-  await page.getByLabel('Your name, recorded on every study entered here').fill(name);
-  await page.getByRole('button', { name: 'Save name' }).click();
-  await expect(page.getByText('Saved.').first()).toBeVisible();
-  return { page, context };
-}
-
-function nav(page: Page, name: string) {
-  return page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name });
-}
+const device = (label: string, name: string) => profiles.device(server.url, label, name);
 
 async function toExchange(page: Page) {
   await nav(page, 'File exchange').click();
@@ -118,14 +94,6 @@ async function expectSameRecords(a: string, b: string) {
   }
 }
 
-async function editVehicleKeyTarget(page: Page, value: string) {
-  await nav(page, 'Settings').click();
-  await page.getByRole('button', { name: 'Edit targets of Vehicle parts' }).click();
-  await page.getByTestId('profile-form').locator('input[name="level-key"]').fill(value);
-  await page.getByRole('button', { name: 'Save targets' }).click();
-  await expect(page.getByText('Saved the targets of Vehicle parts')).toBeVisible();
-}
-
 test('a site lead and the quality office stay in step through files, and a crossing edit is shown and settled', async () => {
   test.setTimeout(180_000);
   const office = await device('office', 'Quality office');
@@ -170,8 +138,8 @@ test('a site lead and the quality office stay in step through files, and a cross
   const siteAll = await saveFile(site.page, { everything: true }, '4-site-all');
   const officeSite = await saveFile(office.page, { site: 'North Ridge Machining' }, '4-office-site');
   await expectSameRecords(siteAll, officeSite);
-  const profiles = (await recordsOf(siteAll)).contextProfiles;
-  expect(profiles.map((p) => p.levels.key)).toEqual([1.9]);
+  const storedTargets = (await recordsOf(siteAll)).contextProfiles;
+  expect(storedTargets.map((p) => p.levels.key)).toEqual([1.9]);
 
   // Both change the same target before meeting again.
   await editVehicleKeyTarget(office.page, '2');

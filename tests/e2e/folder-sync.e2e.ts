@@ -1,9 +1,6 @@
-import { chromium, expect, test, type BrowserContext, type Page } from '@playwright/test';
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../support/chromium.mjs';
-import { startStaticServer, waitForServiceWorker, type RunningServer } from './static-server';
+import { expect, test, type Page } from '@playwright/test';
+import { deviceProfiles, editVehicleKeyTarget, nav } from './device-profiles';
+import { startStaticServer, type RunningServer } from './static-server';
 
 /**
  * The app's folder transport in real Chromium, through the origin-private file system: two devices in two
@@ -12,16 +9,13 @@ import { startStaticServer, waitForServiceWorker, type RunningServer } from './s
  * service would. A crossing edit must then wait on both devices and be settled by a person.
  */
 let server: RunningServer;
-const profiles: { context: BrowserContext; dir: string }[] = [];
+const profiles = deviceProfiles();
 
 test.beforeEach(async () => {
   server = await startStaticServer();
 });
 test.afterEach(async () => {
-  for (const p of profiles.splice(0)) {
-    await p.context.close();
-    rmSync(p.dir, { recursive: true, force: true });
-  }
+  await profiles.closeAll();
   await server.stop();
 });
 
@@ -33,26 +27,10 @@ const OPFS_PICKER = () => {
   });
 };
 
-function nav(page: Page, name: string) {
-  return page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name });
-}
-
 async function device(label: string, name: string): Promise<Page> {
-  const dir = mkdtempSync(join(tmpdir(), `capstan-folder-${label}-`));
-  const context = await chromium.launchPersistentContext(dir, {
-    executablePath: CHROMIUM_PATH,
-    args: CHROMIUM_ARGS,
-    locale: 'en-GB'
-  });
-  profiles.push({ context, dir });
-  await context.addInitScript(OPFS_PICKER);
-  const page = context.pages()[0] ?? (await context.newPage());
-  await page.goto(server.url);
-  await waitForServiceWorker(page);
-  await nav(page, 'Settings').click();
-  await page.getByLabel('Your name, recorded on every study entered here').fill(name);
-  await page.getByRole('button', { name: 'Save name' }).click();
-  await expect(page.getByText('Saved.').first()).toBeVisible();
+  const { page } = await profiles.device(server.url, label, name, (context) =>
+    context.addInitScript(OPFS_PICKER)
+  );
   return page;
 }
 
@@ -104,14 +82,6 @@ async function syncNow(page: Page) {
   const before = await last.getAttribute('data-at', { timeout: 2000 }).catch(() => null);
   await panel.getByTestId('sync-now').click();
   await expect(last).not.toHaveAttribute('data-at', before ?? '');
-}
-
-async function editVehicleKeyTarget(page: Page, value: string) {
-  await nav(page, 'Settings').click();
-  await page.getByRole('button', { name: 'Edit targets of Vehicle parts' }).click();
-  await page.getByTestId('profile-form').locator('input[name="level-key"]').fill(value);
-  await page.getByRole('button', { name: 'Save targets' }).click();
-  await expect(page.getByText('Saved the targets of Vehicle parts')).toBeVisible();
 }
 
 test('two devices sync through a shared folder; a crossing edit waits on both and a person settles it', async () => {

@@ -116,7 +116,8 @@ export class MergeRefused extends Error {
   }
 }
 
-const zeroCounts = (): Record<MergeKind, number> => ({
+/** A count per merge outcome, all zero. */
+export const zeroCounts = (): Record<MergeKind, number> => ({
   new: 0,
   updated: 0,
   deleted: 0,

@@ -1,4 +1,4 @@
-import { MergeRefused, type MergeConflict } from './change-set-merge';
+import { MergeRefused, zeroCounts, type MergeConflict } from './change-set-merge';
 import {
   CHILD_KINDS,
   emptyRecords,
@@ -54,14 +54,6 @@ export interface GatheredRecords {
   /** Why a rule given could not settle the open conflicts (they are then in `conflicts`). */
   refused?: string;
 }
-
-const zeroCounts = (): Record<MergeKind, number> => ({
-  new: 0,
-  updated: 0,
-  deleted: 0,
-  unchanged: 0,
-  conflict: 0
-});
 
 function fastGather(
   sources: readonly GatherSource[]
