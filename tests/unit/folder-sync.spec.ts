@@ -129,6 +129,17 @@ describe('sync through a shared folder', () => {
     expect(await siteNames(office)).toEqual(['North Ridge']);
   });
 
+  it('a renamed device writes its file under the new name and removes the old one', async () => {
+    const path = newFolder();
+    const north = await device('North lead');
+    await north.sites.create({ name: 'North Ridge', timeZone: 'Europe/Oslo', region: 'North' });
+    await sync(north, path);
+    await north.setDeviceName('North Ridge lead');
+    const renamed = await sync(north, path);
+    expect(renamed.wrote).toBe(true);
+    expect(readdirSync(path)).toEqual([expect.stringMatching(/^North-Ridge-lead-\w{8}\.capstan\.json\.gz$/)]);
+  });
+
   it('passes on fields written by a newer app version unchanged', async () => {
     const path = newFolder();
     const office = await device('Quality office');

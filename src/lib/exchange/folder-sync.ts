@@ -125,8 +125,10 @@ export async function syncWithFolder(options: FolderSyncOptions): Promise<Folder
     }
     stage(`Reading ${name}…`);
     let seen: FolderFileSeen;
+    let read = false;
     try {
       const changeSet = await decode(file);
+      read = true;
       const header = changeSet.header;
       const about = {
         name,
@@ -155,12 +157,15 @@ export async function syncWithFolder(options: FolderSyncOptions): Promise<Folder
         report.merged.push(seen);
       }
     } catch (error) {
+      const message = error instanceof Error ? error.message : String(error);
       seen = {
         name,
-        fingerprint,
+        // A damaged file is read again only once it changes; one that could not be merged (the data here
+        // changed meanwhile, storage was full) is tried again at the next sync.
+        fingerprint: read ? '' : fingerprint,
         modifiedAt,
         outcome: 'skipped',
-        problem: error instanceof Error ? error.message : String(error)
+        problem: read ? `could not be merged: ${message}` : message
       };
       report.skipped.push(seen);
     }

@@ -119,9 +119,16 @@ export class FolderSyncController {
     this.failure = undefined;
   }
 
+  /** A sync asked for while one runs (a merge just settled by hand): run once more when it ends. */
+  private again = false;
+
   private async sync(): Promise<void> {
     const folder = this.folder;
-    if (!folder || this.permission !== 'granted' || this.busy !== undefined) return;
+    if (!folder || this.permission !== 'granted') return;
+    if (this.busy !== undefined) {
+      this.again = true;
+      return;
+    }
     const run = async () => {
       this.busy = 'Looking at the folder…';
       this.failure = undefined;
@@ -153,5 +160,9 @@ export class FolderSyncController {
     if (locks)
       await locks.request('capstan-folder-sync', { ifAvailable: true }, (lock) => (lock ? run() : undefined));
     else await run();
+    if (this.again) {
+      this.again = false;
+      await this.sync();
+    }
   }
 }
