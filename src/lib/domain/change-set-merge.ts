@@ -44,7 +44,9 @@ import { studyMonthKey } from './study-month';
  * under three rules (README, "How files merge"):
  * 1. **One live study per characteristic and month.** A live study arriving for a month that already has a
  *    different live study is a conflict (`same-month`): keep this side's, take the file's, or combine both
- *    exactly (the study with the lower id keeps the pooled data, so two devices that combine agree).
+ *    exactly (the study with the lower id keeps the pooled data, so two devices that combine agree). A month
+ *    that has a live study on both sides but none after merging (each side deleted the other's) is the same
+ *    question (`emptied-month`), and the study chosen comes back.
  * 2. **No record outlives its parent.** A parent deleted on one side while the other side edited it or has live
  *    records under it is one conflict for the whole family (`family`), counting the records at stake. Whatever
  *    is chosen, the family ends consistent: a parent that stays live brings back the records deleted with it
@@ -61,7 +63,8 @@ export interface MergeConflict {
   key: string;
   type: 'record' | 'family' | 'same-month';
   kind: RecordKind;
-  nature: ConflictNature | 'same-month';
+  /** For a same-month conflict: two live studies (`same-month`), or none left by the merge (`emptied-month`). */
+  nature: ConflictNature | 'same-month' | 'emptied-month';
   /** This side's version (for same-month: this side's study of the month). */
   local?: RecordMeta;
   /** The file's version (for same-month: the file's study of the month); absent when the file does not hold it. */
@@ -316,6 +319,33 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
     });
   }
 
+  // A month both sides hold a live study of, that merging would leave with none: each side deleted the other's
+  // study (two devices that settled the same month by different choices, or two people who each replaced the
+  // other's). Asked, never left empty; settling brings the chosen study back.
+  for (const study of incoming.studies) {
+    if (!isLive(study)) continue;
+    const key = studyMonthKey(study);
+    if (seenMonths.has(key)) continue;
+    const here = local.studiesOfMonth(study.characteristicId, study.period).filter(isLive);
+    if (here.length === 0 || here.some((h) => h.id === study.id)) continue;
+    const after = planned
+      .studiesOfMonth(study.characteristicId, study.period)
+      .filter((st) => isLive(st) || restorable.has(st.id));
+    if (after.length > 0) continue;
+    seenMonths.add(key);
+    const a = here[0] as Study;
+    months.push({
+      key: monthConflictKey(study),
+      type: 'same-month',
+      kind: 'studies',
+      nature: 'emptied-month',
+      local: a,
+      incoming: study,
+      fields: differingFields(a, study),
+      canCombine: canCombineStudies(a, study)
+    });
+  }
+
   plan.conflicts = [...families.values(), ...recordConflicts.values(), ...months];
   plan.counts.conflict = plan.conflicts.length;
 
@@ -459,9 +489,30 @@ export function settleMerge(
     const rule = choices.rule ?? 'newer';
     const here = current(c.local!.id) as Study;
     const there = current(c.incoming!.id) as Study;
-    if (!isLive(here) || !isLive(there)) continue;
     const choice: ConflictChoice | 'newer' =
       pick ?? (rule === 'newer' ? 'newer' : rule === 'local' ? 'local' : 'incoming');
+    if (c.nature === 'emptied-month') {
+      // Both were deleted by the merge; a family choice may already have brought one back.
+      if (isLive(here) || isLive(there)) continue;
+      const [a, b] = [c.local as Study, c.incoming as Study];
+      if (choice === 'combine') {
+        if (!c.canCombine)
+          throw new MergeRefused(
+            `The two studies of ${b.period} cannot be combined: ${a.data.kind} and ${b.data.kind} data do not pool`
+          );
+        // As for two live studies: the lower id keeps the pooled data, so two devices that combine agree.
+        const [first, second] = [a, b].sort((x, y) => (x.id < y.id ? -1 : 1)) as [Study, Study];
+        const restored = stampRestored(current(first.id) as Study, ctx);
+        const data = combineStudyData(first.data, second.data);
+        put('studies', stampUpdate(restored, { ...editableOf(restored), data } as Editable<Study>, ctx));
+      } else {
+        const order = compareEdits(a, b) || (a.id < b.id ? 1 : -1);
+        const keepHere = choice === 'newer' ? order > 0 : choice === 'local';
+        put('studies', stampRestored(keepHere ? here : there, ctx));
+      }
+      continue;
+    }
+    if (!isLive(here) || !isLive(there)) continue;
     if (choice === 'combine') {
       if (!c.canCombine)
         throw new MergeRefused(

@@ -104,7 +104,10 @@ export function summariseConflict(
     const order = compareEdits(a, b) || (a.id < b.id ? 1 : -1);
     return {
       title: `Study of ${studyTitle(b, lookup)}`,
-      question: 'This month was logged on both devices: a characteristic has one study per month.',
+      question:
+        c.nature === 'emptied-month'
+          ? "Each device kept a different study of this month and deleted the other's: merging would leave the month with none."
+          : 'This month was logged on both devices: a characteristic has one study per month.',
       rows: [
         ...labels.map((label) => ({
           label,
