@@ -5,7 +5,7 @@ import { countOf, PRINTED } from '../lib/domain/figure-format';
 import { KIND_LABEL, type RecordsByKind } from '../lib/domain/record-kinds';
 import { RecordIndex } from '../lib/domain/record-index';
 import { gatherRecordSets, type GatherSource } from '../lib/domain/record-set-gather';
-import { folderEntryRole } from '../lib/exchange/folder-names';
+import { exchangeNamesIn } from '../lib/exchange/folder-names';
 import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
 import { readExchangeFile } from './exchange-file-input';
@@ -46,10 +46,7 @@ export async function gatherCommand(argv: readonly string[], io: CliIo): Promise
   let names: string[];
   try {
     const entries = await readdir(folder, { withFileTypes: true });
-    names = entries
-      .filter((e) => e.isFile() && folderEntryRole(e.name) === 'exchange')
-      .map((e) => e.name)
-      .sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+    names = exchangeNamesIn(entries.filter((e) => e.isFile()).map((e) => e.name));
   } catch {
     throw new UsageError(`Cannot read the folder '${folder}'`);
   }

@@ -34,6 +34,16 @@ export function folderEntryRole(name: string): FolderEntryRole {
   return 'other';
 }
 
+/**
+ * The exchange files among a folder's file names, in code-unit order: every reader takes them in this order,
+ * so what the folder lists first never matters.
+ */
+export function exchangeNamesIn(fileNames: Iterable<string>): string[] {
+  return [...fileNames]
+    .filter((name) => folderEntryRole(name) === 'exchange')
+    .sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+}
+
 /** The name a file is written under while it is incomplete: hidden and `.tmp`, so every reader skips it. */
 export function unfinishedNameOf(finalName: string): string {
   return `.${finalName}.tmp`;

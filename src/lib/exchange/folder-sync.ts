@@ -3,7 +3,7 @@ import type { FolderFileSeen, FolderSyncState } from '../storage/folder-sync-sta
 import type { CapstanStorage } from '../storage/storage';
 import { decodeExchangeFile, encodeExchangeFile, type ChangeSet } from './exchange-file';
 import { buildExport } from './export-change-set';
-import { deviceFileName, folderEntryRole, unfinishedNameOf } from './folder-names';
+import { deviceFileName, exchangeNamesIn, unfinishedNameOf } from './folder-names';
 
 /**
  * Sync through a shared folder that the company's file-sync service (a synced drive, a shared network folder)
@@ -98,11 +98,9 @@ export async function syncWithFolder(options: FolderSyncOptions): Promise<Folder
 
   const previous = await storage.syncFolder.state();
   const ownFile = deviceFileName(await storage.deviceName(), storage.deviceId);
-  const names: string[] = [];
-  for await (const entry of folder.values()) {
-    if (entry.kind === 'file' && folderEntryRole(entry.name) === 'exchange') names.push(entry.name);
-  }
-  names.sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+  const fileNames: string[] = [];
+  for await (const entry of folder.values()) if (entry.kind === 'file') fileNames.push(entry.name);
+  const names = exchangeNamesIn(fileNames);
 
   const files: Record<string, FolderFileSeen> = {};
   const report: FolderSyncReport = { state: previous, wrote: false, merged: [], waiting: [], skipped: [] };
