@@ -55,7 +55,9 @@ test('pasted decimal commas are read as decimals in a point-decimal browser; 1,2
   await ask.getByRole('radio', { name: /Decimal comma: '1,234' is 1.234/ }).check();
   await expect(page.getByTestId('implausible-entry')).toHaveCount(0);
   await panel.getByRole('button', { name: 'Save study' }).click();
-  await expect(page.getByTestId('saved-notice')).toContainText(`Saved ${QUIET_MONTH} (created)`);
+  await expect(page.getByTestId('saved-notice')).toContainText(
+    `Saved Surface roughness Ra for ${QUIET_MONTH} (created)`
+  );
 });
 
 test('a month that has not begun cannot be logged, and the portfolio ends at the last complete month', async ({

@@ -119,7 +119,7 @@ test('a site lead and the quality office stay in step through files, and a cross
   await panel.getByRole('textbox', { name: 'Mean', exact: true }).fill('2.31');
   await panel.getByRole('textbox', { name: 'Standard deviation', exact: true }).fill('0.45');
   await panel.getByRole('button', { name: 'Save study' }).click();
-  await expect(site.page.getByTestId('saved-notice')).toContainText(`Saved ${MONTH}`);
+  await expect(site.page.getByTestId('saved-notice')).toContainText(`Saved Leak rate for ${MONTH}`);
   const results = await saveFile(site.page, { recipient: 'Quality office' }, '2-results');
 
   // The office takes the month's result in, tightens a target and sends the site's file back.
@@ -185,7 +185,7 @@ async function logSummary(page: Page, n: string, mean: string) {
   await panel.getByRole('textbox', { name: 'Mean', exact: true }).fill(mean);
   await panel.getByRole('textbox', { name: 'Standard deviation', exact: true }).fill('0.45');
   await panel.getByRole('button', { name: 'Save study' }).click();
-  await expect(page.getByTestId('saved-notice')).toContainText(`Saved ${MONTH}`);
+  await expect(page.getByTestId('saved-notice')).toContainText(`Saved Leak rate for ${MONTH}`);
 }
 
 test('one month logged on two devices is a conflict shown with both studies, and combining keeps one study', async () => {

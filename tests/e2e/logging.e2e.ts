@@ -53,7 +53,7 @@ test('logs a summary, a count and a pasted block of values with the network off'
   await expect(page.getByTestId('entry-preview')).toContainText('z-level');
   await expect(page.getByTestId('entry-preview')).toContainText('Ppk');
   await panel.getByRole('textbox', { name: 'Standard deviation', exact: true }).press('Control+Enter');
-  await expect(page.getByTestId('saved-notice')).toContainText(`Saved ${MONTH} (created)`);
+  await expect(page.getByTestId('saved-notice')).toContainText(`Saved Leak rate for ${MONTH} (created)`);
   await expect(row(page, 'Leak rate').filter({ hasText: 'test bench 1' }).first()).toContainText('logged');
 
   // A count, with a thousands separator.
@@ -64,7 +64,10 @@ test('logs a summary, a count and a pasted block of values with the network off'
   await panel.getByRole('textbox', { name: 'Defective units', exact: true }).fill('3');
   await expect(page.getByTestId('entry-preview')).toContainText('99,83');
   await panel.getByRole('button', { name: 'Save study' }).click();
-  await expect(page.getByTestId('saved-notice')).toBeVisible();
+  // Each save is awaited by its own notice: the previous one is still on screen.
+  await expect(page.getByTestId('saved-notice')).toContainText(
+    `Saved Torque outside window for ${MONTH} (created)`
+  );
 
   // Cells pasted from a spreadsheet: header row, subgroup column, decimal commas.
   await page
@@ -80,7 +83,9 @@ test('logs a summary, a count and a pasted block of values with the network off'
     "20 values in 4 subgroups; header 'Stichprobe, Durchmesser' skipped"
   );
   await panel.getByRole('button', { name: 'Save study' }).click();
-  await expect(page.getByTestId('saved-notice')).toBeVisible();
+  await expect(page.getByTestId('saved-notice')).toContainText(
+    `Saved Journal diameter for ${MONTH} (created)`
+  );
 
   // Still there after a reload with no network.
   await page.reload();
@@ -147,7 +152,9 @@ test('logging a month twice asks to replace or combine, and a replace can be und
   await expect(row(page, 'Bars broken at packing').filter({ hasText: 'oven 1' })).toContainText('1.000');
 
   await page.getByTestId('saved-notice').getByRole('button', { name: 'Undo' }).click();
-  await expect(page.getByText(`Undone: ${MONTH} is back as it was before.`)).toBeVisible();
+  await expect(
+    page.getByText(`Undone: Bars broken at packing for ${MONTH} is back as it was before.`)
+  ).toBeVisible();
   await expect(row(page, 'Bars broken at packing').filter({ hasText: 'oven 1' })).toContainText('1.000');
 
   // Every replaced version stays restorable from the entry panel.

@@ -155,7 +155,7 @@ test('a company sets up its own portfolio offline from an empty profile and keep
   await panel.getByRole('textbox', { name: 'Mean', exact: true }).fill('12.004');
   await panel.getByRole('textbox', { name: 'Standard deviation', exact: true }).fill('0.0042');
   await panel.getByRole('button', { name: 'Save study' }).click();
-  await expect(page.getByTestId('saved-notice')).toContainText(`Saved ${MONTH}`);
+  await expect(page.getByTestId('saved-notice')).toContainText(`Saved Bore diameter for ${MONTH}`);
 
   // The portfolio ranks every process: 3 by hand and 40 from the list.
   await nav(page, 'Portfolio').click();
