@@ -289,19 +289,29 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
         restorable.add(d.record.id);
     }
   }
+  // Studies whose own delete-vs-edit conflict may bring them back (the edit chosen): `planned` holds this
+  // side's deleted version until the choice is made, so they count as live for the month's question too.
+  const mayRevive = new Set<string>();
+  for (const c of recordConflicts.values())
+    if (c.kind === 'studies' && c.incoming && (isLive(c.incoming) || (c.local && isLive(c.local))))
+      mayRevive.add(c.key);
   const months: MergeConflict[] = [];
   const seenMonths = new Set<string>();
   const monthsToCheck: Study[] = [
     ...incoming.studies,
     ...[...restorable].map((id) => planned.record(id) as Study)
   ];
-  const fromFile = (x: Study) => plan.incoming.has(x.id) && !local.get(x.id);
+  // This side's study of the month is the one live here; the file's, the one that is not (new, or deleted here).
+  const fromFile = (x: Study) => {
+    const here = local.record(x.id);
+    return plan.incoming.has(x.id) && (!here || !isLive(here));
+  };
   for (const study of monthsToCheck) {
     const key = studyMonthKey(study);
     if (seenMonths.has(key)) continue;
     const peers = planned
       .studiesOfMonth(study.characteristicId, study.period)
-      .filter((st) => isLive(st) || restorable.has(st.id));
+      .filter((st) => isLive(st) || restorable.has(st.id) || mayRevive.has(st.id));
     if (peers.length < 2) continue;
     seenMonths.add(key);
     const [a, b] = peers.sort(

@@ -1,0 +1,79 @@
+import { describe, expect, it } from 'vitest';
+import { emptyRecords, type RecordsByKind } from './record-kinds';
+import { isLive, stampNew, stampUpdate, type WriteContext } from './record-meta';
+import { mergeRecordSets } from './record-set-merge';
+import type { Study } from './study';
+
+/**
+ * A month logged on two devices, settled on the site lead's device by keeping the lead's study (the office's is
+ * deleted there). The office, not knowing, corrects its study. When the correction arrives, choosing it over
+ * the deletion brings the office's study back — beside the lead's, unless the month is asked about too. Found
+ * by the multi-device histories test (a seed where the merge refused to write: "two live studies").
+ */
+const at = (deviceId: string, iso: string): WriteContext => ({
+  deviceId,
+  now: () => new Date(iso),
+  newId: () => `${deviceId}-${Math.random().toString(36).slice(2)}`
+});
+
+function correctionAfterSettling() {
+  const office = at('office', '2026-11-01T08:00:00Z');
+  const site = stampNew({ name: 'North Ridge', timeZone: 'UTC' }, office);
+  const process = stampNew({ siteId: site.id, name: 'Press line' }, office);
+  const ch = stampNew({ processId: process.id, name: 'Bore diameter' }, office);
+  const base = { ...emptyRecords(), sites: [site], processes: [process], characteristics: [ch] };
+  const study = (who: string, mean: number, iso: string) =>
+    stampNew(
+      {
+        characteristicId: ch.id,
+        period: '2026-10',
+        data: { kind: 'summary' as const, n: 30, mean, sd: 1 },
+        enteredBy: who
+      },
+      at(who, iso)
+    ) as unknown as Study;
+  const leads = { ...base, studies: [study('lead', 10, '2026-11-02T08:00:00Z')] } as unknown as RecordsByKind;
+  const officeStudy = study('office', 12, '2026-11-03T08:00:00Z');
+  const offices = { ...base, studies: [officeStudy] } as unknown as RecordsByKind;
+  // The lead's device keeps its own study; the office's is deleted there.
+  const settled = mergeRecordSets(leads, offices, 'local', at('lead', '2026-11-04T08:00:00Z')).records;
+  // The office corrects its study afterwards.
+  const corrected = stampUpdate(
+    officeStudy,
+    { ...officeStudy, data: { kind: 'summary', n: 30, mean: 11, sd: 1 } } as never,
+    at('office', '2026-11-05T08:00:00Z')
+  );
+  return { settled, correction: { ...offices, studies: [corrected] } as unknown as RecordsByKind };
+}
+
+const liveBy = (r: RecordsByKind) =>
+  r.studies
+    .filter(isLive)
+    .map((s) => s.enteredBy)
+    .sort();
+
+describe('a deleted study corrected elsewhere, in a month that kept another', () => {
+  it('asks about the month as well as the study', () => {
+    const { settled, correction } = correctionAfterSettling();
+    expect(liveBy(settled)).toEqual(['lead']);
+    const open = mergeRecordSets(settled, correction);
+    expect(open.conflicts.map((c) => [c.type, c.nature]).sort()).toEqual([
+      ['record', 'deleted-here'],
+      ['same-month', 'same-month']
+    ]);
+    // This side's study of the month is the one live here.
+    const month = open.conflicts.find((c) => c.type === 'same-month')!;
+    expect((month.local as Study).enteredBy).toBe('lead');
+    expect((month.incoming as Study).enteredBy).toBe('office');
+  });
+
+  it.each([
+    ['local', ['lead']],
+    ['incoming', ['office']],
+    ['newer', ['office']]
+  ] as const)('settled by %s, the month keeps exactly one study', (rule, kept) => {
+    const { settled, correction } = correctionAfterSettling();
+    const merged = mergeRecordSets(settled, correction, rule, at('lead', '2026-11-06T08:00:00Z')).records;
+    expect(liveBy(merged)).toEqual(kept);
+  });
+});
