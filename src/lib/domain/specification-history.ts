@@ -39,11 +39,12 @@ export function changeInForce(c: WithLimitHistory, period: Period): LimitChange 
 export function limitsFor(c: WithLimitHistory, period: Period): Limits {
   const change = changeInForce(c, period);
   const l = change ?? c;
-  return {
-    ...(l.lsl !== undefined ? { lsl: l.lsl } : {}),
-    ...(l.target !== undefined ? { target: l.target } : {}),
-    ...(l.usl !== undefined ? { usl: l.usl } : {})
-  };
+  // Field by field rather than by spreads: asked for every month of every window of a portfolio.
+  const out: Limits = {};
+  if (l.lsl !== undefined) out.lsl = l.lsl;
+  if (l.target !== undefined) out.target = l.target;
+  if (l.usl !== undefined) out.usl = l.usl;
+  return out;
 }
 
 /** A key naming the limits in force in a month ('first' or the month a change took effect). */

@@ -1,8 +1,16 @@
 import { WarningList } from './result-warnings';
 import { cpm as cpmIndex, indices } from './capability-indices';
 import type { CapabilityResult } from './capability-result';
-import { bissellInterval, cpmInterval, spreadIndexInterval, type IndexInterval } from './confidence-bounds';
-import { fractionIntervals } from './fraction-bounds';
+import {
+  bissellInterval,
+  bissellLowerBound,
+  cpmInterval,
+  spreadIndexInterval,
+  spreadIndexLowerBound,
+  type IndexInterval
+} from './confidence-bounds';
+import { fractionIntervals, fractionUpperBound } from './fraction-bounds';
+import { normalUpperQuantile } from './normal-distribution';
 import { checkSpecification, type Specification } from './specification';
 import { normalTailFractions } from './tail-fractions';
 
@@ -54,20 +62,62 @@ export function summaryCore(
   level: number,
   sdWithin?: number
 ): SummaryCore {
-  const overall = indices(mu, sd, spec);
-  const core: SummaryCore = { overall, tails: normalTailFractions(mu, sd, spec) };
+  // Which intervals exist is decided once, by summaryBounds; the two-sided ones are added to its bounds.
+  const bounds = summaryBounds(n, mu, sd, spec, level, sdWithin);
+  const { overall, within } = bounds;
+  const core: SummaryCore = { overall, tails: bounds.tails };
   if (overall.spread !== undefined) core.pp = spreadIndexInterval(overall.spread, n, level);
-  if (overall.k !== undefined && overall.k > 0) {
+  if (overall.k !== undefined && bounds.ppkLower !== undefined) {
     core.ppk = bissellInterval(overall.k, n, level);
     core.fraction = fractionIntervals(core.ppk, core.pp);
   }
-  if (sdWithin !== undefined && sdWithin > 0) {
-    const w = indices(mu, sdWithin, spec);
-    core.within = { sd: sdWithin, indices: w };
+  if (within) {
+    const w = within.indices;
+    core.within = { sd: within.sd, indices: w };
     if (w.spread !== undefined) core.within.cp = spreadIndexInterval(w.spread, n, level);
-    if (w.k !== undefined && w.k > 0) core.within.cpk = bissellInterval(w.k, n, level);
+    if (w.k !== undefined && within.cpkLower !== undefined) core.within.cpk = bissellInterval(w.k, n, level);
   }
   return core;
+}
+
+/**
+ * The one-sided bounds of a summary alone (no two-sided interval): what the portfolio judges each window on,
+ * at a third of summaryCore's cost. Each bound is the `lowerBound`/`upperBound` summaryCore's intervals carry,
+ * computed by the same functions (confidence-bounds.ts, fraction-bounds.ts), so the two give the same numbers.
+ */
+export interface SummaryBounds {
+  overall: ReturnType<typeof indices>;
+  tails: ReturnType<typeof normalTailFractions>;
+  ppLower?: number;
+  ppkLower?: number;
+  /** Upper bound of the fraction out of specification, and the z-level at it. */
+  fractionUpper?: number;
+  zLevelLower?: number;
+  within?: { sd: number; indices: ReturnType<typeof indices>; cpkLower?: number };
+}
+
+export function summaryBounds(
+  n: number,
+  mu: number,
+  sd: number,
+  spec: Specification,
+  level: number,
+  sdWithin?: number
+): SummaryBounds {
+  const overall = indices(mu, sd, spec);
+  const bounds: SummaryBounds = { overall, tails: normalTailFractions(mu, sd, spec) };
+  if (overall.spread !== undefined) bounds.ppLower = spreadIndexLowerBound(overall.spread, n, level);
+  if (overall.k !== undefined && overall.k > 0) {
+    bounds.ppkLower = bissellLowerBound(overall.k, n, level);
+    bounds.fractionUpper = fractionUpperBound(bounds.ppkLower, bounds.ppLower);
+    bounds.zLevelLower = normalUpperQuantile(bounds.fractionUpper);
+  }
+  if (sdWithin !== undefined && sdWithin > 0) {
+    const w = indices(mu, sdWithin, spec);
+    bounds.within = { sd: sdWithin, indices: w };
+    if (w.k !== undefined && w.k > 0) bounds.within.cpkLower = bissellLowerBound(w.k, n, level);
+  }
+  return bounds;
 }
 
 export function analyzeSummary(n: number, mu: number, sd: number, options: SummaryOptions): CapabilityResult {

@@ -23,8 +23,9 @@ export function indices(mu: number, sigma: number, spec: Specification): IndexSe
   if (spec.lsl !== undefined && spec.usl !== undefined) out.spread = (spec.usl - spec.lsl) / (6 * sigma);
   if (spec.lsl !== undefined) out.lower = (mu - spec.lsl) / (3 * sigma);
   if (spec.usl !== undefined) out.upper = (spec.usl - mu) / (3 * sigma);
-  const sides = [out.lower, out.upper].filter((v): v is number => v !== undefined);
-  if (sides.length > 0) out.k = Math.min(...sides);
+  // The nearer side; written out, since an array per call showed at portfolio size.
+  if (out.lower !== undefined) out.k = out.upper !== undefined ? Math.min(out.lower, out.upper) : out.lower;
+  else if (out.upper !== undefined) out.k = out.upper;
   return out;
 }
 

@@ -38,15 +38,25 @@ export function spreadIndexInterval(index: number, n: number, level = 0.95): Ind
   return chiSquareIndexInterval(index, n - 1, level);
 }
 
+/** The one-sided lower bound of spreadIndexInterval alone (the portfolio judges on it; the same number). */
+export function spreadIndexLowerBound(index: number, n: number, level = 0.95): number {
+  checkLevel(level);
+  return index * chiSquareFactor(1 - level, n - 1);
+}
+
+/** √(χ²_{p, ν}/ν): the factor of a chi-square bound on a spread index. */
+function chiSquareFactor(p: number, df: number): number {
+  return Math.sqrt(chiSquareQuantile(p, df) / df);
+}
+
 /** index·√(χ²_{p, ν}/ν) at p = α/2, 1 − α/2 and α: the chi-square interval of a spread index with ν degrees of freedom. */
 function chiSquareIndexInterval(index: number, df: number, level: number): IndexInterval {
   checkLevel(level);
   const alpha = 1 - level;
-  const q = (p: number) => Math.sqrt(chiSquareQuantile(p, df) / df);
   return {
-    lower: index * q(alpha / 2),
-    upper: index * q(1 - alpha / 2),
-    lowerBound: index * q(alpha),
+    lower: index * chiSquareFactor(alpha / 2, df),
+    upper: index * chiSquareFactor(1 - alpha / 2, df),
+    lowerBound: index * chiSquareFactor(alpha, df),
     level
   };
 }
@@ -79,16 +89,28 @@ export function cpmInterval(
  */
 export function bissellInterval(index: number, n: number, level = 0.95): IndexInterval {
   checkLevel(level);
-  const se = Math.sqrt(1 / (9 * n * index * index) + 1 / (2 * (n - 1)));
-  const zTwo = normalQuantile(1 - (1 - level) / 2);
-  const zOne = normalQuantile(level);
+  const se = bissellSe(index, n);
+  const zTwo = levelQuantile(1 - (1 - level) / 2);
   return {
     lower: index * (1 - zTwo * se),
     upper: index * (1 + zTwo * se),
-    lowerBound: index * (1 - zOne * se),
+    lowerBound: bissellLowerBound(index, n, level),
     level
   };
 }
+
+/** The one-sided lower bound of bissellInterval alone (the portfolio judges on it; the same number). */
+export function bissellLowerBound(index: number, n: number, level = 0.95): number {
+  checkLevel(level);
+  return index * (1 - levelQuantile(level) * bissellSe(index, n));
+}
+
+function bissellSe(index: number, n: number): number {
+  return Math.sqrt(1 / (9 * n * index * index) + 1 / (2 * (n - 1)));
+}
+
+/** Φ⁻¹ of a confidence level, remembered: the same two or three levels are asked for every window. */
+const levelQuantile = boundedMemo((p: number) => normalQuantile(p));
 
 /** Two-sided and one-sided bounds on a proportion, and on a Poisson rate. */
 export interface ProportionInterval {

@@ -14,11 +14,9 @@ export function fractionIntervals(
   pp: IndexInterval | undefined
 ): { zMin: FigureInterval; ppmTotal: FigureInterval; zLevel: FigureInterval } {
   const level = ppk.level;
-  const fraction = (k: number, p: number | undefined) =>
-    Math.min(1, normalSf(3 * k) + (p === undefined ? 0 : normalSf(3 * (2 * p - k))));
-  const worst = fraction(ppk.lower, pp?.lower);
-  const best = fraction(ppk.upper, pp?.upper);
-  const worstOneSided = fraction(ppk.lowerBound, pp?.lowerBound);
+  const worst = fractionAt(ppk.lower, pp?.lower);
+  const best = fractionAt(ppk.upper, pp?.upper);
+  const worstOneSided = fractionUpperBound(ppk.lowerBound, pp?.lowerBound);
   return {
     zMin: { lower: 3 * ppk.lower, upper: 3 * ppk.upper, lowerBound: 3 * ppk.lowerBound, level },
     ppmTotal: { lower: best * 1e6, upper: worst * 1e6, upperBound: worstOneSided * 1e6, level },
@@ -29,4 +27,18 @@ export function fractionIntervals(
       level
     }
   };
+}
+
+/** The fraction out of specification when Ppk and Pp take these values (the rule above). */
+function fractionAt(k: number, p: number | undefined): number {
+  return Math.min(1, normalSf(3 * k) + (p === undefined ? 0 : normalSf(3 * (2 * p - k))));
+}
+
+/**
+ * The one-sided upper bound of the fraction out of specification alone, from the lower bounds of Ppk and Pp:
+ * the `ppmTotal.upperBound` of fractionIntervals (÷10⁶), what the portfolio judges on. Its z-level bound is
+ * normalUpperQuantile of it.
+ */
+export function fractionUpperBound(ppkLowerBound: number, ppLowerBound: number | undefined): number {
+  return fractionAt(ppkLowerBound, ppLowerBound);
 }
