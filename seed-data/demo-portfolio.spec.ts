@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { parseDemoPortfolio } from '../src/lib/domain/demo-portfolio';
+import { parseDemoPortfolio } from '../src/lib/domain/demo-portfolio-schema';
 import { buildDemoPortfolio } from './build-demo-portfolio';
 
 describe('demo portfolio generator', () => {

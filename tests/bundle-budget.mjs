@@ -14,7 +14,8 @@ import { chromium } from 'playwright-core';
 import { spawn } from 'node:child_process';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from './support/chromium.mjs';
 
-const FIRST_PAGE_BUDGET = 150 * 1024;
+// The company-scale target (≤ 120 KB gzip); zod and every schema load on the first write, not with the page.
+const FIRST_PAGE_BUDGET = 120 * 1024;
 // 3 MB until the shared sync folder (about 23 KB) took it over; the largest entry is the demo portfolio (645 KB).
 const PRECACHE_BUDGET = 3.25 * 1024 * 1024;
 const root = fileURLToPath(new URL('..', import.meta.url));

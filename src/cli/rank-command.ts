@@ -4,7 +4,7 @@ import { isLive } from '../lib/domain/record-meta';
 import { EXCHANGE_FORMAT } from '../lib/exchange/exchange-schema';
 import { readExchangeFile } from './exchange-file-input';
 import { BUILT_IN_PROFILES } from '../lib/domain/context-profile';
-import { parseDemoPortfolio } from '../lib/domain/demo-portfolio';
+import { parseDemoPortfolio } from '../lib/domain/demo-portfolio-schema';
 import { isPeriod, periodsOfQuarter } from '../lib/domain/period';
 import { countOf, formatCount, formatIndex, PRINTED } from '../lib/domain/figure-format';
 import {

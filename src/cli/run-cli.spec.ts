@@ -209,7 +209,7 @@ describe('capstan rank', () => {
   it('ranks the demo portfolio with the same rows and order as the ranking module', async () => {
     const { rankPortfolio } = await import('../lib/domain/portfolio-ranking');
     const { BUILT_IN_PROFILES } = await import('../lib/domain/context-profile');
-    const { parseDemoPortfolio } = await import('../lib/domain/demo-portfolio');
+    const { parseDemoPortfolio } = await import('../lib/domain/demo-portfolio-schema');
     const { readFileSync } = await import('node:fs');
     const r = await run('rank', demoFile, '--quarter', '2026-Q3', '--json');
     expect(r.code).toBe(0);
@@ -240,7 +240,8 @@ describe('capstan check and merge', async () => {
     await import('../lib/exchange/exchange-file');
   const { travelling } = await import('../lib/domain/record-meta');
   const { stampNew, stampUpdate } = await import('../lib/domain/record-meta');
-  const { datedFromToday, parseDemoPortfolio } = await import('../lib/domain/demo-portfolio');
+  const { datedFromToday } = await import('../lib/domain/demo-portfolio');
+  const { parseDemoPortfolio } = await import('../lib/domain/demo-portfolio-schema');
   const demoJson = JSON.parse(
     readFileSync(new URL('../../seed-data/demo-portfolio.json', import.meta.url), 'utf8')
   );

@@ -1,4 +1,5 @@
-import { datedFromToday, parseDemoPortfolio, type DemoPortfolio } from '../../src/lib/domain/demo-portfolio';
+import { datedFromToday, type DemoPortfolio } from '../../src/lib/domain/demo-portfolio';
+import { parseDemoPortfolio } from '../../src/lib/domain/demo-portfolio-schema';
 import { addMonths, lastCompletePeriod, periodOf, quarterOf } from '../../src/lib/domain/period';
 import { readFileSync } from 'node:fs';
 

@@ -1,10 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { BUILT_IN_PROFILES } from './context-profile';
-import {
-  effectiveProfiles,
-  parseContextProfileFields,
-  type ContextProfileRecord
-} from './context-profile-record';
+import { effectiveProfiles, type ContextProfileRecord } from './context-profile-record';
+import { parseContextProfileFields } from './context-profile-record-schema';
 
 const base = {
   contextId: 'vehicle-parts',

@@ -1,13 +1,10 @@
-import { z } from 'zod';
-import { characteristicFieldsSchema, type Characteristic } from './characteristic';
-import { improvementProjectFieldsSchema, type ImprovementProject } from './improvement-project';
-import { parseFields } from './parse-fields';
 import { addMonths, periodOf } from './period';
-import { processFieldsSchema, type Process } from './process';
+import type { Characteristic } from './characteristic';
+import type { ImprovementProject } from './improvement-project';
+import type { Process } from './process';
 import type { RecordMeta } from './record-meta';
-import { recordMetaSchema } from './record-meta-schema';
-import { siteFieldsSchema, type Site } from './site';
-import { studyFieldsSchema, type Study } from './study';
+import type { Site } from './site';
+import type { Study } from './study';
 
 /**
  * The demo portfolio as the seed generator writes it: every record complete with its bookkeeping, so that
@@ -39,29 +36,6 @@ export const DEMO_SITE_IDS: readonly string[] = [
   'c1e2611d-9cb1-41e9-9031-a18b21920d9b',
   '94d61920-68e4-4c00-8e0f-5e9002239b6e'
 ];
-
-const withMeta = <S extends z.ZodObject>(schema: S) => schema.extend(recordMetaSchema.shape);
-
-// Characteristic and project schemas carry cross-field checks, which zod keeps through `.and`.
-const demoSchema = z.object({
-  kind: z.literal('capstan-demo-portfolio', {
-    error: 'This is not a Capstan demo portfolio file (kind differs)'
-  }),
-  version: z.literal(1, { error: 'Unsupported demo portfolio version' }),
-  seed: z.number(),
-  company: z.string(),
-  records: z.object({
-    sites: z.array(withMeta(siteFieldsSchema)),
-    processes: z.array(withMeta(processFieldsSchema)),
-    characteristics: z.array(characteristicFieldsSchema.and(recordMetaSchema)),
-    studies: z.array(withMeta(studyFieldsSchema)),
-    projects: z.array(improvementProjectFieldsSchema.and(recordMetaSchema))
-  })
-});
-
-export function parseDemoPortfolio(input: unknown): DemoPortfolio {
-  return parseFields('Demo portfolio', demoSchema, input) as unknown as DemoPortfolio;
-}
 
 /** Shifts a date-time `YYYY-MM-DDThh:mm…` by whole calendar months (day clamped to the month's length). */
 function shiftTime(iso: string, months: number): string {

@@ -1,8 +1,11 @@
-import { characteristicFieldsSchema, parseCharacteristicFields, type Characteristic } from './characteristic';
+import { type Characteristic } from './characteristic';
+import { characteristicFieldsSchema, parseCharacteristicFields } from './characteristic-schema';
 import { processKeyOf, siteKeyOf, type ExistingPortfolio, type MasterListPlan } from './master-list';
-import { parseProcessFields, processFieldsSchema, type Process } from './process';
+import { type Process } from './process';
+import { parseProcessFields, processFieldsSchema } from './process-schema';
 import { editableOf, isLive, stampNew, stampUpdate, withoutFields, type WriteContext } from './record-meta';
-import { parseSiteFields, siteFieldsSchema, type Site } from './site';
+import { type Site } from './site';
+import { parseSiteFields, siteFieldsSchema } from './site-schema';
 import { withLimitChange } from './specification-history';
 import { ValidationError } from './validation-error';
 

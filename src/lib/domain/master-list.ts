@@ -1,15 +1,12 @@
-import {
-  characteristicFieldsSchema,
-  DATA_KINDS,
-  RISK_CLASSES,
-  type Characteristic,
-  type CharacteristicFields
-} from './characteristic';
+import { DATA_KINDS, RISK_CLASSES, type Characteristic, type CharacteristicFields } from './characteristic';
+import { characteristicFieldsSchema } from './characteristic-schema';
 import type { ContextProfile } from './context-profile';
 import { parseLocaleNumber } from './locale-number';
-import { processFieldsSchema, type Process, type ProcessFields } from './process';
+import { type Process, type ProcessFields } from './process';
+import { processFieldsSchema } from './process-schema';
 import { editableOf, isLive } from './record-meta';
-import { siteFieldsSchema, type Site, type SiteFields } from './site';
+import { type Site, type SiteFields } from './site';
+import { siteFieldsSchema } from './site-schema';
 import { limitsFor, type LimitChange, type Limits } from './specification-history';
 
 /**

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import demo from '../../../seed-data/demo-portfolio.json';
 import { BUILT_IN_PROFILES } from './context-profile';
-import { parseDemoPortfolio } from './demo-portfolio';
+import { parseDemoPortfolio } from './demo-portfolio-schema';
 import { filterRows, NO_FILTERS } from './portfolio-filters';
 import { listRowOf } from './portfolio-list-row';
 import { rankPortfolio } from './portfolio-ranking';

@@ -268,7 +268,7 @@ describe('the status follows the figures shown beside it (STATUS_RULE)', () => {
 describe('one required level', () => {
   it('every row carries the required level of its weakest characteristic, as requiredZ defines it', async () => {
     const demo = (await import('../../../seed-data/demo-portfolio.json')).default;
-    const { parseDemoPortfolio } = await import('./demo-portfolio');
+    const { parseDemoPortfolio } = await import('./demo-portfolio-schema');
     const r = parseDemoPortfolio(demo).records;
     const end = r.studies.reduce((a, s) => (s.period > a ? s.period : a), '');
     const rows = rankPortfolio(r, BUILT_IN_PROFILES, { endPeriod: end, windowMonths: 3 });

@@ -1,6 +1,3 @@
-import { z } from 'zod';
-import { optionalText, requiredText } from './field-rules';
-import { parseFields } from './parse-fields';
 import type { RecordMeta } from './record-meta';
 
 /** A plant, office or line location that reports its own processes. */
@@ -19,16 +16,4 @@ export function isTimeZone(name: string): boolean {
   } catch {
     return false;
   }
-}
-
-export const siteFieldsSchema = z.object({
-  name: requiredText('Site name', 120),
-  region: optionalText('Region', 120),
-  timeZone: z.string({ error: 'Time zone is required' }).refine(isTimeZone, {
-    error: (issue) => `'${String(issue.input)}' is not a known time zone (e.g. Europe/Oslo)`
-  })
-});
-
-export function parseSiteFields(input: unknown): SiteFields {
-  return parseFields('Site', siteFieldsSchema, input);
 }

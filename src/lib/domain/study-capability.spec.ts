@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import demo from '../../../seed-data/demo-portfolio.json';
 import { expectRelative } from '../../../tests/support/reference-data';
-import { parseDemoPortfolio } from './demo-portfolio';
+import { parseDemoPortfolio } from './demo-portfolio-schema';
 import { capabilityOfStudy } from './study-capability';
 
 const portfolio = parseDemoPortfolio(demo);

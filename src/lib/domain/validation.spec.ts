@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { parseCharacteristicFields } from './characteristic';
-import { parseImprovementProjectFields } from './improvement-project';
-import { parseProcessFields } from './process';
-import { parseSiteFields } from './site';
-import { parseStudyFields } from './study';
+import { parseCharacteristicFields } from './characteristic-schema';
+import { parseImprovementProjectFields } from './improvement-project-schema';
+import { parseProcessFields } from './process-schema';
+import { parseSiteFields } from './site-schema';
+import { parseStudyFields } from './study-schema';
 import { ValidationError } from './validation-error';
 
 const PROCESS_ID = '1b4e28ba-2fa1-41d2-883f-0016d3cca427';

@@ -1,15 +1,15 @@
 import { z } from 'zod';
-import { characteristicFieldsSchema } from '../domain/characteristic';
-import { contextProfileFieldsSchema } from '../domain/context-profile-record';
+import { characteristicFieldsSchema } from '../domain/characteristic-schema';
+import { contextProfileFieldsSchema } from '../domain/context-profile-record-schema';
 import { isClockStamp, parseStamp } from '../domain/hybrid-clock';
-import { improvementProjectFieldsSchema } from '../domain/improvement-project';
-import { processFieldsSchema } from '../domain/process';
-import { quarterReviewFieldsSchema } from '../domain/quarter-review-record';
+import { improvementProjectFieldsSchema } from '../domain/improvement-project-schema';
+import { processFieldsSchema } from '../domain/process-schema';
+import { quarterReviewFieldsSchema } from '../domain/quarter-review-record-schema';
 import { RECORD_KINDS } from '../domain/record-kinds';
 import { DEVICE_ID_RULE } from '../domain/device-id';
 import { deviceIdSchema, isoTime, recordMetaSchema } from '../domain/record-meta-schema';
-import { siteFieldsSchema } from '../domain/site';
-import { studyFieldsSchema } from '../domain/study';
+import { siteFieldsSchema } from '../domain/site-schema';
+import { studyFieldsSchema } from '../domain/study-schema';
 
 /**
  * Schema of an exchange file (format version 1), checked with zod after the envelope and the hash. Record

@@ -2,7 +2,7 @@ import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import demo from '../../../seed-data/demo-portfolio.json';
 import { BUILT_IN_PROFILES } from '../domain/context-profile';
-import { parseDemoPortfolio } from '../domain/demo-portfolio';
+import { parseDemoPortfolio } from '../domain/demo-portfolio-schema';
 import { rankPortfolio } from '../domain/portfolio-ranking';
 import { portfolioCsv } from './portfolio-csv';
 import { studyCsv } from './study-csv';

@@ -1,13 +1,10 @@
-import {
-  characteristicFieldsSchema,
-  parseCharacteristicFields,
-  type Characteristic
-} from '../domain/characteristic';
+import { type Characteristic } from '../domain/characteristic';
 import { editableOf, type WriteContext } from '../domain/record-meta';
 import { withLimitChange, type LimitChange } from '../domain/specification-history';
 import { liveCountsUnder, removeWithContents, undoRemoval, type Removal } from './cascade-removal';
 import type { CapstanDatabase } from './database';
 import { archive, RecordNotFoundError, RecordRepository, requireLive } from './record-repository';
+import { lazyValidation } from './record-validation';
 
 /**
  * Characteristics: created under a live process; their limits change from a month (earlier months keep theirs);
@@ -18,8 +15,13 @@ export class CharacteristicRepository extends RecordRepository<Characteristic> {
     super(db, ctx, {
       kind: 'Characteristic',
       table: (d) => d.characteristics,
-      parse: parseCharacteristicFields,
-      fields: Object.keys(characteristicFieldsSchema.shape),
+      validation: lazyValidation(async () => {
+        const m = await import('../domain/characteristic-schema');
+        return {
+          parse: m.parseCharacteristicFields,
+          fields: Object.keys(m.characteristicFieldsSchema.shape)
+        };
+      }),
       relatedTables: (d) => [d.processes],
       checkInTransaction: async (d, fields) => {
         await requireLive(d.processes, fields.processId, 'Characteristic', 'processId', 'Process');

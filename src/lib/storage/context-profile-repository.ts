@@ -1,13 +1,14 @@
 import { BUILT_IN_PROFILES, type ContextProfile } from '../domain/context-profile';
-import {
-  contextProfileFieldsSchema,
-  effectiveProfiles,
-  parseContextProfileFields,
-  type ContextProfileRecord
-} from '../domain/context-profile-record';
+import { effectiveProfiles, type ContextProfileRecord } from '../domain/context-profile-record';
 import { isLive, stampDeleted, stampNew, stampUpdate, type WriteContext } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
 import { EditConflictError, withoutFields } from './record-repository';
+import { lazyValidation } from './record-validation';
+
+const validation = lazyValidation(async () => {
+  const m = await import('../domain/context-profile-record-schema');
+  return { parse: m.parseContextProfileFields, fields: Object.keys(m.contextProfileFieldsSchema.shape) };
+});
 
 /** Industry-context profiles: the built-ins, with the manager's edits stored as records over them. */
 export class ContextProfileRepository {
@@ -33,7 +34,8 @@ export class ContextProfileRepository {
    * `expectedRev` (from `revisionOf` when editing began) refuses to overwrite a change made meanwhile elsewhere.
    */
   async save(input: unknown, expectedRev?: number): Promise<ContextProfileRecord> {
-    const fields = parseContextProfileFields(input);
+    const { parse, fields: known } = await validation();
+    const fields = parse(input);
     return this.db.transaction('rw', this.db.contextProfiles, async () => {
       const existing = (
         await this.db.contextProfiles.where('contextId').equals(fields.contextId).toArray()
@@ -42,11 +44,7 @@ export class ContextProfileRepository {
         throw new EditConflictError('Context profile', fields.label);
       }
       const record = existing
-        ? stampUpdate(
-            withoutFields(existing, Object.keys(contextProfileFieldsSchema.shape)),
-            fields,
-            this.ctx
-          )
+        ? stampUpdate(withoutFields(existing, known), fields, this.ctx)
         : (stampNew(fields, this.ctx) as ContextProfileRecord);
       await this.db.contextProfiles.put(record);
       return record;

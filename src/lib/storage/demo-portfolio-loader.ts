@@ -1,4 +1,4 @@
-import { datedFromToday, DEMO_SITE_IDS, parseDemoPortfolio } from '../domain/demo-portfolio';
+import { datedFromToday, DEMO_SITE_IDS } from '../domain/demo-portfolio';
 import type { RecordKind } from '../domain/record-kinds';
 import { isLive, type WriteContext } from '../domain/record-meta';
 import { cascadeTables, removeWithContents } from './cascade-removal';
@@ -37,6 +37,8 @@ export async function loadDemoPortfolio(
   file: unknown,
   nowMs: number = Date.now()
 ): Promise<DemoLoadResult> {
+  // The file's check is loaded with it (zod stays off pages that only read).
+  const { parseDemoPortfolio } = await import('../domain/demo-portfolio-schema');
   const demo = datedFromToday(parseDemoPortfolio(file), nowMs);
   const r = demo.records;
   await db.transaction(

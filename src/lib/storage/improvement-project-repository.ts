@@ -1,6 +1,4 @@
 import {
-  improvementProjectFieldsSchema,
-  parseImprovementProjectFields,
   projectChanges,
   type ImprovementProject,
   type ImprovementProjectFields
@@ -8,6 +6,7 @@ import {
 import { editableOf, type WriteContext } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
 import { RecordNotFoundError, RecordRepository, requireLive } from './record-repository';
+import { lazyValidation } from './record-validation';
 
 const MAX_HISTORY = 500;
 
@@ -20,8 +19,13 @@ export class ProjectRepository extends RecordRepository<ImprovementProject> {
     super(db, ctx, {
       kind: 'Improvement project',
       table: (d) => d.projects,
-      parse: parseImprovementProjectFields,
-      fields: Object.keys(improvementProjectFieldsSchema.shape),
+      validation: lazyValidation(async () => {
+        const m = await import('../domain/improvement-project-schema');
+        return {
+          parse: m.parseImprovementProjectFields,
+          fields: Object.keys(m.improvementProjectFieldsSchema.shape)
+        };
+      }),
       relatedTables: (d) => [d.processes],
       checkInTransaction: async (d, fields) => {
         await requireLive(d.processes, fields.processId, 'Improvement project', 'processId', 'Process');
@@ -56,7 +60,7 @@ export class ProjectRepository extends RecordRepository<ImprovementProject> {
   ): Promise<ImprovementProject> {
     const before = await this.get(id);
     if (!before) throw new RecordNotFoundError('Improvement project', id);
-    const fields = parseImprovementProjectFields(input);
+    const fields = (await this.spec.validation()).parse(input);
     const changes = projectChanges(editableOf(before), fields);
     const today = this.ctx.now().toISOString().slice(0, 10);
     const phaseDates = { ...before.phaseDates, ...fields.phaseDates };

@@ -1,8 +1,9 @@
-import { parseProcessFields, processFieldsSchema, type Process } from '../domain/process';
+import { type Process } from '../domain/process';
 import type { WriteContext } from '../domain/record-meta';
 import { liveCountsUnder, removeWithContents, undoRemoval, type Removal } from './cascade-removal';
 import type { CapstanDatabase } from './database';
 import { archive, RecordRepository, requireLive } from './record-repository';
+import { lazyValidation } from './record-validation';
 
 /**
  * Processes: created under a live site; archived (history kept, out of the ranking and the review) or deleted
@@ -13,8 +14,10 @@ export class ProcessRepository extends RecordRepository<Process> {
     super(db, ctx, {
       kind: 'Process',
       table: (d) => d.processes,
-      parse: parseProcessFields,
-      fields: Object.keys(processFieldsSchema.shape),
+      validation: lazyValidation(async () => {
+        const { parseProcessFields, processFieldsSchema } = await import('../domain/process-schema');
+        return { parse: parseProcessFields, fields: Object.keys(processFieldsSchema.shape) };
+      }),
       relatedTables: (d) => [d.sites],
       checkInTransaction: async (d, fields) => {
         await requireLive(d.sites, fields.siteId, 'Process', 'siteId', 'Site');

@@ -2,7 +2,7 @@ import 'fake-indexeddb/auto';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import demo from '../../../seed-data/demo-portfolio.json';
 import { BUILT_IN_PROFILES } from '../domain/context-profile';
-import { parseDemoPortfolio } from '../domain/demo-portfolio';
+import { parseDemoPortfolio } from '../domain/demo-portfolio-schema';
 import { buildQuarterReview } from '../domain/quarter-review';
 import { ValidationError } from '../domain/validation-error';
 import { openStorage, type CapstanStorage, databaseOf } from './storage';

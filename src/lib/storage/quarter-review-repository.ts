@@ -1,6 +1,4 @@
 import {
-  quarterReviewFieldsSchema,
-  parseQuarterReviewFields,
   reviewKey,
   type QuarterReviewFields,
   type QuarterReviewRecord,
@@ -10,6 +8,12 @@ import { isLive, stampNew, stampUpdate, type Editable, type WriteContext } from 
 import type { ReviewFigures } from '../domain/review-figures';
 import type { CapstanDatabase } from './database';
 import { withoutFields } from './record-repository';
+import { lazyValidation } from './record-validation';
+
+const validation = lazyValidation(async () => {
+  const m = await import('../domain/quarter-review-record-schema');
+  return { parse: m.parseQuarterReviewFields, fields: Object.keys(m.quarterReviewFieldsSchema.shape) };
+});
 
 /** Quarterly reviews: one record per quarter and set of sites, created on the first note or freeze. */
 export class QuarterReviewRepository {
@@ -30,6 +34,8 @@ export class QuarterReviewRepository {
     siteIds: readonly string[],
     edit: (fields: QuarterReviewFields) => QuarterReviewFields
   ): Promise<QuarterReviewRecord> {
+    // Loaded before the transaction: waiting on a module inside one would end it.
+    const { parse, fields: known } = await validation();
     return this.db.transaction('rw', this.db.reviews, async () => {
       const existing = await this.find(quarter, siteIds);
       const base: QuarterReviewFields = existing
@@ -40,13 +46,9 @@ export class QuarterReviewRepository {
             snapshot: existing.snapshot
           }
         : { quarter, siteIds: [...siteIds].sort(), notes: {} };
-      const fields = parseQuarterReviewFields(edit(base));
+      const fields = parse(edit(base));
       const record = existing
-        ? stampUpdate(
-            withoutFields(existing, Object.keys(quarterReviewFieldsSchema.shape)),
-            fields as Editable<QuarterReviewRecord>,
-            this.ctx
-          )
+        ? stampUpdate(withoutFields(existing, known), fields as Editable<QuarterReviewRecord>, this.ctx)
         : (stampNew(fields, this.ctx) as QuarterReviewRecord);
       if (!fields.snapshot) delete record.snapshot;
       await this.db.reviews.put(record);

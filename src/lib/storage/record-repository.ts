@@ -13,6 +13,7 @@ import {
 } from '../domain/record-meta';
 import { ValidationError } from '../domain/validation-error';
 import type { CapstanDatabase } from './database';
+import type { ValidationLoader } from './record-validation';
 
 /**
  * Thrown when a record changed (in another tab, or by an import) after the person opened it for editing: their
@@ -38,13 +39,8 @@ export class RecordNotFoundError extends Error {
 export interface RepositorySpec<T extends RecordMeta> {
   kind: string;
   table: (db: CapstanDatabase) => Table<T, string>;
-  /** Validates unknown input into the editable fields; throws ValidationError. */
-  parse: (input: unknown) => Editable<T>;
-  /**
-   * Every field the schema knows (its shape's keys). An edit replaces these whole — a field left out is cleared —
-   * while fields a newer version added stay as they were.
-   */
-  fields: readonly string[];
+  /** The kind's schema, loaded on the first write (record-validation.ts). */
+  validation: ValidationLoader<Editable<T>>;
   /** Checks references and cross-record rules inside the write transaction; throws ValidationError. */
   checkInTransaction?: (db: CapstanDatabase, fields: Editable<T>, existingId?: string) => Promise<void>;
   /** Extra tables `checkInTransaction` reads. */
@@ -90,7 +86,7 @@ export class RecordRepository<T extends RecordMeta> {
   }
 
   async create(input: unknown): Promise<T> {
-    const fields = this.spec.parse(input);
+    const fields = (await this.spec.validation()).parse(input);
     return this.db.transaction('rw', this.tables(), async () => {
       await this.spec.checkInTransaction?.(this.db, fields);
       const record = stampNew(fields, this.ctx) as unknown as T;
@@ -104,7 +100,8 @@ export class RecordRepository<T extends RecordMeta> {
    * since, the edit is refused (EditConflictError) instead of silently replacing the other change.
    */
   async update(id: string, input: unknown, expectedRev?: number): Promise<T> {
-    const fields = this.spec.parse(input);
+    const validation = await this.spec.validation();
+    const fields = validation.parse(input);
     return this.db.transaction('rw', this.tables(), async () => {
       const previous = await this.table.get(id);
       if (!previous || !isLive(previous)) throw new RecordNotFoundError(this.spec.kind, id);
@@ -113,7 +110,7 @@ export class RecordRepository<T extends RecordMeta> {
         throw new EditConflictError(this.spec.kind, typeof name === 'string' ? name : id);
       }
       await this.spec.checkInTransaction?.(this.db, fields, id);
-      const record = stampUpdate(withoutFields(previous, this.spec.fields), fields, this.ctx);
+      const record = stampUpdate(withoutFields(previous, validation.fields), fields, this.ctx);
       await this.table.put(record);
       return record;
     });

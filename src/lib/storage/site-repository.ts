@@ -1,7 +1,8 @@
 import type { WriteContext } from '../domain/record-meta';
-import { parseSiteFields, siteFieldsSchema, type Site } from '../domain/site';
+import { type Site } from '../domain/site';
 import { liveCountsUnder, removeWithContents, undoRemoval, type Removal } from './cascade-removal';
 import { RecordRepository } from './record-repository';
+import { lazyValidation } from './record-validation';
 import type { CapstanDatabase } from './database';
 
 /** What a site deletion touched, so that undo can bring back exactly that. */
@@ -21,8 +22,10 @@ export class SiteRepository extends RecordRepository<Site> {
     super(db, ctx, {
       kind: 'Site',
       table: (d) => d.sites,
-      parse: parseSiteFields,
-      fields: Object.keys(siteFieldsSchema.shape)
+      validation: lazyValidation(async () => {
+        const { parseSiteFields, siteFieldsSchema } = await import('../domain/site-schema');
+        return { parse: parseSiteFields, fields: Object.keys(siteFieldsSchema.shape) };
+      })
     });
   }
 

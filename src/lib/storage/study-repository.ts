@@ -9,18 +9,16 @@ import {
   type Editable,
   type WriteContext
 } from '../domain/record-meta';
-import {
-  assertStudyFitsCharacteristic,
-  parseStudyFields,
-  studyFieldsSchema,
-  type Study,
-  type StudyFields
-} from '../domain/study';
+import { assertStudyFitsCharacteristic, type Study, type StudyFields } from '../domain/study';
 import { ValidationError } from '../domain/validation-error';
 import type { CapstanDatabase, StudyRevision } from './database';
 import { RecordNotFoundError, RecordRepository, requireLive, withoutFields } from './record-repository';
+import { lazyValidation } from './record-validation';
 
-const STUDY_FIELDS = Object.keys(studyFieldsSchema.shape);
+const studyValidation = lazyValidation(async () => {
+  const { parseStudyFields, studyFieldsSchema } = await import('../domain/study-schema');
+  return { parse: parseStudyFields, fields: Object.keys(studyFieldsSchema.shape) };
+});
 
 /** What to do when the month already has a study: refuse, replace it, or combine the two. */
 export type LogMode = 'new' | 'replace' | 'combine';
@@ -71,8 +69,7 @@ export class StudyRepository extends RecordRepository<Study> {
     super(db, ctx, {
       kind: 'Study',
       table: (d) => d.studies,
-      parse: parseStudyFields,
-      fields: STUDY_FIELDS,
+      validation: studyValidation,
       relatedTables: (d) => [d.characteristics, d.processes, d.sites],
       checkInTransaction: async (d, fields, existingId) => {
         const characteristic = await characteristicFor(d, fields);
@@ -116,9 +113,11 @@ export class StudyRepository extends RecordRepository<Study> {
    * `mode` says (the earlier version is kept as a revision), or refused with mode 'new'.
    */
   async logMany(inputs: readonly unknown[], mode: LogMode): Promise<LogOutcome[]> {
+    // Loaded before the transaction: waiting on a module inside one would end it.
+    const { parse, fields: studyFields } = await studyValidation();
     const parsed = inputs.map((input, i) => {
       try {
-        return parseStudyFields(input);
+        return parse(input);
       } catch (error) {
         if (error instanceof ValidationError && inputs.length > 1) {
           throw new ValidationError(
@@ -153,9 +152,9 @@ export class StudyRepository extends RecordRepository<Study> {
             ]);
           }
           const data = mode === 'combine' ? combineStudyData(existing.data, fields.data) : fields.data;
-          const next = parseStudyFields({ ...editable(fields), data });
+          const next = parse({ ...editable(fields), data });
           await this.keepRevision(existing, mode === 'combine' ? 'combined' : 'replaced');
-          const study = stampUpdate(withoutFields(existing, STUDY_FIELDS), editable(next), this.ctx);
+          const study = stampUpdate(withoutFields(existing, studyFields), editable(next), this.ctx);
           await d.studies.put(study);
           outcomes.push({ study, previous: existing, action: mode === 'combine' ? 'combined' : 'replaced' });
         }
@@ -187,6 +186,7 @@ export class StudyRepository extends RecordRepository<Study> {
   /** Puts an earlier version back as a new revision; the version it replaces is kept in turn. */
   async restoreRevision(revisionId: string): Promise<Study> {
     const d = this.db;
+    const { fields: studyFields } = await studyValidation();
     return d.transaction('rw', [d.studies, d.studyRevisions], async () => {
       const revision = await d.studyRevisions.get(revisionId);
       if (!revision) throw new RecordNotFoundError('Study revision', revisionId);
@@ -195,7 +195,7 @@ export class StudyRepository extends RecordRepository<Study> {
       await this.keepRevision(current, 'restored');
       const base = isLive(current) ? current : stampRestored(current, this.ctx);
       const old = revision.study;
-      const restored = stampUpdate(withoutFields(base, STUDY_FIELDS), editable(old), this.ctx);
+      const restored = stampUpdate(withoutFields(base, studyFields), editable(old), this.ctx);
       await d.studies.put(restored);
       return restored;
     });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import demo from '../../../../seed-data/demo-portfolio.json';
 import { BUILT_IN_PROFILES } from '../../domain/context-profile';
-import { parseDemoPortfolio } from '../../domain/demo-portfolio';
+import { parseDemoPortfolio } from '../../domain/demo-portfolio-schema';
 import { buildQuarterReview } from '../../domain/quarter-review';
 import type { ReviewProcessLine } from '../../domain/review-figures';
 import {
