@@ -9,11 +9,19 @@ export interface SiteFields {
 }
 export type Site = SiteFields & RecordMeta;
 
+/** Names already asked about: building a formatter costs about a millisecond, and a file repeats a few zones. */
+const knownZones = new Map<string, boolean>();
+
 export function isTimeZone(name: string): boolean {
-  try {
-    new Intl.DateTimeFormat('en', { timeZone: name });
-    return true;
-  } catch {
-    return false;
+  let known = knownZones.get(name);
+  if (known === undefined) {
+    try {
+      new Intl.DateTimeFormat('en', { timeZone: name });
+      known = true;
+    } catch {
+      known = false;
+    }
+    if (knownZones.size < 1000) knownZones.set(name, known);
   }
+  return known;
 }

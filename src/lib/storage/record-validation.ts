@@ -17,12 +17,19 @@ export interface RecordValidation<F> {
 
 export type ValidationLoader<F> = () => Promise<RecordValidation<F>>;
 
-/** A loader that fetches once and then answers at once; a failed fetch (offline before precaching) is retried. */
+/**
+ * A loader that fetches once and then answers at once. A failed fetch (the network gone before the app was
+ * stored for offline use) is said in words — nothing was written — and tried again on the next write.
+ */
 export function lazyValidation<F>(load: () => Promise<RecordValidation<F>>): ValidationLoader<F> {
   let pending: Promise<RecordValidation<F>> | undefined;
   return () =>
     (pending ??= load().catch((error: unknown) => {
       pending = undefined;
-      throw error;
+      throw new Error(
+        'Nothing was saved: the checks for this record could not be loaded (the network was lost before Capstan ' +
+          'was stored for offline use). Reload the page once online, then save again.',
+        { cause: error }
+      );
     }));
 }
