@@ -77,6 +77,11 @@ export interface MergeConflict {
   deletedWith?: Partial<Record<RecordKind, number>>;
   /** Same-month: whether the two studies can be pooled exactly (same data family, same opportunities). */
   canCombine?: boolean;
+  /**
+   * Same-month: the study of the two that is deleted on this device and edited in the file. It takes part only if
+   * its own question (a record conflict) takes the edit; keeping the deletion leaves the month with the other.
+   */
+  revivable?: string;
   /** The per-record decision behind a record or family conflict, when the vectors gave one. */
   decision?: MergeDecision<RecordMeta>;
   /** Family: delete-vs-edit conflicts of records inside it, settled by the family's choice. */
@@ -317,6 +322,7 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
     const [a, b] = peers.sort(
       (x, y) => Number(fromFile(x)) - Number(fromFile(y)) || (x.id < y.id ? -1 : 1)
     ) as [Study, Study];
+    const revivable = [a, b].find((x) => mayRevive.has(x.id) && !isLive(x));
     months.push({
       key: monthConflictKey(study),
       type: 'same-month',
@@ -325,7 +331,8 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
       local: a,
       incoming: b,
       fields: differingFields(a, b),
-      canCombine: canCombineStudies(a, b)
+      canCombine: canCombineStudies(a, b),
+      ...(revivable ? { revivable: revivable.id } : {})
     });
   }
 

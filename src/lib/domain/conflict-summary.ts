@@ -107,7 +107,10 @@ export function summariseConflict(
       question:
         c.nature === 'emptied-month'
           ? "Each device kept a different study of this month and deleted the other's: merging would leave the month with none."
-          : 'This month was logged on both devices: a characteristic has one study per month.',
+          : 'This month was logged on both devices: a characteristic has one study per month.' +
+            (c.revivable
+              ? ` ${c.revivable === b.id ? "The file's" : "This device's"} study was deleted on this device and corrected in the file: this choice counts only if that correction is taken (its own question); keeping the deletion keeps the other study.`
+              : ''),
       rows: [
         ...labels.map((label) => ({
           label,

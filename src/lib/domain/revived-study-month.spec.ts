@@ -1,4 +1,7 @@
 import { describe, expect, it } from 'vitest';
+import { mergedRecordSet, planMerge, settleMerge } from './change-set-merge';
+import { summariseConflict } from './conflict-summary';
+import { RecordIndex } from './record-index';
 import { emptyRecords, type RecordsByKind } from './record-kinds';
 import { isLive, stampNew, stampUpdate, type WriteContext } from './record-meta';
 import { mergeRecordSets } from './record-set-merge';
@@ -65,6 +68,23 @@ describe('a deleted study corrected elsewhere, in a month that kept another', ()
     const month = open.conflicts.find((c) => c.type === 'same-month')!;
     expect((month.local as Study).enteredBy).toBe('lead');
     expect((month.incoming as Study).enteredBy).toBe('office');
+    // The month's question says that it counts only if the correction is taken.
+    expect(month.revivable).toBe(month.incoming!.id);
+    expect(summariseConflict(month, () => undefined).question).toMatch(
+      /The file's study was deleted on this device and corrected in the file: this choice counts only if that correction is taken/
+    );
+  });
+
+  it('keeps the deletion when the study question says so, whatever the month question says', () => {
+    const { settled, correction } = correctionAfterSettling();
+    const index = new RecordIndex(settled);
+    const plan = planMerge(index, correction);
+    const record = plan.conflicts.find((c) => c.type === 'record')!;
+    const month = plan.conflicts.find((c) => c.type === 'same-month')!;
+    const choices = { perConflict: { [record.key]: 'local' as const, [month.key]: 'incoming' as const } };
+    for (const { kind, record: r } of settleMerge(index, plan, choices, at('lead', '2026-11-06T08:00:00Z')))
+      index.set(kind, r);
+    expect(liveBy(mergedRecordSet(index))).toEqual(['lead']);
   });
 
   it.each([
