@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { summariseConflict } from './conflict-summary';
-import { emptyRecords, type RecordsByKind } from './record-kinds';
-import { isLive, stampNew, type WriteContext } from './record-meta';
+import { liveBy, oneMonthPortfolio, writerAt as at } from '../../../tests/support/one-month-scenario';
 import { mergeRecordSets } from './record-set-merge';
 
 /**
@@ -9,40 +8,14 @@ import { mergeRecordSets } from './record-set-merge';
  * A's study, Y keeps B's. Each deleted the other's study, so when X and Y meet, each deletion supersedes the
  * other side's live study. Merging must ask which study the month keeps, not leave it empty.
  */
-const at = (deviceId: string, iso: string): WriteContext => ({
-  deviceId,
-  now: () => new Date(iso),
-  newId: () => `${deviceId}-${Math.random().toString(36).slice(2)}`
-});
-
 function twoSettlements() {
-  const office = at('office', '2026-11-01T08:00:00Z');
-  const site = stampNew({ name: 'North Ridge', timeZone: 'UTC' }, office);
-  const process = stampNew({ siteId: site.id, name: 'Press line' }, office);
-  const ch = stampNew({ processId: process.id, name: 'Bore diameter' }, office);
-  const base = { ...emptyRecords(), sites: [site], processes: [process], characteristics: [ch] };
-  const study = (who: string, mean: number, iso: string) =>
-    stampNew(
-      {
-        characteristicId: ch.id,
-        period: '2026-10',
-        data: { kind: 'summary' as const, n: 30, mean, sd: 1 },
-        enteredBy: who
-      },
-      at(who, iso)
-    );
-  const a = { ...base, studies: [study('lead-a', 10, '2026-11-02T08:00:00Z')] } as unknown as RecordsByKind;
-  const b = { ...base, studies: [study('lead-b', 12, '2026-11-03T08:00:00Z')] } as unknown as RecordsByKind;
+  const { study, withStudies } = oneMonthPortfolio();
+  const a = withStudies(study('lead-a', 10, '2026-11-02T08:00:00Z'));
+  const b = withStudies(study('lead-b', 12, '2026-11-03T08:00:00Z'));
   const x = mergeRecordSets(a, b, 'local', at('x', '2026-11-04T08:00:00Z')).records;
   const y = mergeRecordSets(b, a, 'local', at('y', '2026-11-05T08:00:00Z')).records;
   return { x, y };
 }
-
-const liveBy = (r: RecordsByKind) =>
-  r.studies
-    .filter(isLive)
-    .map((s) => s.enteredBy)
-    .sort();
 
 describe('a month each side settled differently', () => {
   it('is a conflict when the two meet, never an empty month', () => {

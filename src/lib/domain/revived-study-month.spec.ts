@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { mergedRecordSet, planMerge, settleMerge } from './change-set-merge';
 import { summariseConflict } from './conflict-summary';
 import { RecordIndex } from './record-index';
-import { emptyRecords, type RecordsByKind } from './record-kinds';
-import { isLive, stampNew, stampUpdate, type WriteContext } from './record-meta';
+import { liveBy, oneMonthPortfolio, writerAt as at } from '../../../tests/support/one-month-scenario';
+import { stampUpdate } from './record-meta';
 import { mergeRecordSets } from './record-set-merge';
 import type { Study } from './study';
 
@@ -13,32 +13,12 @@ import type { Study } from './study';
  * the deletion brings the office's study back — beside the lead's, unless the month is asked about too. Found
  * by the multi-device histories test (a seed where the merge refused to write: "two live studies").
  */
-const at = (deviceId: string, iso: string): WriteContext => ({
-  deviceId,
-  now: () => new Date(iso),
-  newId: () => `${deviceId}-${Math.random().toString(36).slice(2)}`
-});
-
 function correctionAfterSettling() {
-  const office = at('office', '2026-11-01T08:00:00Z');
-  const site = stampNew({ name: 'North Ridge', timeZone: 'UTC' }, office);
-  const process = stampNew({ siteId: site.id, name: 'Press line' }, office);
-  const ch = stampNew({ processId: process.id, name: 'Bore diameter' }, office);
-  const base = { ...emptyRecords(), sites: [site], processes: [process], characteristics: [ch] };
-  const study = (who: string, mean: number, iso: string) =>
-    stampNew(
-      {
-        characteristicId: ch.id,
-        period: '2026-10',
-        data: { kind: 'summary' as const, n: 30, mean, sd: 1 },
-        enteredBy: who
-      },
-      at(who, iso)
-    ) as unknown as Study;
-  const leads = { ...base, studies: [study('lead', 10, '2026-11-02T08:00:00Z')] } as unknown as RecordsByKind;
+  const { study, withStudies } = oneMonthPortfolio();
   const officeStudy = study('office', 12, '2026-11-03T08:00:00Z');
-  const offices = { ...base, studies: [officeStudy] } as unknown as RecordsByKind;
+  const offices = withStudies(officeStudy);
   // The lead's device keeps its own study; the office's is deleted there.
+  const leads = withStudies(study('lead', 10, '2026-11-02T08:00:00Z'));
   const settled = mergeRecordSets(leads, offices, 'local', at('lead', '2026-11-04T08:00:00Z')).records;
   // The office corrects its study afterwards.
   const corrected = stampUpdate(
@@ -46,14 +26,8 @@ function correctionAfterSettling() {
     { ...officeStudy, data: { kind: 'summary', n: 30, mean: 11, sd: 1 } } as never,
     at('office', '2026-11-05T08:00:00Z')
   );
-  return { settled, correction: { ...offices, studies: [corrected] } as unknown as RecordsByKind };
+  return { settled, correction: withStudies(corrected) };
 }
-
-const liveBy = (r: RecordsByKind) =>
-  r.studies
-    .filter(isLive)
-    .map((s) => s.enteredBy)
-    .sort();
 
 describe('a deleted study corrected elsewhere, in a month that kept another', () => {
   it('asks about the month as well as the study', () => {

@@ -54,16 +54,20 @@ export interface SummaryCore {
   within?: { sd: number; indices: ReturnType<typeof indices>; cp?: IndexInterval; cpk?: IndexInterval };
 }
 
-export function summaryCore(
+/** What both computations of a summary take: n, mean and sd (n − 1), the limits, a level, and a within sd. */
+type SummaryInput = [
   n: number,
   mu: number,
   sd: number,
   spec: Specification,
   level: number,
   sdWithin?: number
-): SummaryCore {
+];
+
+export function summaryCore(...input: SummaryInput): SummaryCore {
+  const [n, , , , level] = input;
   // Which intervals exist is decided once, by summaryBounds; the two-sided ones are added to its bounds.
-  const bounds = summaryBounds(n, mu, sd, spec, level, sdWithin);
+  const bounds = summaryBounds(...input);
   const { overall, within } = bounds;
   const core: SummaryCore = { overall, tails: bounds.tails };
   if (overall.spread !== undefined) core.pp = spreadIndexInterval(overall.spread, n, level);
@@ -96,14 +100,8 @@ export interface SummaryBounds {
   within?: { sd: number; indices: ReturnType<typeof indices>; cpkLower?: number };
 }
 
-export function summaryBounds(
-  n: number,
-  mu: number,
-  sd: number,
-  spec: Specification,
-  level: number,
-  sdWithin?: number
-): SummaryBounds {
+export function summaryBounds(...input: SummaryInput): SummaryBounds {
+  const [n, mu, sd, spec, level, sdWithin] = input;
   const overall = indices(mu, sd, spec);
   const bounds: SummaryBounds = { overall, tails: normalTailFractions(mu, sd, spec) };
   if (overall.spread !== undefined) bounds.ppLower = spreadIndexLowerBound(overall.spread, n, level);
