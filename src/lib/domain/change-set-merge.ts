@@ -1,5 +1,6 @@
 import { combineStudyData } from './combine-study-data';
 import { laterStamp } from './hybrid-clock';
+import { pauseEvery, runToEnd, type Steps } from './work-steps';
 import {
   KIND_LABEL,
   PARENT_OF,
@@ -172,6 +173,12 @@ function ancestorsOf(index: RecordIndex, kind: RecordKind, record: RecordMeta): 
 
 /** Works out, without writing anything, what merging `incoming` into `local` does (see the module note). */
 export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePlan {
+  return runToEnd(planMergeSteps(local, incoming));
+}
+
+/** planMerge in steps (work-steps.ts): a page runs it between its other tasks, a file of any size at once. */
+export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): Steps<MergePlan> {
+  const pause = pauseEvery();
   const plan: MergePlan = {
     decisions: [],
     counts: zeroCounts(),
@@ -184,6 +191,7 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
   const recordConflicts = new Map<string, MergeConflict>();
   for (const kind of RECORD_KINDS) {
     for (const record of incoming[kind] as RecordMeta[]) {
+      if (pause()) yield;
       const here = local.get(record.id);
       if (here && here.kind !== kind) {
         throw new MergeRefused(
@@ -229,6 +237,7 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
     ancestorsOf(planned, kind, r).some((a) => families.has(a));
   for (const parentKind of PARENT_KINDS) {
     for (const id of candidates) {
+      if (pause()) yield;
       const p = planned.get(id);
       if (!p || p.kind !== parentKind || inFamily(parentKind, p.record)) continue;
       const rc = recordConflicts.get(id);
@@ -281,6 +290,7 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
   // same-month conflict too, settled once the family's choice is known.
   const restorable = new Set<string>();
   for (const id of candidates) {
+    if (pause()) yield;
     const p = planned.get(id);
     if (!p || !(isLive(p.record) || families.has(id))) continue;
     const instants = new Set(
@@ -312,6 +322,7 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
     return plan.incoming.has(x.id) && (!here || !isLive(here));
   };
   for (const study of monthsToCheck) {
+    if (pause()) yield;
     const key = studyMonthKey(study);
     if (seenMonths.has(key)) continue;
     const peers = planned
@@ -340,6 +351,7 @@ export function planMerge(local: RecordIndex, incoming: RecordsByKind): MergePla
   // study (two devices that settled the same month by different choices, or two people who each replaced the
   // other's). Asked, never left empty; settling brings the chosen study back.
   for (const study of incoming.studies) {
+    if (pause()) yield;
     if (!isLive(study)) continue;
     const key = studyMonthKey(study);
     if (seenMonths.has(key)) continue;
@@ -416,6 +428,17 @@ export function settleMerge(
   choices: MergeChoices,
   ctx: WriteContext
 ): IndexedRecord[] {
+  return runToEnd(settleMergeSteps(local, plan, choices, ctx));
+}
+
+/** settleMerge in steps (work-steps.ts). */
+export function* settleMergeSteps(
+  local: RecordIndex,
+  plan: MergePlan,
+  choices: MergeChoices,
+  ctx: WriteContext
+): Steps<IndexedRecord[]> {
+  const pause = pauseEvery();
   const open = unsettledConflicts(plan, choices);
   if (open.length > 0) {
     throw new MergeRefused(
@@ -432,10 +455,12 @@ export function settleMerge(
   const deletedAt = (at: string): WriteContext => ({ ...ctx, now: () => new Date(at) });
 
   for (const { kind, decision } of plan.decisions) {
+    if (pause()) yield;
     if (decision.kind !== 'conflict' && decision.write) put(kind, decision.write);
   }
   const familyParents: string[] = [];
   for (const c of plan.conflicts) {
+    if (pause()) yield;
     const pick = choices.perConflict?.[c.key];
     const rule = choices.rule ?? 'newer';
     if (c.type === 'record') {
@@ -463,6 +488,7 @@ export function settleMerge(
   // Consistency of families: top-down over every parent this merge touched.
   const touched = new Set<string>(familyParents);
   for (const [id, kind] of written) {
+    if (pause()) yield;
     if (PARENT_OF[kind]) touched.add(parentIdOf(kind, current(id))!);
     touched.add(id);
   }
@@ -483,6 +509,7 @@ export function settleMerge(
   };
   for (const parentKind of PARENT_KINDS) {
     for (const id of touched) {
+      if (pause()) yield;
       const p = work.get(id);
       if (!p || p.kind !== parentKind) continue;
       const now = p.record;
@@ -501,6 +528,7 @@ export function settleMerge(
   // One study per month, settled on the state the families left: a pair where one side is no longer live
   // (its family was deleted) needs nothing more.
   for (const c of plan.conflicts) {
+    if (pause()) yield;
     if (c.type !== 'same-month') continue;
     const pick = choices.perConflict?.[c.key];
     const rule = choices.rule ?? 'newer';
@@ -549,7 +577,7 @@ export function settleMerge(
 
   const out: IndexedRecord[] = [];
   for (const [id, kind] of written) out.push({ kind, record: current(id) });
-  assertConsistent(work, out);
+  yield* assertConsistent(work, out);
   return out;
 }
 
@@ -558,8 +586,10 @@ export function settleMerge(
  * missing-but-known parent, and no second live study in a month. A failure here is a bug, never a user error;
  * nothing is written.
  */
-function assertConsistent(work: RecordIndex, writes: readonly IndexedRecord[]): void {
+function* assertConsistent(work: RecordIndex, writes: readonly IndexedRecord[]): Steps<void> {
+  const pause = pauseEvery();
   for (const { kind, record } of writes) {
+    if (pause()) yield;
     if (!isLive(record)) continue;
     const parentId = parentIdOf(kind, record);
     const parent = parentId === undefined ? undefined : work.record(parentId);

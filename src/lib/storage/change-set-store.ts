@@ -2,8 +2,8 @@ import type { Table } from 'dexie';
 import { canonicalJson } from '../domain/canonical-json';
 import {
   MergeRefused,
-  planMerge,
-  settleMerge,
+  planMergeSteps,
+  settleMergeSteps,
   type MergeChoices,
   type MergePlan
 } from '../domain/change-set-merge';
@@ -33,6 +33,7 @@ import type { Study } from '../domain/study';
 import type { CapstanDatabase, StudyRevision } from './database';
 import { LAST_EXPORT_KEY } from './backup-status';
 import { saveClock } from './device-identity';
+import { runInSlices } from './sliced-run';
 
 /**
  * Change sets: what this device sends to a peer, and how one received from a peer is merged in. Nothing here
@@ -263,15 +264,15 @@ async function snapshotFor(db: CapstanDatabase, records: RecordsByKind): Promise
  */
 export async function previewChangeSet(db: CapstanDatabase, records: RecordsByKind): Promise<ReceivePlan> {
   const tables = RECORD_KINDS.map((k) => tableOf(db, k));
-  return db.transaction('r', tables, async () => {
-    const snapshot = await snapshotFor(db, records);
-    try {
-      return { ...planMerge(snapshot, records), snapshot };
-    } catch (error) {
-      if (error instanceof MergeRefused) throw new ChangeSetRefused(error.message);
-      throw error;
-    }
-  });
+  const snapshot = await db.transaction('r', tables, () => snapshotFor(db, records));
+  // Planned after the read, in slices, so that a company's file never holds the page for long. A record that
+  // changes here meanwhile is caught when the merge is written (applyChangeSet compares it with the snapshot).
+  try {
+    return { ...(await runInSlices(planMergeSteps(snapshot, records))), snapshot };
+  } catch (error) {
+    if (error instanceof MergeRefused) throw new ChangeSetRefused(error.message);
+    throw error;
+  }
 }
 
 export interface ReceiveResult {
@@ -294,7 +295,7 @@ export async function applyChangeSet(
 ): Promise<ReceiveResult> {
   let writes: IndexedRecord[];
   try {
-    writes = settleMerge(plan.snapshot, plan, choices, ctx);
+    writes = await runInSlices(settleMergeSteps(plan.snapshot, plan, choices, ctx));
   } catch (error) {
     if (error instanceof MergeRefused) throw new ChangeSetRefused(error.message);
     throw error;

@@ -1,3 +1,5 @@
+import { emptyRecords, type RecordKind } from '../domain/record-kinds';
+import type { RecordMeta } from '../domain/record-meta';
 import type { ChangeSet } from '../exchange/exchange-file';
 import type { ExchangeWorkerMessage, ExchangeWorkerRequest } from '../workers/exchange-file.worker';
 import { workerJob } from './worker-job';
@@ -34,9 +36,18 @@ function run<T>(
 }
 
 export function decodeInWorker(file: Blob, onStage: (label: string) => void) {
-  return run<ChangeSet>({ type: 'decode', file }, onStage, (m) =>
-    m.type === 'decoded' ? m.changeSet : undefined
-  );
+  // The records arrive in parts (exchange-file.worker.ts), the header last.
+  const records = emptyRecords() as unknown as Record<RecordKind, RecordMeta[]>;
+  return run<ChangeSet>({ type: 'decode', file }, onStage, (m) => {
+    if (m.type === 'records') {
+      const list = records[m.kind];
+      for (const r of m.records) list.push(r);
+      return undefined;
+    }
+    return m.type === 'decoded'
+      ? { header: m.header, records: records as unknown as ChangeSet['records'] }
+      : undefined;
+  });
 }
 
 export function encodeInWorker(changeSet: ChangeSet, gzip: boolean, onStage: (label: string) => void) {

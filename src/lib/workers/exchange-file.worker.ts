@@ -12,13 +12,23 @@ import {
   type ChangeSet,
   type DecodeStage
 } from '../exchange/exchange-file';
+import { RECORD_KINDS, type RecordKind } from '../domain/record-kinds';
+import type { RecordMeta } from '../domain/record-meta';
+
+/**
+ * Records per message: the page copies each message in from this worker in one task, and 72 000 studies in one
+ * message held it for 0.4 s (more on a slow device); a few thousand take a few tens of milliseconds.
+ */
+const RECORDS_PER_MESSAGE = 4000;
 
 export type ExchangeWorkerRequest =
   { type: 'decode'; file: Blob } | { type: 'encode'; changeSet: ChangeSet; gzip: boolean };
 
 export type ExchangeWorkerMessage =
   | { type: 'stage'; stage: DecodeStage | 'reading' | 'writing' }
-  | { type: 'decoded'; changeSet: ChangeSet }
+  /** Records of a decoded file, a part at a time (see RECORDS_PER_MESSAGE); then 'decoded' with its header. */
+  | { type: 'records'; kind: RecordKind; records: RecordMeta[] }
+  | { type: 'decoded'; header: ChangeSet['header'] }
   | { type: 'encoded'; bytes: Uint8Array }
   | { type: 'refused'; message: string };
 
@@ -33,8 +43,13 @@ self.onmessage = async (event: MessageEvent<ExchangeWorkerRequest>) => {
       if (tooBig) throw new ExchangeFileError(tooBig);
       post({ type: 'stage', stage: 'reading' });
       const bytes = new Uint8Array(await request.file.arrayBuffer());
-      const changeSet = await decodeExchangeFile(bytes, (stage) => post({ type: 'stage', stage }));
-      post({ type: 'decoded', changeSet });
+      const { header, records } = await decodeExchangeFile(bytes, (stage) => post({ type: 'stage', stage }));
+      for (const kind of RECORD_KINDS) {
+        const all = records[kind] as RecordMeta[];
+        for (let i = 0; i < all.length; i += RECORDS_PER_MESSAGE)
+          post({ type: 'records', kind, records: all.slice(i, i + RECORDS_PER_MESSAGE) });
+      }
+      post({ type: 'decoded', header });
     } else {
       post({ type: 'stage', stage: 'writing' });
       const bytes = await encodeExchangeFile(request.changeSet, { gzip: request.gzip });
