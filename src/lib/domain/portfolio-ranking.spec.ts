@@ -194,6 +194,36 @@ describe('ranking', () => {
     expect(after).toEqual(['y', 'x']);
   });
 
+  it("re-judged under another reporting convention, keeps each row's badges and trend to that convention", () => {
+    // The prepared windows are shared between rankings of the same records; the badges and the shifted trend
+    // kept with them must follow the profile of each ranking, never the one judged first.
+    const changed: Characteristic = {
+      ...measured('c', 'p'),
+      limitChanges: [{ from: '2026-05', lsl: 7.5, usl: 12.5 }]
+    };
+    const recs = records({
+      processes: [proc('p', 'vehicle-parts')],
+      characteristics: [changed],
+      studies: ['2026-04', '2026-05', '2026-06'].map((m, i) => study(`s${i}`, 'c', m, summary(10, 0.7, 200)))
+    });
+    const withReporting = (reporting: ContextProfile['reporting']) =>
+      BUILT_IN_PROFILES.map((p) => (p.id === 'vehicle-parts' ? { ...p, reporting } : p));
+    const options = { endPeriod: '2026-06', windowMonths: 3 };
+    const [short1, long, short2] = (['short-term', 'long-term', 'short-term'] as const).map(
+      (reporting) => rankPortfolio(recs, withReporting(reporting), options)[0]!
+    );
+    for (const short of [short1!, short2!]) {
+      expect(short.characteristics[0]!.badges.slice(-2)).toEqual(['shift convention', 'limits changed']);
+      expect(short.badges).toContain('shift convention');
+    }
+    expect(long!.characteristics[0]!.badges).not.toContain('shift convention');
+    expect(long!.characteristics[0]!.badges.at(-1)).toBe('limits changed');
+    expect(long!.badges).not.toContain('shift convention');
+    const months = long!.trend.map((z, i) => [z, short1!.trend[i]] as const).filter(([z]) => z !== undefined);
+    expect(months.length).toBe(3);
+    for (const [z, shifted] of months) expectRelative(shifted!, z! + 1.5, 1e-12);
+  });
+
   it('tells centring from spread', () => {
     const r = rankPortfolio(
       records({
