@@ -264,7 +264,7 @@ async function checkParsed(
   bytes: Uint8Array,
   nowMs: number
 ): Promise<ChangeSet> {
-  const structural = structuralProblem(parsed, MAX_RECORDS_PER_KIND) ?? duplicateKeyProblem(text);
+  const structural = structuralProblem(parsed, MAX_RECORDS_PER_KIND) ?? duplicateKeyProblem(text, parsed);
   if (structural) throw new ExchangeFileError(structural);
   const top = parsed as Record<string, unknown>;
   if (top.kind === 'capstan-demo-portfolio') {

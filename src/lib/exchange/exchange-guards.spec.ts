@@ -1,0 +1,63 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { duplicateKeyProblem } from './exchange-guards';
+
+/** JSON text, and whether one of its objects writes a key twice. */
+interface Written {
+  text: string;
+  repeated: boolean;
+}
+
+/**
+ * JSON text written by hand, so that a key may repeat inside one object (JSON.stringify never repeats one): keys
+ * from a small set that holds quotes, colons and backslashes, values that are strings with the same, numbers,
+ * lists or further objects, and white space where JSON allows it.
+ */
+const space = fc.constantFrom('', ' ', '\n  ', '\t');
+const key = fc.constantFrom('a', 'b', 'c:d', 'e"f', 'g\\', '"', ':');
+const written: fc.Arbitrary<Written> = fc.letrec<{ value: Written; object: Written; list: Written }>(
+  (tie) => ({
+    value: fc.oneof(
+      { depthSize: 'small' },
+      fc.integer().map((n) => ({ text: String(n), repeated: false })),
+      key.map((k) => ({ text: JSON.stringify(`${k}:`), repeated: false })),
+      tie('list'),
+      tie('object')
+    ),
+    list: fc.array(tie('value'), { maxLength: 4 }).map((xs) => ({
+      text: `[${xs.map((x) => x.text).join(',')}]`,
+      repeated: xs.some((x) => x.repeated)
+    })),
+    object: fc.array(fc.tuple(key, tie('value'), space, space), { maxLength: 5 }).map((pairs) => ({
+      text: `{${pairs.map(([k, v, s1, s2]) => `${s1}${JSON.stringify(k)}${s2}:${s1}${v.text}`).join(',')}}`,
+      repeated: new Set(pairs.map(([k]) => k)).size < pairs.length || pairs.some(([, v]) => v.repeated)
+    }))
+  })
+).object;
+
+describe('a key written twice in one object', () => {
+  it('is found exactly where the text repeats a key, with the parsed value (keys counted first) or without', () => {
+    let repeats = 0;
+    fc.assert(
+      fc.property(written, ({ text, repeated }) => {
+        const searched = duplicateKeyProblem(text);
+        expect(searched !== undefined).toBe(repeated);
+        expect(duplicateKeyProblem(text, JSON.parse(text))).toBe(searched);
+        if (repeated) repeats += 1;
+      }),
+      { numRuns: 2000, seed: 20261203 }
+    );
+    // Both kinds of text were tried.
+    expect(repeats).toBeGreaterThan(100);
+    expect(repeats).toBeLessThan(1900);
+  });
+
+  it('names the object and the key', () => {
+    const text = '{"records":{"sites":[{"id":"s1","name":"A","name":"B"}]}}';
+    expect(duplicateKeyProblem(text, JSON.parse(text))).toMatch(
+      /^records\.sites\[0\]\.name: the key "name" appears twice in one object/
+    );
+    const clean = '{"a":{"b":"x:y","c":"\\"d\\":"}}';
+    expect(duplicateKeyProblem(clean, JSON.parse(clean))).toBeUndefined();
+  });
+});
