@@ -20,7 +20,7 @@ const base = {
  * company size (2 000 processes) an SVG element per point made drawing one chart a task of 0.3–0.4 s on a
  * slow machine. Below the threshold each point stays an element of its own, as before.
  */
-const MANY_POINTS = { large: true, largeThreshold: 400 };
+const MANY_POINTS = { large: true, largeThreshold: 400, progressive: 400, progressiveThreshold: 800 };
 
 /** Bars a chart can show legibly; beyond it the chart shows the weakest ones and says so. */
 export const MAX_PROCESS_BARS = 40;
