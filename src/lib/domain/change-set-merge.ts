@@ -228,6 +228,7 @@ export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): St
   // inside it follow its choice.
   const candidates = new Set<string>();
   for (const { kind, record } of plan.incoming.values()) {
+    if (pause()) yield;
     if (PARENT_KINDS.includes(kind)) candidates.add(record.id);
     const parent = parentIdOf(kind, record);
     if (parent !== undefined) candidates.add(parent);
@@ -380,6 +381,7 @@ export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): St
 
   const missing = new Map<RecordKind, number>();
   for (const { kind, record } of plan.incoming.values()) {
+    if (pause()) yield;
     const parent = parentIdOf(kind, record);
     if (parent === undefined || !isLive(record) || planned.get(parent)) continue;
     missing.set(kind, (missing.get(kind) ?? 0) + 1);
@@ -576,7 +578,10 @@ export function* settleMergeSteps(
   }
 
   const out: IndexedRecord[] = [];
-  for (const [id, kind] of written) out.push({ kind, record: current(id) });
+  for (const [id, kind] of written) {
+    if (pause()) yield;
+    out.push({ kind, record: current(id) });
+  }
   yield* assertConsistent(work, out);
   return out;
 }

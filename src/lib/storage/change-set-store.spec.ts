@@ -93,3 +93,74 @@ describe('change-set store', () => {
     expect((await s.sites.get(a!.site.id))!.name).toBe('Ostby Works 2');
   });
 });
+
+describe('a file of many months', () => {
+  it('finds every month it shares with this device, however many the file logs', async () => {
+    // More months than one query of the snapshot reads (MONTH_KEYS_PER_QUERY): the last ones must clash too.
+    const characteristics = 110;
+    const months = 40;
+    const at = (deviceId: string) => ({
+      deviceId,
+      now: () => new Date('2026-10-01T00:00:00Z'),
+      newId: () => crypto.randomUUID()
+    });
+    const office = at('office-device');
+    const site = stampNew({ name: 'Ostby Works', region: '', timeZone: 'UTC' }, office);
+    const process = stampNew(
+      {
+        siteId: site.id,
+        name: 'Press line',
+        owner: '',
+        contextId: 'vehicle-parts',
+        monthlyVolume: 10,
+        costPerDefective: 1,
+        currency: 'EUR'
+      },
+      office
+    );
+    const chars = Array.from({ length: characteristics }, (_, i) =>
+      stampNew(
+        {
+          processId: process.id,
+          name: `Bore ${i}`,
+          unit: 'mm',
+          dataKind: 'measured' as const,
+          riskClass: 'standard' as const,
+          lsl: 9,
+          usl: 11
+        },
+        office
+      )
+    );
+    const studiesBy = (ctx: ReturnType<typeof at>) =>
+      chars.flatMap((c) =>
+        Array.from({ length: months }, (_, m) =>
+          stampNew(
+            {
+              characteristicId: c.id,
+              period: `${2020 + Math.floor(m / 12)}-${String((m % 12) + 1).padStart(2, '0')}`,
+              enteredBy: ctx.deviceId,
+              data: { kind: 'summary' as const, n: 30, mean: 10, sd: 0.2 }
+            },
+            ctx
+          )
+        )
+      );
+    const records = (studies: ReturnType<typeof studiesBy>) => ({
+      contextProfiles: [],
+      sites: [site],
+      processes: [process],
+      characteristics: chars,
+      studies,
+      projects: [],
+      reviews: []
+    });
+    const s = await device();
+    const source = { deviceId: 'office-device', name: 'office', at: '2026-10-01T00:00:00Z' };
+    await s.exchange.apply(await s.exchange.preview(records(studiesBy(office))), {}, source);
+    // The same months logged on another device: every one of them is a month with two studies.
+    const plan = await s.exchange.preview(records(studiesBy(at('lead-device'))));
+    const clashes = plan.conflicts.filter((c) => c.type === 'same-month');
+    expect(clashes).toHaveLength(characteristics * months);
+  }, 60_000);
+});

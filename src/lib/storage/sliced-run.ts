@@ -16,7 +16,7 @@ function nextTask(): Promise<void> {
  * Runs a stepped computation (domain/work-steps.ts) in slices of about `sliceMs` on the caller's thread, giving
  * the thread back between slices: no task of the page lasts much longer than a slice, however large the work.
  */
-export async function runInSlices<T>(steps: Steps<T>, sliceMs = 40): Promise<T> {
+export async function runInSlices<T>(steps: Steps<T>, sliceMs = 25): Promise<T> {
   let sliceStart = performance.now();
   for (;;) {
     const step = steps.next();
