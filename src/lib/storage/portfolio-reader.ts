@@ -141,16 +141,17 @@ const REBUILD_PAGE = 20_000;
 async function rebuildModel(db: CapstanDatabase): Promise<{ model: MonthlyStatistics }> {
   return db.transaction('r', db.studies, async () => {
     const model = new MonthlyStatistics();
-    let after: string | undefined;
-    for (;;) {
-      const page = await (
-        after === undefined ? db.studies.orderBy(':id') : db.studies.where(':id').above(after)
-      )
+    const pageAfter = (after: string | undefined) =>
+      (after === undefined ? db.studies.orderBy(':id') : db.studies.where(':id').above(after))
         .limit(REBUILD_PAGE)
         .toArray();
+    // The next page is asked for before this one is added: the database reads it meanwhile.
+    let next = pageAfter(undefined);
+    for (;;) {
+      const page = await next;
       if (!page.length) break;
+      next = pageAfter(page[page.length - 1]!.id);
       model.appendNew(page, seqOf);
-      after = page[page.length - 1]!.id;
     }
     if (!model.needsRebuild) return { model };
     // Two live studies in one month across pages (a clash from before one-study-per-month): weigh them with
