@@ -320,6 +320,9 @@ interface PreparedCharacteristic {
 }
 
 /**
+ * Arrays kept with the prepared windows are shared by the rows of every ranking that judges them, so they are
+ * frozen: a change to one row's badges or trend would otherwise show in every other.
+ *
  * A characteristic row's badges, as judgePrepared builds them (the figures' own, then the shift convention for a
  * short-term context; none without figures or a profile), then 'limits changed'. Kept per variant: a change of
  * target re-judges every row, and a fresh array for each was a measurable share of a recompute.
@@ -337,7 +340,7 @@ function rowBadges(w: PreparedCharacteristic, profile: ContextProfile | undefine
         ? [...w.input.badges, 'shift convention']
         : [...w.input.badges];
   if (w.limitsChanged) own.push('limits changed');
-  return (kept[variant] = own);
+  return (kept[variant] = Object.freeze(own) as Badge[]);
 }
 
 /** How the judged rows' badges vary with the profile: none without one, else with or without the shift. */
@@ -366,7 +369,7 @@ function shiftedTrend(p: PreparedProcess, shift: number): (number | undefined)[]
   let trend = p.shiftedTrends.get(shift);
   if (!trend) {
     trend = shift === 0 ? p.trend : p.trend.map((z) => (z === undefined ? undefined : z + shift));
-    p.shiftedTrends.set(shift, trend);
+    p.shiftedTrends.set(shift, Object.freeze(trend) as (number | undefined)[]);
   }
   return trend;
 }
@@ -383,7 +386,7 @@ function processBadges(p: PreparedProcess, variant: BadgeVariant): Badge[] {
     if (c.limitsChanged) set.add('limits changed');
   }
   if (p.withData && p.withData < p.characteristics.length) set.add('incomplete');
-  return (p.badges[variant] = [...set]);
+  return (p.badges[variant] = Object.freeze([...set]) as Badge[]);
 }
 
 /**
