@@ -193,28 +193,44 @@ export function judgeCharacteristic(
 }
 
 /**
- * Judges a prepared window. `badges`, when given, are the row's badges as the caller keeps them for this kind
- * of profile (see rowBadges), shared between rankings; otherwise they are built here.
+ * STATUS_RULE's comparison of a window's per-unit figures with its context's requirement: the estimate and bound in
+ * the ruling measure's unit, whether each meets the level, and the z-levels the row shows. Written into one object
+ * kept for the purpose (judging is synchronous): a full row copies what it shows, a bare status (the review's
+ * trend quarters) reads two fields and keeps nothing.
  */
-function judgePrepared(
-  input: JudgeInput,
-  profile: ContextProfile | undefined,
-  badges?: Badge[]
-): CharacteristicRow {
-  const { characteristic, result, months } = input;
-  const risk = characteristic.riskClass;
-  const required = profile ? profile.levels[risk] : NaN;
-  if (!result || !profile || !input.unit)
-    return {
-      characteristic,
-      status: 'no recent data',
-      required,
-      badges: badges ?? [],
-      months,
-      ...(result ? { result } : {})
-    };
+interface Verdict {
+  estimate: number;
+  bound: number | undefined;
+  meets: boolean;
+  boundMeets: boolean;
+  /** The estimate as a reported z-level (3 × index + shift where an index rules). */
+  zEstimate: number;
+  /** The per-unit z-level as the context reports it. */
+  zReported: number;
+  /** The required level as a reported z-level (requiredZ). */
+  needZ: number;
+  status: CharacteristicStatus;
+}
+
+const verdict: Verdict = {
+  estimate: 0,
+  bound: undefined,
+  meets: false,
+  boundMeets: false,
+  zEstimate: 0,
+  zReported: 0,
+  needZ: 0,
+  status: 'no recent data'
+};
+
+function judgeFigures(
+  result: WindowFigures,
+  unit: ReturnType<typeof perUnitFigures>,
+  risk: RiskClass,
+  profile: ContextProfile
+): Verdict {
+  const required = profile.levels[risk];
   const shift = shortTermShift(profile);
-  const unit = input.unit;
   const zReported = unit.z + shift;
   const zBound = unit.zBound !== undefined ? unit.zBound + shift : undefined;
   const needZ = requiredZ(profile, risk);
@@ -251,12 +267,46 @@ function judgePrepared(
       break;
     }
   }
-  const unstable = result.stable === false;
-  const status: CharacteristicStatus = !meets
-    ? 'short'
-    : boundMeets && !unstable
-      ? 'meets, shown'
-      : 'meets, not shown';
+  const v = verdict;
+  v.estimate = estimate;
+  v.bound = bound;
+  v.meets = meets;
+  v.boundMeets = boundMeets;
+  v.zEstimate = zEstimate;
+  v.zReported = zReported;
+  v.needZ = needZ;
+  v.status = !meets ? 'short' : boundMeets && result.stable !== false ? 'meets, shown' : 'meets, not shown';
+  return v;
+}
+
+/**
+ * Judges a prepared window. `badges`, when given, are the row's badges as the caller keeps them for this kind
+ * of profile (see rowBadges), shared between rankings; otherwise they are built here.
+ */
+function judgePrepared(
+  input: JudgeInput,
+  profile: ContextProfile | undefined,
+  badges?: Badge[]
+): CharacteristicRow {
+  const { characteristic, result, months } = input;
+  const risk = characteristic.riskClass;
+  const required = profile ? profile.levels[risk] : NaN;
+  if (!result || !profile || !input.unit)
+    return {
+      characteristic,
+      status: 'no recent data',
+      required,
+      badges: badges ?? [],
+      months,
+      ...(result ? { result } : {})
+    };
+  const shift = shortTermShift(profile);
+  const { estimate, bound, status, zEstimate, zReported, needZ } = judgeFigures(
+    result,
+    input.unit,
+    risk,
+    profile
+  );
   badges ??=
     profile.reporting === 'short-term'
       ? [...input.badges, 'shift convention' as const]
@@ -456,34 +506,14 @@ function prepareProcess(
       monthly[t]! *= y;
       monthlyCount[t]! += 1;
     }
-    // WINDOW_RULE: the window keeps the months under the limits in force in its last month.
-    const since = changes ? changeInForce(c, options.endPeriod)?.from : undefined;
-    const from = since === undefined ? months.firstMonth : Math.max(months.firstMonth, monthOrdinal(since));
-    let limitsChanged = false;
-    for (let m = months.firstMonth; m < from; m += 1) {
-      const cell = model.cellOf(row, m);
-      if (cell >= 0 && model.kind[cell] !== CELL.empty) limitsChanged = true;
-    }
-    const cells: number[] = [];
-    for (let m = from; m <= months.end; m += 1) {
-      const cell = model.cellOf(row, m);
-      if (cell >= 0 && model.kind[cell] !== CELL.empty) cells.push(cell);
-    }
-    const stamps = cells.map((cell) => model.stamp[cell]!);
-    let cached = options.cache?.get(c, months.first, stamps);
-    if (!cached) {
-      const w = pooledWindow(model, cells) ?? rawWindow(model, cells);
-      let result: WindowFigures | undefined;
-      if (w) {
-        try {
-          result = windowFiguresOfStudy({ data: w.data, period: options.endPeriod }, c, w.sdWithin);
-        } catch {
-          result = undefined;
-        }
-      }
-      cached = { result, months: w ? w.months : 0 };
-      options.cache?.set(c, months.first, stamps, cached);
-    }
+    const { cells, limitsChanged } = windowCells(model, row, c, months, options.endPeriod);
+    let cached: { result: WindowFigures | undefined; months: number } | undefined;
+    if (options.cache) {
+      const stamps = cells.map((cell) => model.stamp[cell]!);
+      cached = options.cache.get(c, months.first, stamps);
+      if (!cached)
+        options.cache.set(c, months.first, stamps, (cached = figuresOfCells(model, cells, c, options)));
+    } else cached = figuresOfCells(model, cells, c, options);
     return { input: judgeInput(c, cached.result, cached.months, options.endPeriod), limitsChanged };
   });
   const trend: (number | undefined)[] = [];
@@ -515,6 +545,80 @@ function prepareProcess(
     badges: {},
     shiftedTrends: new Map()
   };
+}
+
+/**
+ * The cells of a characteristic's window that count (WINDOW_RULE: the months under the limits in force in its
+ * last month), and whether earlier months of the window were left out for that reason.
+ */
+function windowCells(
+  model: MonthlyStatistics,
+  row: number,
+  c: Characteristic,
+  months: { firstMonth: number; end: number },
+  endPeriod: string
+): { cells: number[]; limitsChanged: boolean } {
+  const since = c.limitChanges?.length ? changeInForce(c, endPeriod)?.from : undefined;
+  const from = since === undefined ? months.firstMonth : Math.max(months.firstMonth, monthOrdinal(since));
+  let limitsChanged = false;
+  for (let m = months.firstMonth; m < from; m += 1) {
+    const cell = model.cellOf(row, m);
+    if (cell >= 0 && model.kind[cell] !== CELL.empty) limitsChanged = true;
+  }
+  const cells: number[] = [];
+  for (let m = from; m <= months.end; m += 1) {
+    const cell = model.cellOf(row, m);
+    if (cell >= 0 && model.kind[cell] !== CELL.empty) cells.push(cell);
+  }
+  return { cells, limitsChanged };
+}
+
+/** A window's figures from its cells (none where its months cannot be pooled or analysed), and its months. */
+function figuresOfCells(
+  model: MonthlyStatistics,
+  cells: readonly number[],
+  c: Characteristic,
+  options: RankingOptions
+): { result: WindowFigures | undefined; months: number } {
+  const w = pooledWindow(model, cells) ?? rawWindow(model, cells);
+  let result: WindowFigures | undefined;
+  if (w) {
+    try {
+      result = windowFiguresOfStudy({ data: w.data, period: options.endPeriod }, c, w.sdWithin);
+    } catch {
+      result = undefined;
+    }
+  }
+  return { result, months: w ? w.months : 0 };
+}
+
+/**
+ * A process's status alone (the worst of its characteristics'), judged as judgeProcess judges it but without
+ * rows, badges, a trend or anything kept: what a quarter of the review's trend needs.
+ */
+function statusOfProcess(
+  chars: readonly Characteristic[],
+  model: MonthlyStatistics,
+  options: RankingOptions,
+  months: { firstMonth: number; end: number },
+  profile: ContextProfile | undefined
+): CharacteristicStatus {
+  let status: CharacteristicStatus = 'no recent data';
+  if (!profile) return status;
+  for (const c of chars) {
+    const row = model.rowOf(c.id);
+    if (row === undefined) continue;
+    const { result } = figuresOfCells(
+      model,
+      windowCells(model, row, c, months, options.endPeriod).cells,
+      c,
+      options
+    );
+    if (!result) continue;
+    const s = judgeFigures(result, perUnitFigures(result), c.riskClass, profile).status;
+    if (STATUS_RANK[s] < STATUS_RANK[status]) status = s;
+  }
+  return status;
 }
 
 /** A window of raw months, from their studies' values (windowData: model search, subgroups, stability). */
@@ -658,14 +762,12 @@ export function portfolioStatuses(
   // (their garbage, the heap they grew, and the full rankings' prepared windows they pushed out) than computing
   // them again — in the benchmark at 20 000 processes the first review took 5–12 % less time and 60 MB less
   // memory without, and a review with the window figures cached no more time.
-  const uncached = { ...options, cache: undefined };
   const { months, model, index } = rankingContext(records, options);
   const statuses: CharacteristicStatus[] = [];
   for (const process of records.processes) {
     if (!liveSiteOf(process, index)) continue;
     const chars = index.characteristics.get(process.id) ?? [];
-    const windows = prepareProcess(chars, model, uncached, months);
-    statuses.push(judgeProcess(windows, profileFor(profiles, process.contextId)).status);
+    statuses.push(statusOfProcess(chars, model, options, months, profileFor(profiles, process.contextId)));
   }
   return statuses;
 }
