@@ -128,7 +128,7 @@ async function readPortfolio(file: string) {
     }
   }
   if (json === undefined || (json as { format?: unknown } | null)?.format === EXCHANGE_FORMAT) {
-    const { records } = await readExchangeFile(file);
+    const { records } = await readExchangeFile(file, bytes);
     return {
       records: {
         sites: records.sites.filter(isLive),

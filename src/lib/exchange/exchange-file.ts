@@ -4,6 +4,7 @@ import { countRecords, RECORD_KINDS, type RecordKind, type RecordsByKind } from 
 import type { RecordMeta } from '../domain/record-meta';
 import { changeSetProblem, recordPlace, restoreUnknownFields } from './change-set-checks';
 import { duplicateKeyProblem, pathText, printable, structuralProblem } from './exchange-guards';
+import { hostSchema, sha256Hex } from './exchange-host';
 import {
   EXCHANGE_FORMAT,
   EXCHANGE_FORMAT_VERSION,
@@ -52,12 +53,6 @@ export function sizeProblem(bytes: number): string | undefined {
     return `The file is ${mb(bytes)}; Capstan reads exchange files up to ${mb(MAX_EXCHANGE_BYTES)} — export per site or as changes since the last file instead`;
   }
   return undefined;
-}
-
-async function sha256Hex(content: string | Uint8Array): Promise<string> {
-  const bytes = typeof content === 'string' ? new TextEncoder().encode(content) : content;
-  const digest = await crypto.subtle.digest('SHA-256', bytes as BufferSource);
-  return Array.from(new Uint8Array(digest), (b) => b.toString(16).padStart(2, '0')).join('');
 }
 
 /** Header fields the exporter supplies; counts and latest clock are filled in from the records. */
@@ -299,10 +294,11 @@ async function checkParsed(
     );
   }
   const { sha256, ...rest } = top;
-  // The digest of the bytes as written runs off this thread (Web Crypto): the schema is checked meanwhile, and
-  // its verdict given only once the hash has been found to match — a damaged file is named as damaged first.
+  // In the browser the digest of the bytes as written runs off this thread (Web Crypto) while the schema is
+  // checked; the command line's hash (exchange-host.ts) is done before. Either way the schema's verdict is given
+  // only once the hash has been found to match — a damaged file is named as damaged first.
   const writtenDigest = writtenHash(bytes, sha256);
-  const result = exchangeFileSchema.safeParse(restore(parsed as Record<string, unknown>));
+  const result = hostSchema(exchangeFileSchema).safeParse(restore(parsed as Record<string, unknown>));
   let matches = (await writtenDigest) === sha256;
   if (!matches) {
     let body: string;

@@ -1,0 +1,47 @@
+import type { z } from 'zod';
+
+/**
+ * The two heavy steps of reading and writing an exchange file that a host can do faster its own way: the SHA-256
+ * of the bytes, and the schema check. By default they are what every host has — Web Crypto's digest and zod's
+ * validators as they run without eval (the app's Content-Security-Policy forbids eval). The command line, which
+ * runs in Node and may compile, plugs in Node's hash and zod's compiled parser (src/cli/fast-exchange-host.ts).
+ * Either way the same schema decides and the same SHA-256 comes out; only the speed differs.
+ */
+export interface ExchangeHost {
+  /** Lower-case hex SHA-256 of the bytes. */
+  sha256Hex(bytes: Uint8Array): Promise<string>;
+  /** The schema as this host runs it: the schema itself, or a compiled parser that gives the same verdicts. */
+  prepareSchema<T extends z.ZodType>(schema: T): T;
+}
+
+async function webCryptoSha256Hex(bytes: Uint8Array): Promise<string> {
+  const digest = await crypto.subtle.digest('SHA-256', bytes as BufferSource);
+  return Array.from(new Uint8Array(digest), (b) => b.toString(16).padStart(2, '0')).join('');
+}
+
+const WEB_HOST: ExchangeHost = { sha256Hex: webCryptoSha256Hex, prepareSchema: (schema) => schema };
+
+let host: ExchangeHost = WEB_HOST;
+let prepared = new WeakMap<z.ZodType, z.ZodType>();
+
+/**
+ * Replaces the steps for the rest of the process (the command line calls this once, at start); returns the
+ * ones it replaced.
+ */
+export function useExchangeHost(replacement: ExchangeHost): ExchangeHost {
+  const previous = host;
+  host = replacement;
+  prepared = new WeakMap();
+  return previous;
+}
+
+export function sha256Hex(content: string | Uint8Array): Promise<string> {
+  return host.sha256Hex(typeof content === 'string' ? new TextEncoder().encode(content) : content);
+}
+
+/** The schema as the host runs it, prepared on first use (compiling costs tens of milliseconds, once). */
+export function hostSchema<T extends z.ZodType>(schema: T): T {
+  let known = prepared.get(schema) as T | undefined;
+  if (!known) prepared.set(schema, (known = host.prepareSchema(schema)));
+  return known;
+}
