@@ -6,6 +6,7 @@ import type { Characteristic, RiskClass } from './characteristic';
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
 import { addMonths } from './period';
 import { monthOrdinal, portfolioIndex } from './portfolio-index';
+import type { ImprovementProject } from './improvement-project';
 import type { Process } from './process';
 import { changeInForce, limitsFor, type Limits } from './specification-history';
 import { CELL, periodOfOrdinal, statisticsOf, type MonthlyStatistics } from './monthly-statistics';
@@ -156,7 +157,7 @@ export interface JudgeInput {
   characteristic: Characteristic;
   result: WindowFigures | undefined;
   months: number;
-  unit?: ReturnType<typeof perUnitFigures>;
+  unit: ReturnType<typeof perUnitFigures> | undefined;
   /** Limits in force in the window's last month. */
   limits: Limits;
   /** Badges that follow from the figures alone (the profile adds its own when judged). */
@@ -169,17 +170,21 @@ export function judgeInput(
   months: number,
   period?: string
 ): JudgeInput {
+  // One literal with every field (no spread): an object per characteristic and window is kept.
   return {
     characteristic,
     result,
     months,
-    ...(result ? { unit: perUnitFigures(result) } : {}),
+    unit: result ? perUnitFigures(result) : undefined,
     // Without changes the characteristic's own limits are in force: no copy per window.
     limits:
       period && characteristic.limitChanges?.length ? limitsFor(characteristic, period) : characteristic,
-    badges: result ? badgesOf(result) : []
+    badges: result ? badgesOf(result) : NO_BADGES
   };
 }
+
+/** The badges of a window without figures, shared (frozen: rows copy before adding to them). */
+const NO_BADGES = Object.freeze([]) as unknown as Badge[];
 
 /** Judges one characteristic's window result against its context's requirement (STATUS_RULE). */
 export function judgeCharacteristic(
@@ -363,10 +368,11 @@ function statusRank(s: CharacteristicStatus): number {
 
 /** What a characteristic's window gives before it is judged: the same for every target, weight and order. */
 interface PreparedCharacteristic {
+  /** The window's judging input (one object per characteristic and window: at company size each one counts). */
   input: JudgeInput;
   limitsChanged: boolean;
   /** The row's badges for each variant, built on first use and shared by every ranking that judges it. */
-  badges?: Partial<Record<BadgeVariant, Badge[]>>;
+  badges: Partial<Record<BadgeVariant, Badge[]>> | undefined;
 }
 
 /**
@@ -494,7 +500,11 @@ function prepareProcess(
   const prepared = chars.map((c): PreparedCharacteristic => {
     const row = model.rowOf(c.id);
     if (row === undefined)
-      return { input: judgeInput(c, undefined, 0, options.endPeriod), limitsChanged: false };
+      return {
+        input: judgeInput(c, undefined, 0, options.endPeriod),
+        limitsChanged: false,
+        badges: undefined
+      };
     const changes = c.limitChanges?.length ?? 0;
     const fixedLimits = changes ? undefined : c;
     for (let m = months.trendFirstMonth; m <= months.end; m += 1) {
@@ -514,7 +524,11 @@ function prepareProcess(
       if (!cached)
         options.cache.set(c, months.first, stamps, (cached = figuresOfCells(model, cells, c, options)));
     } else cached = figuresOfCells(model, cells, c, options);
-    return { input: judgeInput(c, cached.result, cached.months, options.endPeriod), limitsChanged };
+    return {
+      input: judgeInput(c, cached.result, cached.months, options.endPeriod),
+      limitsChanged,
+      badges: undefined
+    };
   });
   const trend: (number | undefined)[] = [];
   for (let m = 0; m < months.trendMonths; m += 1) {
@@ -772,6 +786,9 @@ export function portfolioStatuses(
   return statuses;
 }
 
+/** The projects of a process without any open, shared by every such row (frozen). */
+const NO_PROJECTS = Object.freeze([]) as unknown as ImprovementProject[];
+
 /** Ranks the portfolio; ties broken by zGap (lower first), cost (higher first), process name, then id. */
 export function rankPortfolio(
   records: PortfolioRecords,
@@ -827,7 +844,7 @@ export function rankPortfolio(
       trend: shiftedTrend(windows, shift),
       trendSlope: windows.trendSlope,
       badges: processBadges(windows, variant),
-      projects: index.openProjects.get(process.id) ?? [],
+      projects: index.openProjects.get(process.id) ?? NO_PROJECTS,
       priority: 0,
       riskClass
     };

@@ -55,13 +55,9 @@ export class WindowFiguresCache {
     return undefined;
   }
 
-  set(
-    c: Pick<Characteristic, 'id' | 'rev'>,
-    first: string,
-    stamps: ArrayLike<number>,
-    value: CachedWindow
-  ): void {
-    const entry: Entry = { rev: c.rev, first, stamps: Array.from(stamps), value };
+  /** `stamps` is kept as given, not copied (the ranking hands over an array it made for the lookup). */
+  set(c: Pick<Characteristic, 'id' | 'rev'>, first: string, stamps: number[], value: CachedWindow): void {
+    const entry: Entry = { rev: c.rev, first, stamps, value };
     if (this.#size >= TOTAL) this.clear();
     const entries = this.#byCharacteristic.get(c.id);
     if (!entries) {
