@@ -105,14 +105,49 @@ export function requiredZ(profile: ContextProfile, risk: RiskClass): number {
   }
 }
 
-function badgesOf(r: WindowFigures): Badge[] {
-  const b: Badge[] = [];
-  if (r.kind === 'measured' && r.model !== 'normal') b.push('non-normal model');
-  if (r.kind === 'summary') b.push('summary only');
-  if (r.kind === 'defectives' || r.kind === 'defects') b.push('counted data');
-  if (r.stable === false) b.push('not shown stable');
-  if (r.kind === 'measured' || r.kind === 'summary' ? r.n < 30 : r.n < 100) b.push('small sample');
-  return b;
+/**
+ * A characteristic row's badges in the order rows list them: the figures' own (badgesOf), then the shift
+ * convention, then 'limits changed'. Each set of them is one frozen array, shared by every row and window that
+ * has it (a handful of sets in a whole portfolio, where an array per characteristic and window was tens of MB).
+ */
+const ROW_BADGE_ORDER: readonly Badge[] = [
+  'non-normal model',
+  'summary only',
+  'counted data',
+  'not shown stable',
+  'small sample',
+  'shift convention',
+  'limits changed'
+];
+const badgeBit = (b: Badge) => 1 << ROW_BADGE_ORDER.indexOf(b);
+const SHIFT_BIT = badgeBit('shift convention');
+const LIMITS_BIT = badgeBit('limits changed');
+const badgeSets = new Map<number, Badge[]>();
+
+function badgeSet(mask: number): Badge[] {
+  let set = badgeSets.get(mask);
+  if (!set) {
+    set = Object.freeze(ROW_BADGE_ORDER.filter((_, i) => mask & (1 << i))) as Badge[];
+    badgeSets.set(mask, set);
+  }
+  return set;
+}
+
+const NON_NORMAL_BIT = badgeBit('non-normal model');
+const SUMMARY_BIT = badgeBit('summary only');
+const COUNTED_BIT = badgeBit('counted data');
+const UNSTABLE_BIT = badgeBit('not shown stable');
+const SMALL_BIT = badgeBit('small sample');
+
+/** The badges that follow from a window's figures alone. */
+function badgeMaskOf(r: WindowFigures): number {
+  let mask = 0;
+  if (r.kind === 'measured' && r.model !== 'normal') mask |= NON_NORMAL_BIT;
+  if (r.kind === 'summary') mask |= SUMMARY_BIT;
+  if (r.kind === 'defectives' || r.kind === 'defects') mask |= COUNTED_BIT;
+  if (r.stable === false) mask |= UNSTABLE_BIT;
+  if (r.kind === 'measured' || r.kind === 'summary' ? r.n < 30 : r.n < 100) mask |= SMALL_BIT;
+  return mask;
 }
 
 /**
@@ -160,8 +195,8 @@ export interface JudgeInput {
   unit: ReturnType<typeof perUnitFigures> | undefined;
   /** Limits in force in the window's last month. */
   limits: Limits;
-  /** Badges that follow from the figures alone (the profile adds its own when judged). */
-  badges: Badge[];
+  /** Badges that follow from the figures alone, as bits of ROW_BADGE_ORDER (the profile adds its own). */
+  badgeMask: number;
 }
 
 export function judgeInput(
@@ -179,12 +214,9 @@ export function judgeInput(
     // Without changes the characteristic's own limits are in force: no copy per window.
     limits:
       period && characteristic.limitChanges?.length ? limitsFor(characteristic, period) : characteristic,
-    badges: result ? badgesOf(result) : NO_BADGES
+    badgeMask: result ? badgeMaskOf(result) : 0
   };
 }
-
-/** The badges of a window without figures, shared (frozen: rows copy before adding to them). */
-const NO_BADGES = Object.freeze([]) as unknown as Badge[];
 
 /** Judges one characteristic's window result against its context's requirement (STATUS_RULE). */
 export function judgeCharacteristic(
@@ -312,10 +344,7 @@ function judgePrepared(
     risk,
     profile
   );
-  badges ??=
-    profile.reporting === 'short-term'
-      ? [...input.badges, 'shift convention' as const]
-      : input.badges.slice();
+  badges ??= badgeSet(input.badgeMask | (profile.reporting === 'short-term' ? SHIFT_BIT : 0));
   // One literal with every field (see rankPortfolio).
   const { lsl, usl } = input.limits;
   const sdNow = result.sdWithin ?? result.sdOverall;
@@ -371,8 +400,6 @@ interface PreparedCharacteristic {
   /** The window's judging input (one object per characteristic and window: at company size each one counts). */
   input: JudgeInput;
   limitsChanged: boolean;
-  /** The row's badges for each variant, built on first use and shared by every ranking that judges it. */
-  badges: Partial<Record<BadgeVariant, Badge[]>> | undefined;
 }
 
 /**
@@ -380,23 +407,12 @@ interface PreparedCharacteristic {
  * frozen: a change to one row's badges or trend would otherwise show in every other.
  *
  * A characteristic row's badges, as judgePrepared builds them (the figures' own, then the shift convention for a
- * short-term context; none without figures or a profile), then 'limits changed'. Kept per variant: a change of
- * target re-judges every row, and a fresh array for each was a measurable share of a recompute.
+ * short-term context; none without figures or a profile), then 'limits changed'.
  */
 function rowBadges(w: PreparedCharacteristic, profile: ContextProfile | undefined): Badge[] {
-  const variant: BadgeVariant =
-    !profile || !w.input.unit ? 'none' : profile.reporting === 'short-term' ? 'short-term' : 'long-term';
-  const kept = (w.badges ??= {});
-  const known = kept[variant];
-  if (known) return known;
-  const own: Badge[] =
-    variant === 'none'
-      ? []
-      : variant === 'short-term'
-        ? [...w.input.badges, 'shift convention']
-        : [...w.input.badges];
-  if (w.limitsChanged) own.push('limits changed');
-  return (kept[variant] = Object.freeze(own) as Badge[]);
+  const limits = w.limitsChanged ? LIMITS_BIT : 0;
+  if (!profile || !w.input.unit) return badgeSet(limits);
+  return badgeSet(w.input.badgeMask | limits | (profile.reporting === 'short-term' ? SHIFT_BIT : 0));
 }
 
 /** How the judged rows' badges vary with the profile: none without one, else with or without the shift. */
@@ -416,18 +432,22 @@ interface PreparedProcess {
   zLevel: number;
   /** The process's badges for each variant, built on first use. */
   badges: Partial<Record<BadgeVariant, Badge[]>>;
-  /** The trend with a context's shift added, by shift, built on first use. */
-  shiftedTrends: Map<number, (number | undefined)[]>;
+  /** The trend with a context's shift added, for the last shift asked for (shiftedTrend). */
+  shifted: { shift: number; trend: (number | undefined)[] } | undefined;
 }
 
-/** The trend as a context reports it (its shift added to every month), shared by the rankings that show it. */
+/**
+ * The trend as a context reports it (its shift added to every month), shared by the rankings that show it. One
+ * shifted copy is kept (contexts report long-term, shift 0, or with the 1.5σ convention): a map per process and
+ * window cost more memory than the trends it held.
+ */
 function shiftedTrend(p: PreparedProcess, shift: number): (number | undefined)[] {
-  let trend = p.shiftedTrends.get(shift);
-  if (!trend) {
-    trend = shift === 0 ? p.trend : p.trend.map((z) => (z === undefined ? undefined : z + shift));
-    p.shiftedTrends.set(shift, Object.freeze(trend) as (number | undefined)[]);
+  if (shift === 0) return p.trend;
+  if (p.shifted?.shift !== shift) {
+    const trend = p.trend.map((z) => (z === undefined ? undefined : z + shift));
+    p.shifted = { shift, trend: Object.freeze(trend) as (number | undefined)[] };
   }
-  return trend;
+  return p.shifted.trend;
 }
 
 /** The process's badges as the old per-row union gave them: each row's in order, then 'incomplete'. */
@@ -437,7 +457,7 @@ function processBadges(p: PreparedProcess, variant: BadgeVariant): Badge[] {
   const set = new Set<Badge>();
   for (const c of p.characteristics) {
     if (!c.input.result) continue;
-    if (variant !== 'none') for (const b of c.input.badges) set.add(b);
+    if (variant !== 'none') for (const b of badgeSet(c.input.badgeMask)) set.add(b);
     if (variant === 'short-term') set.add('shift convention');
     if (c.limitsChanged) set.add('limits changed');
   }
@@ -502,8 +522,7 @@ function prepareProcess(
     if (row === undefined)
       return {
         input: judgeInput(c, undefined, 0, options.endPeriod),
-        limitsChanged: false,
-        badges: undefined
+        limitsChanged: false
       };
     const changes = c.limitChanges?.length ?? 0;
     const fixedLimits = changes ? undefined : c;
@@ -526,8 +545,7 @@ function prepareProcess(
     } else cached = figuresOfCells(model, cells, c, options);
     return {
       input: judgeInput(c, cached.result, cached.months, options.endPeriod),
-      limitsChanged,
-      badges: undefined
+      limitsChanged
     };
   });
   const trend: (number | undefined)[] = [];
@@ -546,7 +564,7 @@ function prepareProcess(
     }
   return {
     characteristics: prepared,
-    trend,
+    trend: Object.freeze(trend) as (number | undefined)[],
     trendSlope: leastSquaresSlope(trend),
     riskClass: chars.some((c) => c.riskClass === 'safety')
       ? 'safety'
@@ -557,7 +575,7 @@ function prepareProcess(
     yield: y,
     zLevel: normalUpperQuantile(Math.min(1, 1 - y)),
     badges: {},
-    shiftedTrends: new Map()
+    shifted: undefined
   };
 }
 
