@@ -192,28 +192,43 @@ export interface JudgeInput {
   characteristic: Characteristic;
   result: WindowFigures | undefined;
   months: number;
-  unit: ReturnType<typeof perUnitFigures> | undefined;
+  /** The per-unit figures (perUnitFigures), where the window has a result; as fields, not an object of their own. */
+  z: number;
+  zBound: number | undefined;
+  fraction: number;
+  fractionBound: number | undefined;
   /** Limits in force in the window's last month. */
   limits: Limits;
+  /** Whether months of the window were left out because the limits changed (WINDOW_RULE). */
+  limitsChanged: boolean;
   /** Badges that follow from the figures alone, as bits of ROW_BADGE_ORDER (the profile adds its own). */
   badgeMask: number;
 }
 
+/**
+ * A window's judging input: one object per characteristic and window, kept with the prepared windows (at company
+ * size every object kept per window counts), written as one literal with every field.
+ */
 export function judgeInput(
   characteristic: Characteristic,
   result: WindowFigures | undefined,
   months: number,
-  period?: string
+  period?: string,
+  limitsChanged = false
 ): JudgeInput {
-  // One literal with every field (no spread): an object per characteristic and window is kept.
+  const unit = result ? perUnitFigures(result) : undefined;
   return {
     characteristic,
     result,
     months,
-    unit: result ? perUnitFigures(result) : undefined,
+    z: unit ? unit.z : NaN,
+    zBound: unit?.zBound,
+    fraction: unit ? unit.fraction : NaN,
+    fractionBound: unit?.fractionBound,
     // Without changes the characteristic's own limits are in force: no copy per window.
     limits:
       period && characteristic.limitChanges?.length ? limitsFor(characteristic, period) : characteristic,
+    limitsChanged,
     badgeMask: result ? badgeMaskOf(result) : 0
   };
 }
@@ -328,7 +343,7 @@ function judgePrepared(
   const { characteristic, result, months } = input;
   const risk = characteristic.riskClass;
   const required = profile ? profile.levels[risk] : NaN;
-  if (!result || !profile || !input.unit)
+  if (!result || !profile)
     return {
       characteristic,
       status: 'no recent data',
@@ -338,12 +353,7 @@ function judgePrepared(
       ...(result ? { result } : {})
     };
   const shift = shortTermShift(profile);
-  const { estimate, bound, status, zEstimate, zReported, needZ } = judgeFigures(
-    result,
-    input.unit,
-    risk,
-    profile
-  );
+  const { estimate, bound, status, zEstimate, zReported, needZ } = judgeFigures(result, input, risk, profile);
   badges ??= badgeSet(input.badgeMask | (profile.reporting === 'short-term' ? SHIFT_BIT : 0));
   // One literal with every field (see rankPortfolio).
   const { lsl, usl } = input.limits;
@@ -395,13 +405,6 @@ function statusRank(s: CharacteristicStatus): number {
   return STATUS_RANK[s];
 }
 
-/** What a characteristic's window gives before it is judged: the same for every target, weight and order. */
-interface PreparedCharacteristic {
-  /** The window's judging input (one object per characteristic and window: at company size each one counts). */
-  input: JudgeInput;
-  limitsChanged: boolean;
-}
-
 /**
  * Arrays kept with the prepared windows are shared by the rows of every ranking that judges them, so they are
  * frozen: a change to one row's badges or trend would otherwise show in every other.
@@ -409,10 +412,10 @@ interface PreparedCharacteristic {
  * A characteristic row's badges, as judgePrepared builds them (the figures' own, then the shift convention for a
  * short-term context; none without figures or a profile), then 'limits changed'.
  */
-function rowBadges(w: PreparedCharacteristic, profile: ContextProfile | undefined): Badge[] {
+function rowBadges(w: JudgeInput, profile: ContextProfile | undefined): Badge[] {
   const limits = w.limitsChanged ? LIMITS_BIT : 0;
-  if (!profile || !w.input.unit) return badgeSet(limits);
-  return badgeSet(w.input.badgeMask | limits | (profile.reporting === 'short-term' ? SHIFT_BIT : 0));
+  if (!profile || !w.result) return badgeSet(limits);
+  return badgeSet(w.badgeMask | limits | (profile.reporting === 'short-term' ? SHIFT_BIT : 0));
 }
 
 /** How the judged rows' badges vary with the profile: none without one, else with or without the shift. */
@@ -420,7 +423,7 @@ type BadgeVariant = 'none' | 'long-term' | 'short-term';
 
 /** A process's windows and its monthly trend as long-term z-levels (the context's shift is added when judged). */
 interface PreparedProcess {
-  characteristics: PreparedCharacteristic[];
+  characteristics: JudgeInput[];
   trend: (number | undefined)[];
   /** Slope of the trend (the same with the context's shift added to every month). */
   trendSlope: number | undefined;
@@ -431,7 +434,7 @@ interface PreparedProcess {
   /** Long-term z-level of that yield (the context's shift is added when judged). */
   zLevel: number;
   /** The process's badges for each variant, built on first use. */
-  badges: Partial<Record<BadgeVariant, Badge[]>>;
+  badges: Partial<Record<BadgeVariant, Badge[]>> | undefined;
   /** The trend with a context's shift added, for the last shift asked for (shiftedTrend). */
   shifted: { shift: number; trend: (number | undefined)[] } | undefined;
 }
@@ -452,17 +455,18 @@ function shiftedTrend(p: PreparedProcess, shift: number): (number | undefined)[]
 
 /** The process's badges as the old per-row union gave them: each row's in order, then 'incomplete'. */
 function processBadges(p: PreparedProcess, variant: BadgeVariant): Badge[] {
-  const known = p.badges[variant];
+  const kept = (p.badges ??= {});
+  const known = kept[variant];
   if (known) return known;
   const set = new Set<Badge>();
   for (const c of p.characteristics) {
-    if (!c.input.result) continue;
-    if (variant !== 'none') for (const b of badgeSet(c.input.badgeMask)) set.add(b);
+    if (!c.result) continue;
+    if (variant !== 'none') for (const b of badgeSet(c.badgeMask)) set.add(b);
     if (variant === 'short-term') set.add('shift convention');
     if (c.limitsChanged) set.add('limits changed');
   }
   if (p.withData && p.withData < p.characteristics.length) set.add('incomplete');
-  return (p.badges[variant] = Object.freeze([...set]) as Badge[]);
+  return (kept[variant] = Object.freeze([...set]) as Badge[]);
 }
 
 /**
@@ -517,13 +521,9 @@ function prepareProcess(
   }
   const monthly = scratch.monthly.fill(1, 0, months.trendMonths); // product of the month's yields
   const monthlyCount = scratch.count.fill(0, 0, months.trendMonths);
-  const prepared = chars.map((c): PreparedCharacteristic => {
+  const prepared = chars.map((c): JudgeInput => {
     const row = model.rowOf(c.id);
-    if (row === undefined)
-      return {
-        input: judgeInput(c, undefined, 0, options.endPeriod),
-        limitsChanged: false
-      };
+    if (row === undefined) return judgeInput(c, undefined, 0, options.endPeriod);
     const changes = c.limitChanges?.length ?? 0;
     const fixedLimits = changes ? undefined : c;
     for (let m = months.trendFirstMonth; m <= months.end; m += 1) {
@@ -543,10 +543,7 @@ function prepareProcess(
       if (!cached)
         options.cache.set(c, months.first, stamps, (cached = figuresOfCells(model, cells, c, options)));
     } else cached = figuresOfCells(model, cells, c, options);
-    return {
-      input: judgeInput(c, cached.result, cached.months, options.endPeriod),
-      limitsChanged
-    };
+    return judgeInput(c, cached.result, cached.months, options.endPeriod, limitsChanged);
   });
   const trend: (number | undefined)[] = [];
   for (let m = 0; m < months.trendMonths; m += 1) {
@@ -558,9 +555,9 @@ function prepareProcess(
   let withData = 0;
   let y = 1;
   for (const c of prepared)
-    if (c.input.result) {
+    if (c.result) {
       withData += 1;
-      y *= c.input.result.yield;
+      y *= c.result.yield;
     }
   return {
     characteristics: prepared,
@@ -574,7 +571,7 @@ function prepareProcess(
     withData,
     yield: y,
     zLevel: normalUpperQuantile(Math.min(1, 1 - y)),
-    badges: {},
+    badges: undefined,
     shifted: undefined
   };
 }
@@ -770,7 +767,7 @@ function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefi
   let weakest: CharacteristicRow | undefined;
   let notShown = 0;
   for (const w of windows.characteristics) {
-    const r = judgePrepared(w.input, profile, rowBadges(w, profile));
+    const r = judgePrepared(w, profile, rowBadges(w, profile));
     rows.push(r);
     if (r.status !== 'no recent data' && STATUS_RANK[r.status] < STATUS_RANK[status]) status = r.status;
     if (!r.result) continue;
