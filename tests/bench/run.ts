@@ -50,7 +50,7 @@ if (!json) console.log(`Capstan benchmarks — Node ${process.version}, ${new Da
   ...runEngineBench(),
   ...runCsvImportBench(),
   ...runMasterListBench(),
-  ...runRankingBench(),
+  ...(await runRankingBench()),
   ...(await runCommandLineBench()),
   ...(await runExchangeFileBench()),
   ...(await runBrowserBench())
