@@ -545,12 +545,12 @@ function prepareProcess(
     } else cached = figuresOfCells(model, cells, c, options);
     return judgeInput(c, cached.result, cached.months, options.endPeriod, limitsChanged);
   });
-  const trend: (number | undefined)[] = [];
+  // Sized, not pushed: it is kept with the prepared window, and push leaves room for 17 months.
+  const trend = new Array<number | undefined>(months.trendMonths);
   for (let m = 0; m < months.trendMonths; m += 1) {
     const count = monthlyCount[m]!;
-    trend.push(
-      count > 0 && count === chars.length ? normalUpperQuantile(Math.min(1, 1 - monthly[m]!)) : undefined
-    );
+    trend[m] =
+      count > 0 && count === chars.length ? normalUpperQuantile(Math.min(1, 1 - monthly[m]!)) : undefined;
   }
   let withData = 0;
   let y = 1;
@@ -762,13 +762,12 @@ function liveSiteOf(process: Process, index: ReturnType<typeof portfolioIndex>) 
  * (smallest gap) and whether any with data is not shown to meet its target.
  */
 function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefined) {
-  const rows: CharacteristicRow[] = [];
+  // Mapped, not pushed: an array grown by push keeps room for 17 rows, most of a row's memory at company size.
+  const rows = windows.characteristics.map((w) => judgePrepared(w, profile, rowBadges(w, profile)));
   let status: CharacteristicStatus = 'no recent data';
   let weakest: CharacteristicRow | undefined;
   let notShown = 0;
-  for (const w of windows.characteristics) {
-    const r = judgePrepared(w, profile, rowBadges(w, profile));
-    rows.push(r);
+  for (const r of rows) {
     if (r.status !== 'no recent data' && STATUS_RANK[r.status] < STATUS_RANK[status]) status = r.status;
     if (!r.result) continue;
     if (!weakest || (r.zGap ?? Infinity) < (weakest.zGap ?? Infinity)) weakest = r;

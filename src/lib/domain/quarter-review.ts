@@ -216,19 +216,25 @@ export function buildQuarterReview(
   // process's status is judged (at company size ten quarters of rows were hundreds of megabytes).
   const detailed = new Set([quarter, previousQuarter, yearAgoQuarter]);
   const ranked = new Map<string, ProcessRow[]>();
+  // Of the year-ago quarter only the headline is shown: its rows are not kept while the others are ranked.
+  let yearAgo: ReviewHeadline | undefined;
+  const keep = (q: string, rows: ProcessRow[]) => {
+    if (q === yearAgoQuarter) yearAgo = headlineOf(yearAgoQuarter, rows, options.reporting);
+    else ranked.set(q, rows);
+  };
   const trend: ReviewFigures['shareTrend'] = [];
   for (let i = trendQuarters - 1; i >= 0; i--) {
     const q = shiftQuarter(quarter, -i);
     let statuses: CharacteristicStatus[];
     if (detailed.has(q)) {
       const rows = rank(q);
-      ranked.set(q, rows);
+      keep(q, rows);
       statuses = rows.map((r) => r.status);
     } else statuses = portfolioStatuses(records, profiles, rankingOptions(q));
     const m = meetingOf(statuses);
     trend.push({ quarter: q, reviewed: m.reviewed, share: m.share, shareShown: m.shareShown });
   }
-  if (!ranked.has(yearAgoQuarter)) ranked.set(yearAgoQuarter, rank(yearAgoQuarter));
+  if (!yearAgo) keep(yearAgoQuarter, rank(yearAgoQuarter));
   if (!ranked.has(previousQuarter)) ranked.set(previousQuarter, rank(previousQuarter));
   if (!ranked.has(quarter)) ranked.set(quarter, rank(quarter));
   const current = ranked.get(quarter)!;
@@ -367,7 +373,7 @@ export function buildQuarterReview(
     siteIds: [...(options.siteIds ?? [])].sort(),
     headline: headlineOf(quarter, current, options.reporting),
     previous: headlineOf(previousQuarter, previous, options.reporting),
-    yearAgo: headlineOf(yearAgoQuarter, ranked.get(yearAgoQuarter)!, options.reporting),
+    yearAgo: yearAgo!,
     processes: current.map(lineOf),
     movers,
     improvers: improvers.slice(0, 10),
