@@ -1,11 +1,8 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import demo from '../../seed-data/demo-portfolio.json';
-import { datedFromToday } from '../lib/domain/demo-portfolio';
-import { parseDemoPortfolio } from '../lib/domain/demo-portfolio-schema';
-import { travelling } from '../lib/domain/record-meta';
 import { changeSetOf, decodeExchangeFile, encodeExchangeFile } from '../lib/exchange/exchange-file';
 import { sha256Hex, useExchangeHost, type ExchangeHost } from '../lib/exchange/exchange-host';
+import { demoRecordSet, testFileHeader } from '../../tests/support/demo-change-set';
 import { FAST_EXCHANGE_HOST } from './fast-exchange-host';
 
 /**
@@ -54,25 +51,7 @@ describe('the command line reads exchange files as the app does', () => {
   });
 
   it('reads a valid file, written by either host, into the same records', async () => {
-    // Dated as a device loading it now would hold it (the committed file ends in the month it was made).
-    const { records } = datedFromToday(parseDemoPortfolio(demo), now);
-    const set = changeSetOf(
-      {
-        appVersion: 'test',
-        exportedBy: { deviceId: 'host-test', deviceName: 'host test' },
-        exportedAt: '2026-11-30T00:00:00.000Z',
-        scope: { kind: 'everything' }
-      },
-      {
-        contextProfiles: [],
-        sites: records.sites.map(travelling),
-        processes: records.processes.map(travelling),
-        characteristics: records.characteristics.map(travelling),
-        studies: records.studies.map(travelling),
-        projects: records.projects.map(travelling),
-        reviews: []
-      }
-    );
+    const set = changeSetOf(testFileHeader('host test'), demoRecordSet(now));
     const written = await encodeExchangeFile(set);
     useExchangeHost(FAST_EXCHANGE_HOST);
     const writtenFast = await encodeExchangeFile(set).finally(() => useExchangeHost(webHost));

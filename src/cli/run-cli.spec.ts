@@ -238,30 +238,12 @@ describe('capstan check and merge', async () => {
   const { readFileSync, existsSync } = await import('node:fs');
   const { changeSetOf, encodeExchangeFile, decodeExchangeFile } =
     await import('../lib/exchange/exchange-file');
-  const { travelling } = await import('../lib/domain/record-meta');
   const { stampNew, stampUpdate } = await import('../lib/domain/record-meta');
-  const { datedFromToday } = await import('../lib/domain/demo-portfolio');
-  const { parseDemoPortfolio } = await import('../lib/domain/demo-portfolio-schema');
+  const { demoRecordSet, testFileHeader: header } = await import('../../tests/support/demo-change-set');
   const demoJson = JSON.parse(
     readFileSync(new URL('../../seed-data/demo-portfolio.json', import.meta.url), 'utf8')
   );
-  // Dated as a device loading it today would hold it: the committed file ends in the month it was generated.
-  const demoRecords = datedFromToday(parseDemoPortfolio(demoJson), Date.now()).records;
-  const base = {
-    contextProfiles: [],
-    sites: demoRecords.sites.map(travelling),
-    processes: demoRecords.processes.map(travelling),
-    characteristics: demoRecords.characteristics.map(travelling),
-    studies: demoRecords.studies.map(travelling),
-    projects: demoRecords.projects.map(travelling),
-    reviews: []
-  };
-  const header = (name: string) => ({
-    appVersion: 'test',
-    exportedBy: { deviceId: `${name.replace(/[^a-z0-9-]/g, '-')}-device`, deviceName: name },
-    exportedAt: '2026-12-01T00:00:00.000Z',
-    scope: { kind: 'everything' as const }
-  });
+  const base = demoRecordSet(Date.now());
   const writeSet = async (name: string, records: typeof base, gzip = false) => {
     const path = join(dir, name);
     writeFileSync(path, await encodeExchangeFile(changeSetOf(header(name), records), { gzip }));
@@ -297,7 +279,7 @@ describe('capstan check and merge', async () => {
     const r = await run('check', hqPath);
     expect(r.code).toBe(0);
     expect(r.out).toContain('valid Capstan exchange file (format version 1, content hash verified)');
-    expect(r.out).toMatch(new RegExp(`studies\\s+${demoRecords.studies.length}\\s+\\(0 deleted\\)`));
+    expect(r.out).toMatch(new RegExp(`studies\\s+${base.studies.length}\\s+\\(0 deleted\\)`));
     const j = JSON.parse((await run('check', basePath, '--json')).out);
     expect(j.header.exportedBy.deviceName).toBe('base.capstan.json');
     expect(j.counts.sites).toEqual({ records: 5, deleted: 0 });
@@ -320,7 +302,7 @@ describe('capstan check and merge', async () => {
     const r = await run('merge', basePath, hqPath, '-o', out);
     expect(r.code).toBe(0);
     expect(r.out).toContain(
-      `1 updated, ${demoRecords.studies.length + 42 + 32 + 4 + 8} unchanged, 0 deleted, 0 conflicting`
+      `1 updated, ${base.studies.length + 42 + 32 + 4 + 8} unchanged, 0 deleted, 0 conflicting`
     );
     const merged = await decodeExchangeFile(new Uint8Array(readFileSync(out)));
     expect(merged.records.sites.find((s) => s.id === base.sites[0]!.id)?.name).toBe('Renamed at HQ');
@@ -365,7 +347,7 @@ describe('capstan check and merge', async () => {
   });
 
   it('merge treats one month logged in both files as a conflict (exit 3), and --prefer leaves one study', async () => {
-    const measured = demoRecords.characteristics.find((c) => c.dataKind === 'measured')!;
+    const measured = base.characteristics.find((c) => c.dataKind === 'measured')!;
     const logged = async (deviceId: string, mean: number, name: string) => {
       const ctx = { deviceId, now: () => new Date('2026-11-20T10:00:00Z'), newId: () => crypto.randomUUID() };
       const study = stampNew(
@@ -494,7 +476,7 @@ describe('capstan check and merge', async () => {
     const last = (studies: { period: string }[]) =>
       studies.reduce((a, x) => (x.period > a ? x.period : a), '');
     const index = (p: string) => Number(p.slice(0, 4)) * 12 + Number(p.slice(5, 7));
-    const months = index(last(demoRecords.studies)) - index(last(demoJson.records.studies));
+    const months = index(last(base.studies)) - index(last(demoJson.records.studies));
     const period = addMonths('2026-09', months);
     const fromExchange = JSON.parse(
       (await run('rank', basePath, '--period', period, '--window', '3', '--json')).out
