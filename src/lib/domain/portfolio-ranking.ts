@@ -106,7 +106,7 @@ export function requiredZ(profile: ContextProfile, risk: RiskClass): number {
 }
 
 /**
- * A characteristic row's badges in the order rows list them: the figures' own (badgesOf), then the shift
+ * A characteristic row's badges in the order rows list them: the figures' own (badgeMaskOf), then the shift
  * convention, then 'limits changed'. Each set of them is one frozen array, shared by every row and window that
  * has it (a handful of sets in a whole portfolio, where an array per characteristic and window was tens of MB).
  */
