@@ -89,6 +89,24 @@ describe('the trend quarters judged by status only', () => {
   });
 });
 
+describe("the projects' before-and-after figures", () => {
+  it('take "before" from a full ranking of the quarter before each project started', () => {
+    const records = parseDemoPortfolio(demo).records;
+    const figures = buildQuarterReview(records, BUILT_IN_PROFILES, { quarter: '2026-Q3' });
+    // The demo's Control projects have figures before they started, so the comparison is not of empty values.
+    expect(figures.control.filter((c) => c.zBefore !== undefined).length).toBeGreaterThan(1);
+    for (const c of figures.control) {
+      const q = c.beforeQuarter;
+      const endPeriod = `${q.slice(0, 4)}-${String(Number(q.slice(6)) * 3).padStart(2, '0')}`;
+      const full = rankPortfolio(records, BUILT_IN_PROFILES, { endPeriod, windowMonths: 3, trendMonths: 0 });
+      const project = records.projects.find((p) => p.id === c.projectId)!;
+      const before = full.find((r) => r.process.id === project.processId);
+      expect(c.zBefore).toBe(before?.zLevel);
+      expect(c.costBefore).toBe(before?.costPerYear);
+    }
+  });
+});
+
 describe('amounts in several currencies', () => {
   const r = parseDemoPortfolio(demo).records;
   const end = r.studies.reduce((a, s) => (s.period > a ? s.period : a), '');

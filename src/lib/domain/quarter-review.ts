@@ -3,7 +3,7 @@ import { median } from '../stats/quantiles';
 import { zChangeTest, type ZEstimate } from '../stats/z-change-test';
 import { canonicalJson } from './canonical-json';
 import { shortTermShift, type ContextProfile } from './context-profile';
-import { PROJECT_PHASES } from './improvement-project';
+import { PROJECT_PHASES, type ImprovementProject } from './improvement-project';
 import { addMonths, periodsOfQuarter, quarterOf } from './period';
 import { moneyTotals, ratesStatement, type ReportingCurrency } from './reporting-currency';
 import {
@@ -295,31 +295,37 @@ export function buildQuarterReview(
   // Expected against achieved: projects running in Control, and those closed during the quarter (their row no
   // longer lists them, since closed projects are no longer work on the process).
   const rowById = new Map(current.map((r) => [r.process.id, r]));
-  // Each quarter before a project started is ranked once, however many projects started after it.
-  const byIdOfQuarter = new Map<string, Map<string, ProcessRow>>();
-  const rowsOf = (q: string): Map<string, ProcessRow> => {
-    let rows = byIdOfQuarter.get(q);
-    if (!rows) {
-      if (!ranked.has(q)) ranked.set(q, rank(q));
-      rows = new Map(ranked.get(q)!.map((r) => [r.process.id, r]));
-      byIdOfQuarter.set(q, rows);
-    }
-    return rows;
-  };
   const closedInQuarter = records.projects.flatMap((project) => {
     const row = rowById.get(project.processId);
     if (!row || project.deletedAt || project.state !== 'closed') return [];
     const closing = [...(project.history ?? [])].reverse().find((h) => h.change.startsWith('closed'));
     return closing && quarterOf(closing.at.slice(0, 7)) === quarter ? [{ project, row }] : [];
   });
-  const control: ReviewControlProject[] = [
-    ...projects.filter((p) => p.project.phase === 'Control'),
-    ...closedInQuarter
-  ]
+  const controlled = [...projects.filter((p) => p.project.phase === 'Control'), ...closedInQuarter];
+  // "Before": the quarter before the project started; "after": the quarter reviewed.
+  const beforeQuarterOf = (project: ImprovementProject) =>
+    shiftQuarter(quarterOf(project.startDate.slice(0, 7)), -1);
+  // Each quarter before a project started is ranked once, for the processes whose projects need it: a row
+  // depends on its own process alone, and ranking every process for a few hundred projects was a tenth of the
+  // review at company size.
+  const byIdOfQuarter = new Map<string, Map<string, ProcessRow>>();
+  for (const { project } of controlled) {
+    const q = beforeQuarterOf(project);
+    if (byIdOfQuarter.has(q)) continue;
+    let rows = ranked.get(q);
+    if (!rows) {
+      const ids = new Set(
+        controlled.filter((c) => beforeQuarterOf(c.project) === q).map((c) => c.project.processId)
+      );
+      const processes = records.processes.filter((p) => ids.has(p.id));
+      rows = rankPortfolio({ ...records, processes }, profiles, rankingOptions(q));
+    }
+    byIdOfQuarter.set(q, new Map(rows.map((r) => [r.process.id, r])));
+  }
+  const control: ReviewControlProject[] = controlled
     .map(({ project, row }) => {
-      // "Before": the quarter before the project started; "after": the quarter reviewed.
-      const beforeQuarter = shiftQuarter(quarterOf(project.startDate.slice(0, 7)), -1);
-      const before = rowsOf(beforeQuarter).get(row.process.id);
+      const beforeQuarter = beforeQuarterOf(project);
+      const before = byIdOfQuarter.get(beforeQuarter)!.get(row.process.id);
       const mover = moverOf(row, before);
       return {
         projectId: project.id,
