@@ -2,9 +2,9 @@ import type { z } from 'zod';
 
 /**
  * The two heavy steps of reading and writing an exchange file that a host can do faster its own way: the SHA-256
- * of the bytes, and the schema check. By default they are what every host has — Web Crypto's digest and zod's
- * validators as they run without eval (the app's Content-Security-Policy forbids eval). The command line, which
- * runs in Node and may compile, plugs in Node's hash and zod's compiled parser (src/cli/fast-exchange-host.ts).
+ * of the bytes, and the schema check. By default they are what every host has: Web Crypto's digest and the schema
+ * as written (which the app's zod runs without eval, as its Content-Security-Policy requires). The command line,
+ * which runs in Node and may compile, plugs in Node's hash and zod's compiled parser (src/cli/fast-exchange-host.ts).
  * Either way the same schema decides and the same SHA-256 comes out; only the speed differs.
  */
 export interface ExchangeHost {
