@@ -203,3 +203,39 @@ test('a frozen review keeps its figures and says when the live data has moved on
   await expect(page.getByTestId('snapshot-status')).toHaveCount(0);
   await expect(page.getByTestId('headline-share')).not.toHaveText(share!);
 });
+
+test('on a phone, the cost charts write their legend clear of their axis names', async ({ page }) => {
+  test.setTimeout(120_000);
+  await page.setViewportSize({ width: 390, height: 844 });
+  await openReview(page);
+  const costCharts = page
+    .locator('figure')
+    .filter({ has: page.locator('figcaption', { hasText: /^Cost of poor quality per year/ }) });
+  const count = await costCharts.count();
+  // The demo reports costs in three currencies: one chart each.
+  expect(count).toBe(3);
+  for (let i = 0; i < count; i += 1) {
+    const svg = costCharts.nth(i).locator('[data-testid="chart"] svg');
+    // Drawn: the right axis's name is written.
+    await expect(svg.locator('text').filter({ hasText: /^%$/ })).toHaveCount(1);
+    // Every text the chart writes level (the process names below are slanted on purpose): no two may overlap.
+    const overlaps = await svg.evaluate((element) => {
+      const boxes = [...element.querySelectorAll('text')]
+        .filter((t) => {
+          const m = (t as SVGGraphicsElement).getCTM();
+          return t.textContent?.trim() && m && Math.abs(m.b) < 1e-6 && Math.abs(m.c) < 1e-6;
+        })
+        .map((t) => ({ text: t.textContent!.trim(), box: t.getBoundingClientRect() }));
+      const found: string[] = [`${boxes.length > 8 ? 'several' : 'too few'} level texts`];
+      for (const [k, a] of boxes.entries())
+        for (const b of boxes.slice(k + 1)) {
+          const p = a.box;
+          const q = b.box;
+          if (p.left + 1 < q.right && q.left + 1 < p.right && p.top + 1 < q.bottom && q.top + 1 < p.bottom)
+            found.push(`"${a.text}" over "${b.text}"`);
+        }
+      return found;
+    });
+    expect(overlaps).toEqual(['several level texts']);
+  }
+});

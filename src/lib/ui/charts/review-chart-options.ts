@@ -91,8 +91,10 @@ export function costParetoOption(lines: readonly ReviewProcessLine[], currency: 
   const rows = paretoRows(lines, currency);
   return {
     ...base,
-    grid: { left: 8, right: 48, top: 28, bottom: 8, containLabel: true },
-    legend: { top: 0, data: [`cost per year (${currency})`, 'cumulative share'] },
+    // The axis names (currency, %) sit above the plot: the legend keeps to one line (paged when narrow) and the
+    // plot starts below both, so that on a phone the legend's second line no longer covers the names.
+    grid: { left: 8, right: 48, top: 52, bottom: 8, containLabel: true },
+    legend: { top: 0, type: 'scroll', data: [`cost per year (${currency})`, 'cumulative share'] },
     tooltip: { trigger: 'axis' },
     xAxis: {
       type: 'category',
