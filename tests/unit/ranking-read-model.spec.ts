@@ -14,8 +14,10 @@ import { addMonths, periodsOfQuarter } from '../../src/lib/domain/period';
 import {
   costPerYear,
   judgeCharacteristic,
+  processTrends,
   quickYield,
   rankPortfolio,
+  withTrends,
   type FiguresCache,
   type PortfolioRecords,
   type ProcessRow
@@ -312,6 +314,40 @@ describe('the indexed, cached ranking gives the figures of a plain record-by-rec
         expectPlainFigures(rows, plain);
       }),
       { numRuns: 150, seed: 20261204 }
+    );
+  });
+
+  it('ranks without trend lines as with them, and gives each asked process the plain trend line (as the page asks)', () => {
+    fc.assert(
+      fc.property(
+        portfolioArb,
+        fc.integer({ min: 2, max: 14 }),
+        fc.integer({ min: 0, max: 2 ** 31 }),
+        (records, end, pick) => {
+          const endPeriod = MONTHS[end]!;
+          const plain = plainRanking(records, endPeriod, 3, 12);
+          const options = { endPeriod, windowMonths: 3, cache: new WindowFiguresCache() };
+          const full = rankPortfolio(records, BUILT_IN_PROFILES, options);
+          const bare = rankPortfolio(records, BUILT_IN_PROFILES, { ...options, trendMonths: 0 });
+          expect(bare.map((r) => r.process.id)).toEqual(full.map((r) => r.process.id));
+          expectPlainFigures(bare, plain);
+          for (const row of bare) expect([row.trend, row.trendSlope]).toEqual([[], undefined]);
+          // Some of the processes, as rows come into view; an unknown id is left out.
+          const asked = full.filter((_, i) => (pick >> (i % 31)) & 1).map((r) => r.process.id);
+          const trends = processTrends(records, BUILT_IN_PROFILES, [...asked, 'no-such-process'], {
+            endPeriod
+          });
+          expect([...trends.keys()].sort()).toEqual([...asked].sort());
+          for (const row of full.filter((r) => trends.has(r.process.id))) {
+            const t = trends.get(row.process.id)!;
+            t.trend.forEach((z, i) => close(z, plain.get(row.process.id)!.trendPlain[i]));
+            expect(t).toEqual({ trend: row.trend, trendSlope: row.trendSlope });
+          }
+          // The details and the CSV: the rows completed with their lines are the full ranking's rows.
+          expect(withTrends(records, BUILT_IN_PROFILES, bare, { endPeriod })).toEqual(full);
+        }
+      ),
+      { numRuns: 100, seed: 20261203 }
     );
   });
 

@@ -35,7 +35,8 @@ export interface PortfolioListRow {
   weakest?: RulingFigure & { name: string };
   requiredZ?: number;
   costPerYear?: number;
-  trend: (number | undefined)[];
+  /** Absent where the ranking computed no trend lines: the page asks for those of the rows it shows. */
+  trend?: (number | undefined)[];
   trendSlope?: number;
   badges: Badge[];
   projects: Pick<ImprovementProject, 'id' | 'phase'>[];
@@ -50,7 +51,6 @@ export function listRowOf(row: ProcessRow): PortfolioListRow {
     status: row.status,
     riskClass: row.riskClass,
     zBasis: row.zBasis,
-    trend: row.trend,
     badges: row.badges,
     projects: row.projects.map((p) => ({ id: p.id, phase: p.phase }))
   };
@@ -59,6 +59,7 @@ export function listRowOf(row: ProcessRow): PortfolioListRow {
   if (row.zLevel !== undefined) out.zLevel = row.zLevel;
   if (row.requiredZ !== undefined) out.requiredZ = row.requiredZ;
   if (row.costPerYear !== undefined) out.costPerYear = row.costPerYear;
+  if (row.trend.length > 0) out.trend = row.trend;
   if (row.trendSlope !== undefined) out.trendSlope = row.trendSlope;
   if (weakest) {
     const figure: PortfolioListRow['weakest'] = {

@@ -96,7 +96,8 @@ export interface ProcessRow {
   gainIfMet?: number;
   /** Cost of poor quality per year: (1 − yield) × monthly volume × 12 × cost per defective, in the process currency. */
   costPerYear?: number;
-  /** Reported z-level of each month in the trend span (undefined where no data), oldest first. */
+  /** Reported z-level of each month in the trend span (undefined where no data), oldest first; empty when the
+   * ranking was asked for no trend (`trendMonths: 0`). */
   trend: (number | undefined)[];
   /** Least-squares slope of the trend, z per month. */
   trendSlope?: number;
@@ -105,6 +106,9 @@ export interface ProcessRow {
   priority: number;
   riskClass: RiskClass;
 }
+
+/** A process's monthly trend line as its row shows it (ProcessRow's trend and trendSlope). */
+export type ProcessTrend = Pick<ProcessRow, 'trend' | 'trendSlope'>;
 
 export interface RankingWeights {
   gap: number;
@@ -125,7 +129,7 @@ export interface RankingOptions {
   endPeriod: string;
   /** Months in the window: 1, 3, 12 … */
   windowMonths: number;
-  /** Months in the trend. */
+  /** Months in the trend (12 if not given; 0 for none). */
   trendMonths?: number;
   weights?: RankingWeights;
   order?: RankingOrder;

@@ -1,11 +1,12 @@
 import type { PortfolioFilters } from '../domain/portfolio-filters';
-import type { ProcessRow } from '../domain/portfolio-terms';
+import type { ProcessRow, ProcessTrend } from '../domain/portfolio-terms';
 import type {
   CsvAsked,
   PortfolioRankingMessage,
   RankingAnswer,
   RankingAsked,
-  RowAsked
+  RowAsked,
+  TrendsAsked
 } from '../workers/portfolio-ranking.worker';
 import type { PortfolioWorkerRequest } from '../workers/portfolio-worker-loop';
 import { workerService } from './worker-service';
@@ -23,6 +24,8 @@ export interface PortfolioRanker {
   row: (databaseName: string, processId: string) => Promise<ProcessRow | undefined>;
   /** The last ranking's rows the filters let through, as CSV. */
   csv: (databaseName: string, filters: PortfolioFilters) => Promise<string>;
+  /** The monthly trend lines of these processes, as of the last ranking. */
+  trends: (databaseName: string, processIds: string[]) => Promise<Map<string, ProcessTrend>>;
   close: () => void;
 }
 
@@ -32,7 +35,7 @@ export interface PortfolioRanker {
  */
 export function portfolioRankingWorker(): PortfolioRanker {
   const service = workerService<
-    Omit<PortfolioWorkerRequest, 'id'> & (RankingAsked | RowAsked | CsvAsked),
+    Omit<PortfolioWorkerRequest, 'id'> & (RankingAsked | RowAsked | CsvAsked | TrendsAsked),
     Done
   >(
     () => new Worker(new URL('../workers/portfolio-ranking.worker.ts', import.meta.url), { type: 'module' }),
@@ -45,6 +48,14 @@ export function portfolioRankingWorker(): PortfolioRanker {
         .row,
     csv: async (databaseName, filters) =>
       ((await service.ask({ databaseName, reload: false, ask: 'csv', filters })) as { csv: string }).csv,
+    trends: async (databaseName, processIds) =>
+      new Map(
+        (
+          (await service.ask({ databaseName, reload: false, ask: 'trends', processIds })) as {
+            trends: [string, ProcessTrend][];
+          }
+        ).trends
+      ),
     close: service.close
   };
 }

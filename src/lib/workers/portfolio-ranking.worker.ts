@@ -6,12 +6,15 @@
  * of window, order, weight or target then costs a re-judgement and a sort here, and nothing on the page's
  * thread but receiving the list. The full rows of the last ranking stay here: one of them is sent when the
  * page opens its details, and the CSV of the filtered list is written here.
+ *
+ * The ranking is computed without the rows' monthly trend lines: the page asks for those of the rows it shows
+ * (domain processTrends), and the details and the CSV get theirs when they are asked for.
  */
 import type { ContextProfile } from '../domain/context-profile';
 import { filterRows, type PortfolioFilters } from '../domain/portfolio-filters';
 import { listRowOf, type PortfolioListRow } from '../domain/portfolio-list-row';
-import { rankPortfolio } from '../domain/portfolio-ranking';
-import type { ProcessRow, RankingOrder, RankingWeights } from '../domain/portfolio-terms';
+import { processTrends, rankPortfolio, withTrends } from '../domain/portfolio-ranking';
+import type { ProcessRow, ProcessTrend, RankingOrder, RankingWeights } from '../domain/portfolio-terms';
 import { portfolioCsv } from '../spreadsheet/portfolio-csv';
 import { servePortfolioRequests, type PortfolioWorkerRequest } from './portfolio-worker-loop';
 
@@ -33,8 +36,14 @@ export interface CsvAsked {
   ask: 'csv';
   filters: PortfolioFilters;
 }
+/** The monthly trend lines of these processes, for the last ranking's end month and contexts. */
+export interface TrendsAsked {
+  ask: 'trends';
+  processIds: string[];
+}
 
-export type PortfolioRankingRequest = PortfolioWorkerRequest & (RankingAsked | RowAsked | CsvAsked);
+export type PortfolioRankingRequest = PortfolioWorkerRequest &
+  (RankingAsked | RowAsked | CsvAsked | TrendsAsked);
 
 export interface RankingAnswer {
   rows: PortfolioListRow[];
@@ -44,21 +53,42 @@ export interface RankingAnswer {
 }
 
 /** What each kind of request is answered with. */
-type Answer = RankingAnswer | { row: ProcessRow | undefined } | { csv: string };
+type Answer =
+  RankingAnswer | { row: ProcessRow | undefined } | { csv: string } | { trends: [string, ProcessTrend][] };
 
 export type PortfolioRankingMessage =
   ({ id: number; type: 'done'; ms: number } & Answer) | { id: number; type: 'error'; message: string };
 
-let last: { rows: ProcessRow[]; endPeriod: string; windowMonths: number } | undefined;
+let last:
+  | { rows: ProcessRow[]; endPeriod: string; windowMonths: number; profiles: readonly ContextProfile[] }
+  | undefined;
 
 servePortfolioRequests<PortfolioRankingRequest, Answer>((records, request, cache) => {
   if (request.ask === 'rank') {
     const { endPeriod, windowMonths, order, weights, profiles } = request;
-    const rows = rankPortfolio(records, profiles, { endPeriod, windowMonths, order, weights, cache });
-    last = { rows, endPeriod, windowMonths };
+    const rows = rankPortfolio(records, profiles, {
+      endPeriod,
+      windowMonths,
+      order,
+      weights,
+      cache,
+      trendMonths: 0
+    });
+    last = { rows, endPeriod, windowMonths, profiles };
     return { rows: rows.map(listRowOf), processes: records.processes.length, sites: records.sites.length };
   }
   if (!last) throw new Error('nothing has been ranked yet');
-  if (request.ask === 'row') return { row: last.rows.find((r) => r.process.id === request.processId) };
-  return { csv: portfolioCsv(filterRows(last.rows, request.filters), last) };
+  const { profiles, endPeriod } = last;
+  switch (request.ask) {
+    case 'trends':
+      return { trends: [...processTrends(records, profiles, request.processIds, { endPeriod })] };
+    case 'row': {
+      const row = last.rows.find((r) => r.process.id === request.processId);
+      return { row: row && withTrends(records, profiles, [row], { endPeriod })[0] };
+    }
+    case 'csv': {
+      const rows = withTrends(records, profiles, filterRows(last.rows, request.filters), { endPeriod });
+      return { csv: portfolioCsv(rows, last) };
+    }
+  }
 });
