@@ -17,6 +17,7 @@ import {
   processTrends,
   quickYield,
   rankPortfolio,
+  standingOfRow,
   withTrends,
   type FiguresCache,
   type PortfolioRecords,
@@ -24,7 +25,7 @@ import {
 } from '../../src/lib/domain/portfolio-ranking';
 import { MonthlyStatistics } from '../../src/lib/domain/monthly-statistics';
 import type { Process } from '../../src/lib/domain/process';
-import { buildQuarterReview } from '../../src/lib/domain/quarter-review';
+import { buildQuarterReview, headlineOf } from '../../src/lib/domain/quarter-review';
 import type { RecordMeta } from '../../src/lib/domain/record-meta';
 import { limitVersionOf } from '../../src/lib/domain/specification-history';
 import type { Study } from '../../src/lib/domain/study';
@@ -374,6 +375,26 @@ describe('the indexed, cached ranking gives the figures of a plain record-by-rec
           0
         );
         close(figures.headline.cost.find((c) => c.currency === 'EUR')?.perYear ?? 0, cost);
+        // The year-ago headline, judged without rows: the plain computation's counts and cost, and the headline
+        // of a full ranking's rows (its stale count included).
+        const plainYearAgo = [...plainRanking(records, '2025-12', 3, 3).values()];
+        const reviewedThen = plainYearAgo.filter((r) => r.status !== 'no recent data');
+        expect([figures.yearAgo.reviewed, figures.yearAgo.meeting]).toEqual([
+          reviewedThen.length,
+          reviewedThen.filter((r) => r.status !== 'short').length
+        ]);
+        close(
+          figures.yearAgo.cost.find((c) => c.currency === 'EUR')?.perYear ?? 0,
+          reviewedThen.reduce((a, r) => a + (r.costPerYear ?? 0), 0)
+        );
+        // In the records' order, as the standings are: a cost summed in another order may differ in its last bit.
+        const fullYearAgo = rankPortfolio(records, BUILT_IN_PROFILES, {
+          endPeriod: '2025-12',
+          windowMonths: 3
+        });
+        const position = new Map(records.processes.map((p, i) => [p.id, i]));
+        fullYearAgo.sort((a, b) => position.get(a.process.id)! - position.get(b.process.id)!);
+        expect(figures.yearAgo).toEqual(headlineOf('2025-Q4', fullYearAgo.map(standingOfRow)));
       }),
       { numRuns: 60, seed: 20261203 }
     );

@@ -35,6 +35,7 @@ import {
   type CharacteristicStatus,
   type PortfolioRecords,
   type ProcessRow,
+  type ProcessStanding,
   type ProcessTrend,
   type RankingOptions,
   type RankingOrder
@@ -639,18 +640,20 @@ function figuresOfCells(
 }
 
 /**
- * A process's status alone (the worst of its characteristics'), judged as judgeProcess judges it but without
- * rows, badges, a trend or anything kept: what a quarter of the review's trend needs.
+ * A process judged as judgeProcess and rankPortfolio judge it, without rows, badges, a trend or anything kept:
+ * its status (the worst of its characteristics'), the product of the yields of those with window figures and
+ * how many they are. What a quarter of the review's trend and its year-ago headline need.
  */
-function statusOfProcess(
+function standingOfProcess(
   chars: readonly Characteristic[],
   model: MonthlyStatistics,
   options: RankingOptions,
   months: { firstMonth: number; end: number },
   profile: ContextProfile | undefined
-): CharacteristicStatus {
+): { status: CharacteristicStatus; yield: number; withData: number } {
   let status: CharacteristicStatus = 'no recent data';
-  if (!profile) return status;
+  let y = 1;
+  let withData = 0;
   for (const c of chars) {
     const row = model.rowOf(c.id);
     if (row === undefined) continue;
@@ -661,10 +664,13 @@ function statusOfProcess(
       options
     );
     if (!result) continue;
+    withData += 1;
+    y *= result.yield;
+    if (!profile) continue;
     const s = judgeFigures(result, perUnitFigures(result), c.riskClass, profile).status;
     if (STATUS_RANK[s] < STATUS_RANK[status]) status = s;
   }
-  return status;
+  return { status, yield: y, withData };
 }
 
 /** A window of raw months, from their studies' values (windowData: model search, subgroups, stability). */
@@ -794,27 +800,46 @@ function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefi
 }
 
 /**
- * Only the status of each live process, in the records' order: what a quarter of the review's trend needs.
- * The same judging as rankPortfolio's, without building, badging and sorting rows (ten quarters of full rows
- * were most of the review's time and memory at company size).
+ * Each live process judged without a row (standingOfProcess), in the records' order: its status, and the cost
+ * and the 'incomplete' mark its row would show — what a quarter of the review's trend and its year-ago headline
+ * need. The same judging as rankPortfolio's, without building, badging and sorting rows (ten quarters of full
+ * rows were most of the review's time and memory at company size).
  */
-export function portfolioStatuses(
+export function portfolioStandings(
   records: PortfolioRecords,
   profiles: readonly ContextProfile[],
   options: RankingOptions
-): CharacteristicStatus[] {
+): ProcessStanding[] {
   // Neither cached nor kept: eight quarters of every process's windows held for the review's trend cost more
   // (their garbage, the heap they grew, and the full rankings' prepared windows they pushed out) than computing
   // them again — in the benchmark at 20 000 processes the first review took 5–12 % less time and 60 MB less
   // memory without, and a review with the window figures cached no more time.
   const { months, model, index } = rankingContext(records, options);
-  const statuses: CharacteristicStatus[] = [];
+  const standings: ProcessStanding[] = [];
   for (const process of records.processes) {
     if (!liveSiteOf(process, index)) continue;
     const chars = index.characteristics.get(process.id) ?? [];
-    statuses.push(statusOfProcess(chars, model, options, months, profileFor(profiles, process.contextId)));
+    const profile = profileFor(profiles, process.contextId);
+    const { status, yield: y, withData } = standingOfProcess(chars, model, options, months, profile);
+    // As rankPortfolio: a cost where some characteristic has figures; incomplete where not all of them have.
+    standings.push({
+      process,
+      status,
+      costPerYear: withData ? costPerYear(1 - y, process) : undefined,
+      incomplete: withData > 0 && withData < chars.length
+    });
   }
-  return statuses;
+  return standings;
+}
+
+/** A ranked row's standing, as portfolioStandings gives it without the row. */
+export function standingOfRow(row: ProcessRow): ProcessStanding {
+  return {
+    process: row.process,
+    status: row.status,
+    costPerYear: row.costPerYear,
+    incomplete: row.badges.includes('incomplete')
+  };
 }
 
 /**

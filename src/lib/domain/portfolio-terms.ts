@@ -107,6 +107,15 @@ export interface ProcessRow {
   riskClass: RiskClass;
 }
 
+/** What a quarter's headline needs of a process: its status, its cost and whether some characteristic lacks data. */
+export interface ProcessStanding {
+  process: Process;
+  status: CharacteristicStatus;
+  costPerYear: number | undefined;
+  /** Some characteristics have window figures and some not (the row's 'incomplete' badge). */
+  incomplete: boolean;
+}
+
 /** A process's monthly trend line as its row shows it (ProcessRow's trend and trendSlope). */
 export type ProcessTrend = Pick<ProcessRow, 'trend' | 'trendSlope'>;
 

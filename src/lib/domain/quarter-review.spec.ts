@@ -2,12 +2,12 @@ import { describe, expect, it } from 'vitest';
 import demo from '../../../seed-data/demo-portfolio.json';
 import { BUILT_IN_PROFILES } from './context-profile';
 import { parseDemoPortfolio } from './demo-portfolio-schema';
-import { portfolioStatuses, rankPortfolio, type ProcessRow } from './portfolio-ranking';
-import { buildQuarterReview, headlineOf, shiftQuarter } from './quarter-review';
+import { portfolioStandings, rankPortfolio, standingOfRow, type ProcessRow } from './portfolio-ranking';
+import { buildQuarterReview, headlineOf, shiftQuarter, snapshotDifferences } from './quarter-review';
 import { reviewFiguresSchema } from './review-figures';
 
 const row = (status: string, currency: string, cost: number | undefined, badges: string[] = []) =>
-  ({ status, process: { currency }, costPerYear: cost, badges }) as unknown as ProcessRow;
+  standingOfRow({ status, process: { currency }, costPerYear: cost, badges } as unknown as ProcessRow);
 
 describe('quarterly review', () => {
   it('aggregates the headline by hand-checked counts', () => {
@@ -73,18 +73,18 @@ describe('quarterly review', () => {
   });
 });
 
-describe('the trend quarters judged by status only', () => {
-  it("gives each live process the status its full ranking row has, in the records' order", () => {
+describe('the trend quarters and the year-ago quarter judged without rows', () => {
+  it("give each live process the standing its full ranking row has, in the records' order", () => {
     const records = parseDemoPortfolio(demo).records;
     for (const endPeriod of ['2025-03', '2026-06', '2026-09']) {
       const options = { endPeriod, windowMonths: 3, trendMonths: 0 };
       const rows = rankPortfolio(records, BUILT_IN_PROFILES, options);
-      const byId = new Map(rows.map((r) => [r.process.id, r.status]));
+      const byId = new Map(rows.map((r) => [r.process.id, standingOfRow(r)]));
       const live = records.processes.filter((p) => !p.deletedAt && !p.archivedAt);
-      const statuses = portfolioStatuses(records, BUILT_IN_PROFILES, options);
-      expect(statuses).toEqual(live.map((p) => byId.get(p.id)));
+      const standings = portfolioStandings(records, BUILT_IN_PROFILES, options);
+      expect(standings).toEqual(live.map((p) => byId.get(p.id)));
       // The demo has every status in these quarters, so the comparison above is not between empty lists.
-      expect(new Set(statuses).size).toBeGreaterThan(2);
+      expect(new Set(standings.map((s) => s.status)).size).toBeGreaterThan(2);
     }
   });
 });
@@ -185,5 +185,21 @@ describe('projects in the review', () => {
     // Closed in another quarter: not in this review's list.
     const later = buildQuarterReview({ ...r, projects }, BUILT_IN_PROFILES, { quarter: '2026-Q2' });
     expect(later.control.some((c) => c.projectId === first!.id)).toBe(false);
+  });
+});
+
+describe('a frozen review checked against the live figures', () => {
+  it('reports a changed figure, not a sum that differs in its last bit', () => {
+    const records = parseDemoPortfolio(demo).records;
+    const live = buildQuarterReview(records, BUILT_IN_PROFILES, { quarter: '2026-Q3' });
+    const frozen = structuredClone(live);
+    const cost = frozen.yearAgo.cost[0]!;
+    expect(cost.perYear).toBeGreaterThan(0);
+    // The same costs summed in another order: one unit in the last place.
+    cost.perYear = cost.perYear + cost.perYear * Number.EPSILON;
+    expect(cost.perYear).not.toBe(live.yearAgo.cost[0]!.perYear);
+    expect(snapshotDifferences(frozen, live)).toEqual([]);
+    cost.perYear *= 1.01;
+    expect(snapshotDifferences(frozen, live)).toEqual(['headline figures']);
   });
 });

@@ -8,15 +8,17 @@ import { addMonths, periodsOfQuarter, quarterOf } from './period';
 import { moneyTotals, ratesStatement, type ReportingCurrency } from './reporting-currency';
 import {
   BADGE_EXPLANATIONS,
-  portfolioStatuses,
+  portfolioStandings,
   rankPortfolio,
+  standingOfRow,
   type Badge,
   type CharacteristicRow,
   type CharacteristicStatus,
   type RankingOptions,
   type FiguresCache,
   type PortfolioRecords,
-  type ProcessRow
+  type ProcessRow,
+  type ProcessStanding
 } from './portfolio-ranking';
 import type {
   ReviewControlProject,
@@ -79,7 +81,7 @@ function meetingOf(statuses: Iterable<CharacteristicStatus>) {
  */
 export function headlineOf(
   quarter: string,
-  rows: readonly ProcessRow[],
+  rows: readonly ProcessStanding[],
   reporting?: ReportingCurrency
 ): ReviewHeadline {
   const reviewed = rows.filter((r) => r.status !== 'no recent data');
@@ -93,12 +95,12 @@ export function headlineOf(
     share: m.share,
     shareShown: m.shareShown,
     ...costsOf(reviewed, reporting),
-    stale: reviewed.filter((r) => r.badges.includes('incomplete')).length,
+    stale: reviewed.filter((r) => r.incomplete).length,
     missing: rows.length - reviewed.length
   };
 }
 
-function costsOf(rows: readonly ProcessRow[], reporting: ReportingCurrency | undefined) {
+function costsOf(rows: readonly ProcessStanding[], reporting: ReportingCurrency | undefined) {
   const totals = moneyTotals(
     rows.flatMap((r) =>
       r.costPerYear === undefined ? [] : [{ amount: r.costPerYear, currency: r.process.currency }]
@@ -212,15 +214,17 @@ export function buildQuarterReview(
   const previousQuarter = shiftQuarter(quarter, -1);
   const yearAgoQuarter = shiftQuarter(quarter, -4);
   const trendQuarters = options.trendQuarters ?? 8;
-  // Full rows only for the quarters the review shows in detail; of the trend's other quarters only each
-  // process's status is judged (at company size ten quarters of rows were hundreds of megabytes).
-  const detailed = new Set([quarter, previousQuarter, yearAgoQuarter]);
+  // Full rows only for the quarters the review shows in detail (this one and the one before); of the trend's
+  // other quarters, and of the year-ago quarter whose headline alone is shown, each process is judged without a
+  // row (portfolioStandings): at company size ten quarters of rows were hundreds of megabytes, and a full
+  // ranking of the year-ago quarter a sixth of the review's time.
+  const detailed = new Set([quarter, previousQuarter]);
   const ranked = new Map<string, ProcessRow[]>();
-  // Of the year-ago quarter only the headline is shown: its rows are not kept while the others are ranked.
   let yearAgo: ReviewHeadline | undefined;
-  const keep = (q: string, rows: ProcessRow[]) => {
-    if (q === yearAgoQuarter) yearAgo = headlineOf(yearAgoQuarter, rows, options.reporting);
-    else ranked.set(q, rows);
+  const standingsOf = (q: string) => {
+    const standings = portfolioStandings(records, profiles, rankingOptions(q));
+    if (q === yearAgoQuarter) yearAgo = headlineOf(q, standings, options.reporting);
+    return standings;
   };
   const trend: ReviewFigures['shareTrend'] = [];
   for (let i = trendQuarters - 1; i >= 0; i--) {
@@ -228,13 +232,13 @@ export function buildQuarterReview(
     let statuses: CharacteristicStatus[];
     if (detailed.has(q)) {
       const rows = rank(q);
-      keep(q, rows);
+      ranked.set(q, rows);
       statuses = rows.map((r) => r.status);
-    } else statuses = portfolioStatuses(records, profiles, rankingOptions(q));
+    } else statuses = standingsOf(q).map((s) => s.status);
     const m = meetingOf(statuses);
     trend.push({ quarter: q, reviewed: m.reviewed, share: m.share, shareShown: m.shareShown });
   }
-  if (!yearAgo) keep(yearAgoQuarter, rank(yearAgoQuarter));
+  if (!yearAgo) standingsOf(yearAgoQuarter);
   if (!ranked.has(previousQuarter)) ranked.set(previousQuarter, rank(previousQuarter));
   if (!ranked.has(quarter)) ranked.set(quarter, rank(quarter));
   const current = ranked.get(quarter)!;
@@ -260,7 +264,7 @@ export function buildQuarterReview(
   }
   const sites: ReviewSite[] = [...rowsBySite]
     .map(([siteId, rows]) => {
-      const h = headlineOf(quarter, rows, options.reporting);
+      const h = headlineOf(quarter, rows.map(standingOfRow), options.reporting);
       const zLevels = rows.flatMap((r) =>
         r.zLevel !== undefined && Number.isFinite(r.zLevel) ? [r.zLevel] : []
       );
@@ -377,8 +381,8 @@ export function buildQuarterReview(
     previousQuarter,
     yearAgoQuarter,
     siteIds: [...(options.siteIds ?? [])].sort(),
-    headline: headlineOf(quarter, current, options.reporting),
-    previous: headlineOf(previousQuarter, previous, options.reporting),
+    headline: headlineOf(quarter, current.map(standingOfRow), options.reporting),
+    previous: headlineOf(previousQuarter, previous.map(standingOfRow), options.reporting),
     yearAgo: yearAgo!,
     processes: current.map(lineOf),
     movers,
@@ -413,7 +417,23 @@ export function snapshotDifferences(frozen: ReviewFigures, live: ReviewFigures):
     ['pipeline', (f) => [f.pipeline, f.control]],
     ['assumptions', (f) => f.assumptions]
   ];
-  return parts
-    .filter(([, get]) => canonicalJson(get(frozen)) !== canonicalJson(get(live)))
-    .map(([name]) => name);
+  const text = (value: unknown) => canonicalJson(toSignificantDigits(value));
+  return parts.filter(([, get]) => text(get(frozen)) !== text(get(live))).map(([name]) => name);
+}
+
+/** Digits a figure is compared to when a frozen review is checked against the live one. */
+const COMPARED_DIGITS = 12;
+
+/**
+ * A copy with every number rounded to COMPARED_DIGITS significant digits. A sum taken in another order (the
+ * same costs, listed differently by a newer version of the app) differs in its last bits: that is no change of
+ * a figure, and a frozen review must not be reported as out of date for it.
+ */
+function toSignificantDigits(value: unknown): unknown {
+  if (typeof value === 'number')
+    return Number.isFinite(value) && value !== 0 ? Number(value.toPrecision(COMPARED_DIGITS)) : value;
+  if (Array.isArray(value)) return value.map(toSignificantDigits);
+  if (value !== null && typeof value === 'object')
+    return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, toSignificantDigits(v)]));
+  return value;
 }
