@@ -620,18 +620,22 @@ function windowCells(
   return { cells, limitsChanged };
 }
 
-/** A window's figures from its cells (none where its months cannot be pooled or analysed), and its months. */
+/**
+ * A window's figures from its cells (none where its months cannot be pooled or analysed), and its months.
+ * `bounds` as windowFiguresOfStudy takes it.
+ */
 function figuresOfCells(
   model: MonthlyStatistics,
   cells: readonly number[],
   c: Characteristic,
-  options: RankingOptions
+  options: RankingOptions,
+  bounds: 'all' | 'index' = 'all'
 ): { result: WindowFigures | undefined; months: number } {
   const w = pooledWindow(model, cells) ?? rawWindow(model, cells);
   let result: WindowFigures | undefined;
   if (w) {
     try {
-      result = windowFiguresOfStudy({ data: w.data, period: options.endPeriod }, c, w.sdWithin);
+      result = windowFiguresOfStudy({ data: w.data, period: options.endPeriod }, c, w.sdWithin, bounds);
     } catch {
       result = undefined;
     }
@@ -654,6 +658,8 @@ function standingOfProcess(
   let status: CharacteristicStatus = 'no recent data';
   let y = 1;
   let withData = 0;
+  // Judged against an index, a window's fraction and z-level bounds are never read (judgeFigures): left out.
+  const bounds = profile?.measure === 'index' ? 'index' : 'all';
   for (const c of chars) {
     const row = model.rowOf(c.id);
     if (row === undefined) continue;
@@ -661,7 +667,8 @@ function standingOfProcess(
       model,
       windowCells(model, row, c, months, options.endPeriod).cells,
       c,
-      options
+      options,
+      bounds
     );
     if (!result) continue;
     withData += 1;

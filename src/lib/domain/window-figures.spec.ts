@@ -34,6 +34,10 @@ describe('window figures of a summary', () => {
             capabilityOfStudy(study, c, sdWithin !== undefined ? { sdWithin } : {})
           );
           expect(windowFiguresOfStudy(study, c, sdWithin)).toEqual(full);
+          // With the index bounds alone: the same figures and index bounds, no fraction or z-level bound.
+          const { fractionUpper, zLevelLower, ...indexBounds } = full.bounds;
+          void [fractionUpper, zLevelLower];
+          expect(windowFiguresOfStudy(study, c, sdWithin, 'index')).toEqual({ ...full, bounds: indexBounds });
         }
       ),
       { numRuns: 300, seed: 11 }

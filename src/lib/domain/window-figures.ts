@@ -1,4 +1,4 @@
-import { checkSummary, summaryBounds } from '../stats/analyze-summary';
+import { checkSummary, summaryBounds, summaryIndexBounds } from '../stats/analyze-summary';
 import type { CapabilityResult } from '../stats/capability-result';
 import type { Characteristic } from './characteristic';
 import { limitsFor } from './specification-history';
@@ -79,6 +79,9 @@ const LEVEL = 0.95;
  * straight from `summaryBounds`, on which `analyzeSummary`'s computation is built, without the words, the
  * two-sided intervals and the objects a full result carries (a tenth of the time at company size).
  * Raw values and counts go through the full analysis. Throws RangeError as `capabilityOfStudy` does.
+ *
+ * `bounds: 'index'` leaves a summary's fraction and z-level bounds out (summaryIndexBounds): what a status judged
+ * against an index requirement needs, and never kept. Other kinds of data are complete either way.
  */
 export function windowFiguresOfStudy(
   study: Pick<StudyFields, 'data' | 'period'>,
@@ -86,7 +89,8 @@ export function windowFiguresOfStudy(
     Characteristic,
     'lsl' | 'usl' | 'target' | 'limitChanges' | 'physicalMin' | 'physicalMax' | 'dataKind'
   >,
-  sdWithin: number | undefined
+  sdWithin: number | undefined,
+  bounds: 'all' | 'index' = 'all'
 ): WindowFigures {
   const d = study.data;
   if (d.kind !== 'summary' || !(d.sd > 0))
@@ -95,7 +99,7 @@ export function windowFiguresOfStudy(
     );
   const spec = limitsFor(characteristic, study.period);
   checkSummary(d.n, d.mean, d.sd, spec);
-  const b = summaryBounds(d.n, d.mean, d.sd, spec, LEVEL, sdWithin);
+  const b = (bounds === 'all' ? summaryBounds : summaryIndexBounds)(d.n, d.mean, d.sd, spec, LEVEL, sdWithin);
   const out: WindowFigures = {
     kind: 'summary',
     n: d.n,

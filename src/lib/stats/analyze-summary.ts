@@ -101,14 +101,32 @@ export interface SummaryBounds {
 }
 
 export function summaryBounds(...input: SummaryInput): SummaryBounds {
-  const [n, mu, sd, spec, level, sdWithin] = input;
+  return boundsOfSummary(input, true);
+}
+
+/**
+ * The bounds a requirement on an index is judged on, alone: Ppk's and Cpk's lower bounds, without the bound on
+ * Pp and those on the fraction out of specification and its z-level (two normal tails and a quantile per
+ * window, which such a judgement never reads). The bounds given are summaryBounds' own.
+ */
+export function summaryIndexBounds(...input: SummaryInput): SummaryBounds {
+  return boundsOfSummary(input, false);
+}
+
+function boundsOfSummary(
+  [n, mu, sd, spec, level, sdWithin]: SummaryInput,
+  withFraction: boolean
+): SummaryBounds {
   const overall = indices(mu, sd, spec);
   const bounds: SummaryBounds = { overall, tails: normalTailFractions(mu, sd, spec) };
-  if (overall.spread !== undefined) bounds.ppLower = spreadIndexLowerBound(overall.spread, n, level);
+  if (withFraction && overall.spread !== undefined)
+    bounds.ppLower = spreadIndexLowerBound(overall.spread, n, level);
   if (overall.k !== undefined && overall.k > 0) {
     bounds.ppkLower = bissellLowerBound(overall.k, n, level);
-    bounds.fractionUpper = fractionUpperBound(bounds.ppkLower, bounds.ppLower);
-    bounds.zLevelLower = normalUpperQuantile(bounds.fractionUpper);
+    if (withFraction) {
+      bounds.fractionUpper = fractionUpperBound(bounds.ppkLower, bounds.ppLower);
+      bounds.zLevelLower = normalUpperQuantile(bounds.fractionUpper);
+    }
   }
   if (sdWithin !== undefined && sdWithin > 0) {
     const w = indices(mu, sdWithin, spec);
