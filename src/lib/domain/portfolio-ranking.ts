@@ -509,6 +509,9 @@ function preparedFor(
 
 const scratch = { monthly: new Float64Array(36), count: new Int32Array(36) };
 
+/** The trend of a ranking asked for none (`trendMonths: 0`), shared by all its processes. */
+const NO_TREND = Object.freeze([]) as unknown as (number | undefined)[];
+
 /**
  * A process's monthly trend as long-term z-levels: per month, the z of the product of its characteristics'
  * quick yields (quickYield), where every characteristic has one. Frozen: it is shared by the rows that show it.
@@ -540,6 +543,7 @@ function monthlyTrend(
       monthlyCount[t]! += 1;
     }
   }
+  if (months.trendMonths === 0) return NO_TREND;
   // Sized, not pushed: it is kept with the prepared window, and push leaves room for 17 months.
   const trend = new Array<number | undefined>(months.trendMonths);
   for (let m = 0; m < months.trendMonths; m += 1) {
