@@ -1,4 +1,4 @@
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test, type Locator, type Page } from '@playwright/test';
 import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -204,6 +204,27 @@ test('a frozen review keeps its figures and says when the live data has moved on
   await expect(page.getByTestId('headline-share')).not.toHaveText(share!);
 });
 
+/** The level texts of a drawn chart (slanted ones left out) that overlap another, after a count of them. */
+function overlappingTexts(svg: Locator): Promise<string[]> {
+  return svg.evaluate((element) => {
+    const boxes = [...element.querySelectorAll('text')]
+      .filter((t) => {
+        const m = (t as SVGGraphicsElement).getCTM();
+        return t.textContent?.trim() && m && Math.abs(m.b) < 1e-6 && Math.abs(m.c) < 1e-6;
+      })
+      .map((t) => ({ text: t.textContent!.trim(), box: t.getBoundingClientRect() }));
+    const found: string[] = [`${boxes.length > 8 ? 'several' : 'too few'} level texts`];
+    for (const [k, a] of boxes.entries())
+      for (const b of boxes.slice(k + 1)) {
+        const p = a.box;
+        const q = b.box;
+        if (p.left + 1 < q.right && q.left + 1 < p.right && p.top + 1 < q.bottom && q.top + 1 < p.bottom)
+          found.push(`"${a.text}" over "${b.text}"`);
+      }
+    return found;
+  });
+}
+
 test('on a phone, the cost charts write their legend clear of their axis names', async ({ page }) => {
   test.setTimeout(120_000);
   await page.setViewportSize({ width: 390, height: 844 });
@@ -219,23 +240,31 @@ test('on a phone, the cost charts write their legend clear of their axis names',
     // Drawn: the right axis's name is written.
     await expect(svg.locator('text').filter({ hasText: /^%$/ })).toHaveCount(1);
     // Every text the chart writes level (the process names below are slanted on purpose): no two may overlap.
-    const overlaps = await svg.evaluate((element) => {
-      const boxes = [...element.querySelectorAll('text')]
-        .filter((t) => {
-          const m = (t as SVGGraphicsElement).getCTM();
-          return t.textContent?.trim() && m && Math.abs(m.b) < 1e-6 && Math.abs(m.c) < 1e-6;
-        })
-        .map((t) => ({ text: t.textContent!.trim(), box: t.getBoundingClientRect() }));
-      const found: string[] = [`${boxes.length > 8 ? 'several' : 'too few'} level texts`];
-      for (const [k, a] of boxes.entries())
-        for (const b of boxes.slice(k + 1)) {
-          const p = a.box;
-          const q = b.box;
-          if (p.left + 1 < q.right && q.left + 1 < p.right && p.top + 1 < q.bottom && q.top + 1 < p.bottom)
-            found.push(`"${a.text}" over "${b.text}"`);
-        }
-      return found;
-    });
-    expect(overlaps).toEqual(['several level texts']);
+    expect(await overlappingTexts(svg)).toEqual(['several level texts']);
   }
+});
+
+test('on a phone, the z-level chart leaves its bars room beside the process names', async ({ page }) => {
+  test.setTimeout(120_000);
+  await page.setViewportSize({ width: 390, height: 844 });
+  await openReview(page);
+  const chart = page
+    .locator('figure')
+    .filter({ has: page.locator('figcaption', { hasText: /^z-level against the required level/ }) })
+    .locator('[data-testid="chart"]');
+  const svg = chart.locator('svg');
+  await expect(svg.locator('text').filter({ hasText: /^z-level$/ })).toHaveCount(1);
+  // The names once took all but a few pixels: the scale's numbers ran into one another and the bars were slivers.
+  expect(await overlappingTexts(svg)).toEqual(['several level texts']);
+  const room = await svg.evaluate((element) => {
+    const width = element.getBoundingClientRect().width;
+    const other = /^([\d.]+|z-level|short|meeting target|required)$/;
+    const names = [...element.querySelectorAll('text')].filter(
+      (t) => !other.test(t.textContent?.trim() ?? '')
+    );
+    const right = Math.max(...names.map((t) => t.getBoundingClientRect().right));
+    return { width, names: names.length, left: element.getBoundingClientRect().left, right };
+  });
+  expect(room.names).toBeGreaterThan(10);
+  expect(room.right - room.left).toBeLessThan(room.width * 0.5);
 });
