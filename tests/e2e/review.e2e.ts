@@ -244,7 +244,9 @@ test('on a phone, the cost charts write their legend clear of their axis names',
   }
 });
 
-test('on a phone, the z-level chart leaves its bars room beside the process names', async ({ page }) => {
+test('on a phone, the z-level chart leaves its bars room beside the names, and the movement chart names its axes within it', async ({
+  page
+}) => {
   test.setTimeout(120_000);
   await page.setViewportSize({ width: 390, height: 844 });
   await openReview(page);
@@ -267,4 +269,18 @@ test('on a phone, the z-level chart leaves its bars room beside the process name
   });
   expect(room.names).toBeGreaterThan(10);
   expect(room.right - room.left).toBeLessThan(room.width * 0.5);
+  // The movement chart names its across quarter within the chart (at the axis's end it ran off a phone's edge).
+  const movement = page
+    .locator('figure')
+    .filter({ has: page.locator('figcaption', { hasText: /\(across\) against/ }) })
+    .locator('[data-testid="chart"] svg');
+  const across = movement.locator('text').filter({ hasText: /^\d{4}-Q\d$/ });
+  await expect(across).toHaveCount(2);
+  const inside = await movement.evaluate((element) => {
+    const box = element.getBoundingClientRect();
+    return [...element.querySelectorAll('text')]
+      .filter((t) => /^\d{4}-Q\d$/.test(t.textContent?.trim() ?? ''))
+      .every((t) => t.getBoundingClientRect().right <= box.right + 0.5);
+  });
+  expect(inside).toBe(true);
 });
