@@ -15,6 +15,7 @@ import { BUILT_IN_PROFILES } from '../../src/lib/domain/context-profile';
 import { PROJECT_PHASES, type ImprovementProject } from '../../src/lib/domain/improvement-project';
 import { addMonths } from '../../src/lib/domain/period';
 import {
+  DEFAULT_WEIGHTS,
   processTrends,
   rankPortfolio,
   type FiguresCache,
@@ -174,6 +175,18 @@ export function measureScale(size: number): BenchRow[] {
   const again = median(
     [0, 1, 2, 3, 4].map((i) => timed(() => asTheAppRanks(i % 2 ? BUILT_IN_PROFILES : stricter, options)))
   );
+  // A change of weights alone: nothing is judged again (the rows judged under the same profiles are kept).
+  asTheAppRanks(BUILT_IN_PROFILES, options);
+  const reweighted = median(
+    [0, 1, 2, 3, 4].map((i) =>
+      timed(() =>
+        asTheAppRanks(BUILT_IN_PROFILES, {
+          ...options,
+          weights: { ...DEFAULT_WEIGHTS, cost: DEFAULT_WEIGHTS.cost * (1 + (i % 2)) }
+        })
+      )
+    )
+  );
   const reviewCache: FiguresCache = new WindowFiguresCache();
   const quarter = '2026-Q4';
   const reviewFirst = timed(() =>
@@ -214,6 +227,11 @@ export function measureScale(size: number): BenchRow[] {
       ms: again,
       ...base,
       target: '≤ 3×'
+    },
+    {
+      name: `ranking ${label}, recompute after a change of weights (and the ${onScreen} rows' trend lines)`,
+      ms: reweighted,
+      ...base
     },
     { name: `quarterly review ${label}, first computation`, ms: reviewFirst, ...reviewBase, target: '≤ 10×' },
     { name: `quarterly review ${label}, again (window figures cached)`, ms: reviewAgain, ...reviewBase }

@@ -8,8 +8,13 @@
 import { WindowFiguresCache } from '../../src/lib/domain/window-figures-cache';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import type { Characteristic } from '../../src/lib/domain/characteristic';
-import { BUILT_IN_PROFILES, profileFor, shortTermShift } from '../../src/lib/domain/context-profile';
+import type { Characteristic, RiskClass } from '../../src/lib/domain/characteristic';
+import {
+  BUILT_IN_PROFILES,
+  profileFor,
+  shortTermShift,
+  type ContextProfile
+} from '../../src/lib/domain/context-profile';
 import { addMonths, periodsOfQuarter } from '../../src/lib/domain/period';
 import {
   costPerYear,
@@ -349,6 +354,66 @@ describe('the indexed, cached ranking gives the figures of a plain record-by-rec
         }
       ),
       { numRuns: 100, seed: 20261203 }
+    );
+  });
+
+  it('re-judges after changes of targets, weights and order exactly as a ranking from scratch', () => {
+    // A history of requests as the portfolio page sends them: one thing of one context changed (one risk class's
+    // level, the reporting, the measure with levels in its unit), or only the weights or the order; some come
+    // back to an earlier profile.
+    const change = fc.oneof(
+      fc.record({
+        risk: fc.constantFrom<RiskClass>('standard', 'key', 'safety'),
+        level: fc.double({ min: 0.5, max: 6, noNaN: true })
+      }),
+      fc.record({ reporting: fc.constantFrom<ContextProfile['reporting']>('long-term', 'short-term') }),
+      fc.record({
+        measure: fc.constantFrom<ContextProfile['measure']>('index', 'zLevel', 'ppm'),
+        scale: fc.double({ min: 0.5, max: 2, noNaN: true })
+      }),
+      fc.constant(undefined)
+    );
+    const step = fc.record({
+      context: fc.integer({ min: 0, max: BUILT_IN_PROFILES.length - 1 }),
+      change,
+      weights: fc.record({
+        gap: fc.double({ min: 0, max: 3, noNaN: true }),
+        cost: fc.double({ min: 0, max: 3, noNaN: true }),
+        risk: fc.double({ min: 0, max: 3, noNaN: true }),
+        confidence: fc.double({ min: 0, max: 3, noNaN: true })
+      }),
+      order: fc.constantFrom('priority', 'gap', 'cost', 'risk', 'confidence')
+    });
+    type Change =
+      | { risk: RiskClass; level: number }
+      | { reporting: ContextProfile['reporting'] }
+      | { measure: ContextProfile['measure']; scale: number }
+      | undefined;
+    const changed = (p: ContextProfile, c: Change): ContextProfile => {
+      if (!c) return p;
+      if ('risk' in c) return { ...p, levels: { ...p.levels, [c.risk]: c.level } };
+      if ('reporting' in c) return { ...p, reporting: c.reporting };
+      const unit = { index: 1.33, zLevel: 4, ppm: 500 }[c.measure] * c.scale;
+      return { ...p, measure: c.measure, levels: { standard: unit, key: unit * 1.1, safety: unit * 1.2 } };
+    };
+    fc.assert(
+      fc.property(portfolioArb, fc.array(step, { minLength: 2, maxLength: 8 }), (records, steps) => {
+        const options = { endPeriod: '2026-12', windowMonths: 3, cache: new WindowFiguresCache() };
+        let profiles: readonly ContextProfile[] = BUILT_IN_PROFILES;
+        for (const s of steps) {
+          profiles = profiles.map((p, i) => (i === s.context ? changed(p, s.change) : p));
+          const again = rankPortfolio(records, profiles, { ...options, weights: s.weights, order: s.order });
+          // From scratch: a record set of its own (another read model), so nothing judged before is reused.
+          const fresh = rankPortfolio({ ...records, studies: [...records.studies] }, profiles, {
+            ...options,
+            cache: new WindowFiguresCache(),
+            weights: s.weights,
+            order: s.order
+          });
+          expect(again).toEqual(fresh);
+        }
+      }),
+      { numRuns: 80, seed: 20261205 }
     );
   });
 

@@ -439,6 +439,19 @@ interface PreparedProcess {
   badges: Partial<Record<BadgeVariant, Badge[]>> | undefined;
   /** The trend with a context's shift added, for the last shift asked for (shiftedTrend). */
   shifted: { shift: number; trend: (number | undefined)[] } | undefined;
+  /** The characteristics as last judged (judgeProcess), under a profile with that judging key (judgingKeyOf). */
+  judged: ReturnType<typeof judgeProcess> | undefined;
+}
+
+/**
+ * What judging a process reads of its context's profile — the measure, the levels, the reporting (and the
+ * confidence, should it come to be read) — as one string: two profiles with the same key judge every
+ * characteristic alike, so a change of weights or order, or of another context's target, re-judges nothing.
+ */
+function judgingKeyOf(profile: ContextProfile | undefined): string {
+  if (!profile) return '';
+  const { measure, levels, reporting, confidence } = profile;
+  return `${measure}|${reporting}|${confidence}|${levels.standard}|${levels.key}|${levels.safety}`;
 }
 
 /**
@@ -594,7 +607,8 @@ function prepareProcess(
     yield: y,
     zLevel: normalUpperQuantile(Math.min(1, 1 - y)),
     badges: undefined,
-    shifted: undefined
+    shifted: undefined,
+    judged: undefined
   };
 }
 
@@ -795,9 +809,12 @@ function liveSiteOf(process: Process, index: ReturnType<typeof portfolioIndex>) 
  * A process's characteristics judged: their rows, the process's status (the worst of theirs), the weakest
  * (smallest gap) and whether any with data is not shown to meet its target.
  */
-function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefined) {
+function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefined, key: string) {
   // Mapped, not pushed: an array grown by push keeps room for 17 rows, most of a row's memory at company size.
-  const rows = windows.characteristics.map((w) => judgePrepared(w, profile, rowBadges(w, profile)));
+  // Frozen: kept with the prepared windows, the rows are shared by the rankings that judge them alike.
+  const rows = Object.freeze(
+    windows.characteristics.map((w) => judgePrepared(w, profile, rowBadges(w, profile)))
+  ) as CharacteristicRow[];
   let status: CharacteristicStatus = 'no recent data';
   let weakest: CharacteristicRow | undefined;
   let notShown = 0;
@@ -807,7 +824,7 @@ function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefi
     if (!weakest || (r.zGap ?? Infinity) < (weakest.zGap ?? Infinity)) weakest = r;
     if (r.status !== 'meets, shown') notShown = 1;
   }
-  return { rows, status, weakest, notShown };
+  return { rows, status, weakest, notShown, key };
 }
 
 /**
@@ -912,6 +929,8 @@ export function rankPortfolio(
   const rows: ProcessRow[] = [];
   const { months, model, index } = rankingContext(records, options);
   const prepared = preparedOf(records, options, model);
+  // Judging keys of the profiles met, worked out once per profile in this ranking.
+  const keys = new Map<ContextProfile | undefined, string>();
   for (const process of records.processes) {
     const site = liveSiteOf(process, index);
     if (!site) continue;
@@ -927,7 +946,12 @@ export function rankPortfolio(
       : profile.reporting === 'short-term'
         ? 'short-term'
         : 'long-term';
-    const { rows: charRows, status, weakest, notShown } = judgeProcess(windows, profile);
+    let key = keys.get(profile);
+    if (key === undefined) keys.set(profile, (key = judgingKeyOf(profile)));
+    // Judged again only under a profile that judges differently (the rows are shared, like the windows).
+    let judged = windows.judged;
+    if (judged?.key !== key) windows.judged = judged = judgeProcess(windows, profile, key);
+    const { rows: charRows, status, weakest, notShown } = judged;
     const riskClass = windows.riskClass;
     // One object literal with every field (undefined where not known): rows built field by field went through
     // a dozen shapes each, a third of a recompute at company size.
