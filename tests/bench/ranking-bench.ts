@@ -175,6 +175,11 @@ export function measureScale(size: number): BenchRow[] {
   const again = median(
     [0, 1, 2, 3, 4].map((i) => timed(() => asTheAppRanks(i % 2 ? BUILT_IN_PROFILES : stricter, options)))
   );
+  // One context's target changed (as a person edits one): only its processes are judged again.
+  const oneStricter = BUILT_IN_PROFILES.map((p, i) => (i === 0 ? stricter[0]! : p));
+  const oneContext = median(
+    [0, 1, 2, 3, 4].map((i) => timed(() => asTheAppRanks(i % 2 ? BUILT_IN_PROFILES : oneStricter, options)))
+  );
   // A change of weights alone: nothing is judged again (the rows judged under the same profiles are kept).
   asTheAppRanks(BUILT_IN_PROFILES, options);
   const reweighted = median(
@@ -227,6 +232,11 @@ export function measureScale(size: number): BenchRow[] {
       ms: again,
       ...base,
       target: '≤ 3×'
+    },
+    {
+      name: `ranking ${label}, recompute after one of the ${BUILT_IN_PROFILES.length} contexts' target changes (and the ${onScreen} rows' trend lines)`,
+      ms: oneContext,
+      ...base
     },
     {
       name: `ranking ${label}, recompute after a change of weights (and the ${onScreen} rows' trend lines)`,
