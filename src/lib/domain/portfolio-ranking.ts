@@ -534,6 +534,7 @@ function monthlyTrend(
   model: MonthlyStatistics,
   months: { end: number; trendFirstMonth: number; trendMonths: number }
 ): (number | undefined)[] {
+  if (months.trendMonths === 0) return NO_TREND;
   // Scratch arrays shared by every call (a ranking is synchronous): two small typed arrays per process were a
   // measurable share of a company-size ranking.
   if (scratch.monthly.length < months.trendMonths) {
@@ -556,7 +557,6 @@ function monthlyTrend(
       monthlyCount[t]! += 1;
     }
   }
-  if (months.trendMonths === 0) return NO_TREND;
   // Sized, not pushed: it is kept with the prepared window, and push leaves room for 17 months.
   const trend = new Array<number | undefined>(months.trendMonths);
   for (let m = 0; m < months.trendMonths; m += 1) {
