@@ -1,17 +1,18 @@
 import { normalCdf, normalSf, normalUpperQuantile } from '../stats/normal-distribution';
-import { summariseMoments } from '../stats/pooled-moments';
+import { MomentsFold, summariseMoments } from '../stats/pooled-moments';
 import { leastSquaresSlope } from '../stats/trend-slope';
 import { windowFiguresOfStudy, type WindowFigures } from './window-figures';
 import type { Characteristic, RiskClass } from './characteristic';
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
 import { addMonths } from './period';
 import { monthOrdinal, portfolioIndex } from './portfolio-index';
+import { rankingPlan, type RankingPlan } from './ranking-plan';
 import type { ImprovementProject } from './improvement-project';
 import type { Process } from './process';
 import { changeInForce, limitsFor, type Limits } from './specification-history';
 import { CELL, periodOfOrdinal, statisticsOf, type MonthlyStatistics } from './monthly-statistics';
 import type { Study, StudyData } from './study';
-import { poolDefectMonths, poolDefectiveMonths, poolMeasuredMonths, windowData } from './window-study';
+import { measuredWindowOf, poolDefectMonths, poolDefectiveMonths, windowData } from './window-study';
 
 /**
  * The portfolio: every process judged against the level its industry context requires, on one comparable
@@ -485,29 +486,25 @@ function processBadges(p: PreparedProcess, variant: BadgeVariant): Badge[] {
 }
 
 /**
- * Prepared windows per read model (and its version: it changes in place when a study is written) and window,
- * for one characteristic array: a change of target, weight or order re-judges these without looking at a study
- * again.
+ * Prepared windows per read model and window, one per process of its ranking plan (in the plan's order): a
+ * change of target, weight or order re-judges these without looking at a study again. A new plan (a study
+ * written changes the model's version; new record arrays) starts them again.
  */
 const preparedWindows = new WeakMap<
   MonthlyStatistics,
-  {
-    version: number;
-    characteristics: readonly Characteristic[];
-    byWindow: Map<string, Map<string, PreparedProcess>>;
-  }
+  { plan: RankingPlan; byWindow: Map<string, (PreparedProcess | undefined)[]> }
 >();
 
 const PREPARED_WINDOWS = 4;
 
 function preparedFor(
   model: MonthlyStatistics,
-  characteristics: readonly Characteristic[],
+  plan: RankingPlan,
   window: string
-): Map<string, PreparedProcess> {
+): (PreparedProcess | undefined)[] {
   let entry = preparedWindows.get(model);
-  if (!entry || entry.characteristics !== characteristics || entry.version !== model.version) {
-    entry = { version: model.version, characteristics, byWindow: new Map() };
+  if (!entry || entry.plan !== plan) {
+    entry = { plan, byWindow: new Map() };
     preparedWindows.set(model, entry);
   }
   let prepared = entry.byWindow.get(window);
@@ -515,7 +512,7 @@ function preparedFor(
     // The windows of the last few requests only: the review ranks ten quarters, and keeping every one of them
     // prepared cost hundreds of megabytes at company size; the window figures cache keeps the figures anyway.
     if (entry.byWindow.size >= PREPARED_WINDOWS) entry.byWindow.delete(entry.byWindow.keys().next().value!);
-    entry.byWindow.set(window, (prepared = new Map()));
+    entry.byWindow.set(window, (prepared = new Array<PreparedProcess | undefined>(plan.processes.length)));
   }
   return prepared;
 }
@@ -528,9 +525,12 @@ const NO_TREND = Object.freeze([]) as unknown as (number | undefined)[];
 /**
  * A process's monthly trend as long-term z-levels: per month, the z of the product of its characteristics'
  * quick yields (quickYield), where every characteristic has one. Frozen: it is shared by the rows that show it.
+ * `rows[at + i]` is the read-model row of `chars[i]` (−1 for none), as RankingPlan holds them.
  */
 function monthlyTrend(
   chars: readonly Characteristic[],
+  rows: ArrayLike<number>,
+  at: number,
   model: MonthlyStatistics,
   months: { end: number; trendFirstMonth: number; trendMonths: number }
 ): (number | undefined)[] {
@@ -543,9 +543,10 @@ function monthlyTrend(
   }
   const monthly = scratch.monthly.fill(1, 0, months.trendMonths); // product of the month's yields
   const monthlyCount = scratch.count.fill(0, 0, months.trendMonths);
-  for (const c of chars) {
-    const row = model.rowOf(c.id);
-    if (row === undefined) continue;
+  for (let i = 0; i < chars.length; i += 1) {
+    const row = rows[at + i]!;
+    if (row < 0) continue;
+    const c = chars[i]!;
     const fixedLimits = c.limitChanges?.length ? undefined : c;
     for (let m = months.trendFirstMonth; m <= months.end; m += 1) {
       const cell = model.cellOf(row, m);
@@ -567,15 +568,18 @@ function monthlyTrend(
   return Object.freeze(trend) as (number | undefined)[];
 }
 
+/** A process's windows prepared for judging; `rows` and `at` as monthlyTrend reads them. */
 function prepareProcess(
   chars: readonly Characteristic[],
+  rows: ArrayLike<number>,
+  at: number,
   model: MonthlyStatistics,
   options: RankingOptions,
   months: { first: string; end: number; firstMonth: number; trendFirstMonth: number; trendMonths: number }
 ): PreparedProcess {
-  const prepared = chars.map((c): JudgeInput => {
-    const row = model.rowOf(c.id);
-    if (row === undefined) return judgeInput(c, undefined, 0, options.endPeriod);
+  const prepared = chars.map((c, i): JudgeInput => {
+    const row = rows[at + i]!;
+    if (row < 0) return judgeInput(c, undefined, 0, options.endPeriod);
     const { cells, limitsChanged } = windowCells(model, row, c, months, options.endPeriod);
     let cached: { result: WindowFigures | undefined; months: number } | undefined;
     if (options.cache) {
@@ -586,7 +590,7 @@ function prepareProcess(
     } else cached = figuresOfCells(model, cells, c, options);
     return judgeInput(c, cached.result, cached.months, options.endPeriod, limitsChanged);
   });
-  const trend = monthlyTrend(chars, model, months);
+  const trend = monthlyTrend(chars, rows, at, model, months);
   let withData = 0;
   let y = 1;
   for (const c of prepared)
@@ -668,6 +672,8 @@ function figuresOfCells(
  */
 function standingOfProcess(
   chars: readonly Characteristic[],
+  rows: ArrayLike<number>,
+  at: number,
   model: MonthlyStatistics,
   options: RankingOptions,
   months: { firstMonth: number; end: number },
@@ -678,9 +684,10 @@ function standingOfProcess(
   let withData = 0;
   // Judged against an index, a window's fraction and z-level bounds are never read (judgeFigures): left out.
   const bounds = profile?.measure === 'index' ? 'index' : 'all';
-  for (const c of chars) {
-    const row = model.rowOf(c.id);
-    if (row === undefined) continue;
+  for (let i = 0; i < chars.length; i += 1) {
+    const row = rows[at + i]!;
+    if (row < 0) continue;
+    const c = chars[i]!;
     const { result } = figuresOfCells(
       model,
       windowCells(model, row, c, months, options.endPeriod).cells,
@@ -725,6 +732,8 @@ function cellQuickYield(
   return normalYield(model.mean[cell]!, model.sd[cell]!, limits);
 }
 
+const measuredFold = new MomentsFold();
+
 /**
  * A window pooled from the read model's cells, by the rules of windowData (window-study.ts) — or undefined when
  * all months are raw (analysed from their values, rawWindow) or their kinds cannot be pooled together (windowData
@@ -748,13 +757,13 @@ function pooledWindow(
   }
   const months = cells.length;
   if (raw === months) return undefined;
-  if (measured === months)
-    return {
-      ...poolMeasuredMonths(
-        cells.map((cell) => ({ n: model.n[cell]!, mean: model.mean[cell]!, sd: model.sd[cell]! }))
-      ),
-      months
-    };
+  if (measured === months) {
+    // Pooled as poolMeasuredMonths pools, from the cells themselves (one fold reused: a ranking is synchronous).
+    const fold = measuredFold.reset();
+    for (const cell of cells) fold.add(model.n[cell]!, model.mean[cell]!, model.sd[cell]!);
+    const { data, sdWithin } = measuredWindowOf(fold);
+    return sdWithin !== undefined ? { data, sdWithin, months } : { data, months };
+  }
   if (defectives === months)
     return {
       data: poolDefectiveMonths(
@@ -776,7 +785,7 @@ function pooledWindow(
   return undefined;
 }
 
-/** What every pass over the portfolio needs: the months, the index and the read model. */
+/** What every pass over the portfolio needs: the months and the read model. */
 function rankingContext(records: PortfolioRecords, options: RankingOptions) {
   const trendMonths = options.trendMonths ?? 12;
   const end = monthOrdinal(options.endPeriod);
@@ -787,22 +796,13 @@ function rankingContext(records: PortfolioRecords, options: RankingOptions) {
     trendFirstMonth: end - (trendMonths - 1),
     trendMonths
   };
-  return { months, model: statisticsOf(records), index: portfolioIndex(records) };
+  return { months, model: statisticsOf(records) };
 }
 
 /** The prepared windows kept for a full ranking's window (the last few asked for; see preparedFor). */
-function preparedOf(records: PortfolioRecords, options: RankingOptions, model: MonthlyStatistics) {
+function preparedOf(options: RankingOptions, model: MonthlyStatistics, plan: RankingPlan) {
   const key = `${options.endPeriod}|${options.windowMonths}|${options.trendMonths ?? 12}`;
-  return preparedFor(model, records.characteristics, key);
-}
-
-/**
- * The site of a process that the portfolio shows — live, not archived, of a live site — or undefined. A plain
- * test rather than a generator of process objects: two nested generators cost a recompute a tenth of its time.
- */
-function liveSiteOf(process: Process, index: ReturnType<typeof portfolioIndex>) {
-  if (process.deletedAt || process.archivedAt) return undefined;
-  return index.sites.get(process.siteId);
+  return preparedFor(model, plan, key);
 }
 
 /**
@@ -842,13 +842,18 @@ export function portfolioStandings(
   // (their garbage, the heap they grew, and the full rankings' prepared windows they pushed out) than computing
   // them again — in the benchmark at 20 000 processes the first review took 5–12 % less time and 60 MB less
   // memory without, and a review with the window figures cached no more time.
-  const { months, model, index } = rankingContext(records, options);
+  const { months, model } = rankingContext(records, options);
+  const plan = rankingPlan(records, model);
   const standings: ProcessStanding[] = [];
-  for (const process of records.processes) {
-    if (!liveSiteOf(process, index)) continue;
-    const chars = index.characteristics.get(process.id) ?? [];
+  for (let p = 0; p < plan.processes.length; p += 1) {
+    const process = plan.processes[p]!;
+    const chars = plan.characteristics[p]!;
     const profile = profileFor(profiles, process.contextId);
-    const { status, yield: y, withData } = standingOfProcess(chars, model, options, months, profile);
+    const {
+      status,
+      yield: y,
+      withData
+    } = standingOfProcess(chars, plan.rows, plan.start[p]!, model, options, months, profile);
     // As rankPortfolio: a cost where some characteristic has figures; incomplete where not all of them have.
     standings.push({
       process,
@@ -882,12 +887,15 @@ export function processTrends(
   processIds: Iterable<string>,
   options: Pick<RankingOptions, 'endPeriod' | 'trendMonths'>
 ): Map<string, ProcessTrend> {
-  const { months, model, index } = rankingContext(records, { ...options, windowMonths: 1 });
+  const { months, model } = rankingContext(records, { ...options, windowMonths: 1 });
+  const index = portfolioIndex(records);
   const asked = new Set(processIds);
   const trends = new Map<string, ProcessTrend>();
   for (const process of records.processes) {
     if (!asked.has(process.id)) continue;
-    const trend = monthlyTrend(index.characteristics.get(process.id) ?? [], model, months);
+    const chars = index.characteristics.get(process.id) ?? [];
+    const rows = chars.map((c) => model.rowOf(c.id) ?? -1);
+    const trend = monthlyTrend(chars, rows, 0, model, months);
     const shift = shortTermShift(profileFor(profiles, process.contextId));
     trends.set(process.id, {
       trend: shift === 0 ? trend : trend.map((z) => (z === undefined ? undefined : z + shift)),
@@ -927,17 +935,18 @@ export function rankPortfolio(
 ): ProcessRow[] {
   const weights = options.weights ?? DEFAULT_WEIGHTS;
   const rows: ProcessRow[] = [];
-  const { months, model, index } = rankingContext(records, options);
-  const prepared = preparedOf(records, options, model);
+  const { months, model } = rankingContext(records, options);
+  const plan = rankingPlan(records, model);
+  const prepared = preparedOf(options, model, plan);
   // Judging keys of the profiles met, worked out once per profile in this ranking.
   const keys = new Map<ContextProfile | undefined, string>();
-  for (const process of records.processes) {
-    const site = liveSiteOf(process, index);
-    if (!site) continue;
-    let windows = prepared.get(process.id);
+  for (let p = 0; p < plan.processes.length; p += 1) {
+    const process = plan.processes[p]!;
+    const site = plan.sites[p]!;
+    let windows = prepared[p];
     if (!windows) {
-      const chars = index.characteristics.get(process.id) ?? [];
-      prepared.set(process.id, (windows = prepareProcess(chars, model, options, months)));
+      const at = plan.start[p]!;
+      prepared[p] = windows = prepareProcess(plan.characteristics[p]!, plan.rows, at, model, options, months);
     }
     const profile = profileFor(profiles, process.contextId);
     const shift = shortTermShift(profile);
@@ -981,7 +990,7 @@ export function rankPortfolio(
       trend: shiftedTrend(windows, shift),
       trendSlope: windows.trendSlope,
       badges: processBadges(windows, variant),
-      projects: index.openProjects.get(process.id) ?? NO_PROJECTS,
+      projects: plan.openProjects[p] ?? NO_PROJECTS,
       priority: 0,
       riskClass
     };

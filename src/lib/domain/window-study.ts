@@ -1,4 +1,4 @@
-import { poolMoments, pooledWithinSd, type Moments } from '../stats/pooled-moments';
+import { MomentsFold, type Moments } from '../stats/pooled-moments';
 import { summariseValues } from './combine-study-data';
 import type { DefectivesData, DefectsData, Study, StudyData } from './study';
 
@@ -56,13 +56,16 @@ export function windowData(studies: readonly Study[]): WindowData | undefined {
  * (monthly-statistics.ts) pools its cells through it too.
  */
 export function poolMeasuredMonths(parts: readonly Moments[]): Pick<WindowData, 'data' | 'sdWithin'> {
-  let pooled = parts[0]!;
-  for (let i = 1; i < parts.length; i += 1) pooled = poolMoments(pooled, parts[i]!);
-  const sdWithin = pooledWithinSd(parts);
-  return {
-    data: { kind: 'summary', n: pooled.n, mean: pooled.mean, sd: pooled.sd },
-    ...(sdWithin !== undefined ? { sdWithin } : {})
-  };
+  const fold = new MomentsFold();
+  for (const p of parts) fold.add(p.n, p.mean, p.sd);
+  return measuredWindowOf(fold);
+}
+
+/** The window of months pooled into `fold` (MomentsFold, in month order): what poolMeasuredMonths gives for them. */
+export function measuredWindowOf(fold: MomentsFold): Pick<WindowData, 'data' | 'sdWithin'> {
+  const sdWithin = fold.withinSd();
+  const data: StudyData = { kind: 'summary', n: fold.n, mean: fold.mean, sd: fold.sd };
+  return sdWithin !== undefined ? { data, sdWithin } : { data };
 }
 
 /** Months of defectives counts: units and defectives summed. */

@@ -30,20 +30,69 @@ export function summariseMoments(values: ArrayLike<number>): Moments {
 }
 
 export function poolMoments(a: Moments, b: Moments): Moments {
-  const n = a.n + b.n;
-  const delta = b.mean - a.mean;
-  const mean = a.mean + (delta * b.n) / n;
-  const m2 = a.sd * a.sd * (a.n - 1) + b.sd * b.sd * (b.n - 1) + (delta * delta * a.n * b.n) / n;
-  return { n, mean, sd: Math.sqrt(m2 / (n - 1)) };
+  return pairInto({ n: 0, mean: 0, sd: 0 }, a.n, a.mean, a.sd, b.n, b.mean, b.sd);
+}
+
+/** The pairwise update of Chan, Golub & LeVeque, written into `out` (which may be the first sample itself). */
+function pairInto(
+  out: Moments,
+  nA: number,
+  meanA: number,
+  sdA: number,
+  nB: number,
+  meanB: number,
+  sdB: number
+): Moments {
+  const n = nA + nB;
+  const delta = meanB - meanA;
+  const mean = meanA + (delta * nB) / n;
+  const m2 = sdA * sdA * (nA - 1) + sdB * sdB * (nB - 1) + (delta * delta * nA * nB) / n;
+  out.n = n;
+  out.mean = mean;
+  out.sd = Math.sqrt(m2 / (n - 1));
+  return out;
+}
+
+/**
+ * Samples pooled one after another: the moments as poolMoments folds them from the first (each merge taking the
+ * sd the previous one gave), and the sums of pooledWithinSd. One object reused for any number of samples, so
+ * that the portfolio's read model pools the months of a window from its typed arrays without an object per month
+ * (at company size those objects were a tenth of the quarterly review's time).
+ */
+export class MomentsFold implements Moments {
+  n = 0;
+  mean = 0;
+  sd = 0;
+  /** Samples added since the last reset. */
+  count = 0;
+  #df = 0;
+  #ss = 0;
+
+  reset(): this {
+    this.n = this.mean = this.sd = this.count = this.#df = this.#ss = 0;
+    return this;
+  }
+
+  add(n: number, mean: number, sd: number): void {
+    if (this.count === 0) {
+      this.n = n;
+      this.mean = mean;
+      this.sd = sd;
+    } else pairInto(this, this.n, this.mean, this.sd, n, mean, sd);
+    this.count += 1;
+    this.#df += n - 1;
+    this.#ss += (n - 1) * sd * sd;
+  }
+
+  /** pooledWithinSd of the samples added. */
+  withinSd(): number | undefined {
+    return this.#df > 0 ? Math.sqrt(this.#ss / this.#df) : undefined;
+  }
 }
 
 /** Pooled within-sample sd of the parts, or undefined when they hold no degree of freedom. */
 export function pooledWithinSd(parts: readonly Moments[]): number | undefined {
-  let df = 0;
-  let ss = 0;
-  for (const p of parts) {
-    df += p.n - 1;
-    ss += (p.n - 1) * p.sd * p.sd;
-  }
-  return df > 0 ? Math.sqrt(ss / df) : undefined;
+  const fold = new MomentsFold();
+  for (const p of parts) fold.add(p.n, p.mean, p.sd);
+  return fold.withinSd();
 }
