@@ -440,8 +440,17 @@ interface PreparedProcess {
   badges: Partial<Record<BadgeVariant, Badge[]>> | undefined;
   /** The trend with a context's shift added, for the last shift asked for (shiftedTrend). */
   shifted: { shift: number; trend: (number | undefined)[] } | undefined;
-  /** The characteristics as last judged (judgeProcess), under a profile with that judging key (judgingKeyOf). */
-  judged: ReturnType<typeof judgeProcess> | undefined;
+  /**
+   * The characteristics as last judged (judgeProcess), under a profile with this judging key (judgingKeyOf):
+   * their rows, the process's status (the worst of theirs), the weakest (smallest gap) and whether any with data
+   * is not shown to meet its target. Fields of the process, not an object of their own: a recompute after a
+   * target change judges every process again.
+   */
+  judgedKey: string | undefined;
+  judgedRows: CharacteristicRow[];
+  judgedStatus: CharacteristicStatus;
+  judgedWeakest: CharacteristicRow | undefined;
+  judgedNotShown: number;
 }
 
 /**
@@ -580,13 +589,15 @@ function prepareProcess(
   const prepared = chars.map((c, i): JudgeInput => {
     const row = rows[at + i]!;
     if (row < 0) return judgeInput(c, undefined, 0, options.endPeriod);
-    const { cells, limitsChanged } = windowCells(model, row, c, months, options.endPeriod);
+    const cells = windowCellsScratch;
+    const limitsChanged = windowCells(model, row, c, months, options.endPeriod, cells);
     let cached: { result: WindowFigures | undefined; months: number } | undefined;
     if (options.cache) {
-      const stamps = cells.map((cell) => model.stamp[cell]!);
-      cached = options.cache.get(c, months.first, stamps);
-      if (!cached)
-        options.cache.set(c, months.first, stamps, (cached = figuresOfCells(model, cells, c, options)));
+      const stamps = new Array<number>(cells.length);
+      for (let k = 0; k < cells.length; k += 1) stamps[k] = model.stamp[cells[k]!]!;
+      cached =
+        options.cache.get(c, months.first, stamps) ??
+        options.cache.set(c, months.first, stamps, figuresOfCells(model, cells, c, options));
     } else cached = figuresOfCells(model, cells, c, options);
     return judgeInput(c, cached.result, cached.months, options.endPeriod, limitsChanged);
   });
@@ -612,21 +623,30 @@ function prepareProcess(
     zLevel: normalUpperQuantile(Math.min(1, 1 - y)),
     badges: undefined,
     shifted: undefined,
-    judged: undefined
+    judgedKey: undefined,
+    judgedRows: NO_ROWS,
+    judgedStatus: 'no recent data',
+    judgedWeakest: undefined,
+    judgedNotShown: 0
   };
 }
 
+/** The rows of a process not judged yet (shared, frozen). */
+const NO_ROWS = Object.freeze([]) as unknown as CharacteristicRow[];
+
 /**
  * The cells of a characteristic's window that count (WINDOW_RULE: the months under the limits in force in its
- * last month), and whether earlier months of the window were left out for that reason.
+ * last month), written into `cells` (emptied first), and whether earlier months of the window were left out for
+ * that reason. The callers pass windowCellsScratch: an array per window was garbage the size of the portfolio.
  */
 function windowCells(
   model: MonthlyStatistics,
   row: number,
   c: Characteristic,
   months: { firstMonth: number; end: number },
-  endPeriod: string
-): { cells: number[]; limitsChanged: boolean } {
+  endPeriod: string,
+  cells: number[]
+): boolean {
   const since = c.limitChanges?.length ? changeInForce(c, endPeriod)?.from : undefined;
   const from = since === undefined ? months.firstMonth : Math.max(months.firstMonth, monthOrdinal(since));
   let limitsChanged = false;
@@ -634,13 +654,16 @@ function windowCells(
     const cell = model.cellOf(row, m);
     if (cell >= 0 && model.kind[cell] !== CELL.empty) limitsChanged = true;
   }
-  const cells: number[] = [];
+  cells.length = 0;
   for (let m = from; m <= months.end; m += 1) {
     const cell = model.cellOf(row, m);
     if (cell >= 0 && model.kind[cell] !== CELL.empty) cells.push(cell);
   }
-  return { cells, limitsChanged };
+  return limitsChanged;
 }
+
+/** The one array windowCells writes into: read at once by its caller (a ranking is synchronous), never kept. */
+const windowCellsScratch: number[] = [];
 
 /**
  * A window's figures from its cells (none where its months cannot be pooled or analysed), and its months.
@@ -688,13 +711,8 @@ function standingOfProcess(
     const row = rows[at + i]!;
     if (row < 0) continue;
     const c = chars[i]!;
-    const { result } = figuresOfCells(
-      model,
-      windowCells(model, row, c, months, options.endPeriod).cells,
-      c,
-      options,
-      bounds
-    );
+    windowCells(model, row, c, months, options.endPeriod, windowCellsScratch);
+    const { result } = figuresOfCells(model, windowCellsScratch, c, options, bounds);
     if (!result) continue;
     withData += 1;
     y *= result.yield;
@@ -805,11 +823,8 @@ function preparedOf(options: RankingOptions, model: MonthlyStatistics, plan: Ran
   return preparedFor(model, plan, key);
 }
 
-/**
- * A process's characteristics judged: their rows, the process's status (the worst of theirs), the weakest
- * (smallest gap) and whether any with data is not shown to meet its target.
- */
-function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefined, key: string) {
+/** A process's characteristics judged under a profile with this judging key, into its judged fields. */
+function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefined, key: string): void {
   // Mapped, not pushed: an array grown by push keeps room for 17 rows, most of a row's memory at company size.
   // Frozen: kept with the prepared windows, the rows are shared by the rankings that judge them alike.
   const rows = Object.freeze(
@@ -824,7 +839,11 @@ function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefi
     if (!weakest || (r.zGap ?? Infinity) < (weakest.zGap ?? Infinity)) weakest = r;
     if (r.status !== 'meets, shown') notShown = 1;
   }
-  return { rows, status, weakest, notShown, key };
+  windows.judgedKey = key;
+  windows.judgedRows = rows;
+  windows.judgedStatus = status;
+  windows.judgedWeakest = weakest;
+  windows.judgedNotShown = notShown;
 }
 
 /**
@@ -958,9 +977,11 @@ export function rankPortfolio(
     let key = keys.get(profile);
     if (key === undefined) keys.set(profile, (key = judgingKeyOf(profile)));
     // Judged again only under a profile that judges differently (the rows are shared, like the windows).
-    let judged = windows.judged;
-    if (judged?.key !== key) windows.judged = judged = judgeProcess(windows, profile, key);
-    const { rows: charRows, status, weakest, notShown } = judged;
+    if (windows.judgedKey !== key) judgeProcess(windows, profile, key);
+    const charRows = windows.judgedRows;
+    const status = windows.judgedStatus;
+    const weakest = windows.judgedWeakest;
+    const notShown = windows.judgedNotShown;
     const riskClass = windows.riskClass;
     // One object literal with every field (undefined where not known): rows built field by field went through
     // a dozen shapes each, a third of a recompute at company size.

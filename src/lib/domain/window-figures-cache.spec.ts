@@ -8,7 +8,7 @@ describe('window figures cache', () => {
     const cache = new WindowFiguresCache();
     const c = { id: 'c1', rev: 2 };
     cache.set(c, '2026-01', [1, 2], value(2));
-    expect(cache.get(c, '2026-01', [1, 2])).toEqual(value(2));
+    expect(cache.get(c, '2026-01', [1, 2])).toMatchObject(value(2));
     expect(cache.get({ id: 'c1', rev: 3 }, '2026-01', [1, 2])).toBeUndefined();
     expect(cache.get(c, '2026-02', [1, 2])).toBeUndefined();
     expect(cache.get(c, '2026-01', [1, 3])).toBeUndefined();
@@ -22,6 +22,6 @@ describe('window figures cache', () => {
     for (let i = 0; i < 30; i += 1) cache.set(c, `w${i}`, [i], value(i));
     expect(cache.size).toBe(24);
     expect(cache.get(c, 'w0', [0])).toBeUndefined();
-    expect(cache.get(c, 'w29', [29])).toEqual(value(29));
+    expect(cache.get(c, 'w29', [29])).toMatchObject(value(29));
   });
 });

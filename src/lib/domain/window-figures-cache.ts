@@ -6,17 +6,17 @@ const PER_CHARACTERISTIC = 24;
 /** Entries in all; beyond it the cache starts again (characteristics deleted or reloaded under new ids). */
 const TOTAL = 500_000;
 
-interface Entry {
+export interface CachedWindow {
+  result: WindowFigures | undefined;
+  months: number;
+}
+
+/** A window kept: its figures, with what finds them (one object per window: there are tens of thousands). */
+interface Entry extends CachedWindow {
   rev: number;
   first: string;
   /** A plain array: a typed array costs some hundred bytes of its own, times every window kept. */
   stamps: number[];
-  value: CachedWindow;
-}
-
-export interface CachedWindow {
-  result: WindowFigures | undefined;
-  months: number;
 }
 
 /**
@@ -50,14 +50,22 @@ export class WindowFiguresCache {
       if (e.rev !== c.rev || e.first !== first || e.stamps.length !== stamps.length) continue;
       let same = true;
       for (let i = 0; i < stamps.length && same; i += 1) same = e.stamps[i] === stamps[i];
-      if (same) return e.value;
+      if (same) return e;
     }
     return undefined;
   }
 
-  /** `stamps` is kept as given, not copied (the ranking hands over an array it made for the lookup). */
-  set(c: Pick<Characteristic, 'id' | 'rev'>, first: string, stamps: number[], value: CachedWindow): void {
-    const entry: Entry = { rev: c.rev, first, stamps, value };
+  /**
+   * `stamps` is kept as given, not copied (the ranking hands over an array it made for the lookup). Returns the
+   * window as kept, which `get` gives from then on (the value's fields, not the value).
+   */
+  set(
+    c: Pick<Characteristic, 'id' | 'rev'>,
+    first: string,
+    stamps: number[],
+    value: CachedWindow
+  ): CachedWindow {
+    const entry: Entry = { result: value.result, months: value.months, rev: c.rev, first, stamps };
     if (this.#size >= TOTAL) this.clear();
     const entries = this.#byCharacteristic.get(c.id);
     if (!entries) {
@@ -71,5 +79,6 @@ export class WindowFiguresCache {
       entries.shift();
       entries.push(entry);
     }
+    return entry;
   }
 }
