@@ -283,4 +283,16 @@ test('on a phone, the z-level chart leaves its bars room beside the names, and t
       .every((t) => t.getBoundingClientRect().right <= box.right + 0.5);
   });
   expect(inside).toBe(true);
+  // The sites chart names every site down its side (across it, a phone showed the first and the last only).
+  const siteNames = await page.getByTestId('sites-table').locator('tbody th[scope="row"]').allTextContents();
+  expect(siteNames.length).toBeGreaterThan(2);
+  const sitesSvg = page
+    .locator('figure')
+    .filter({ has: page.locator('figcaption', { hasText: /^z-levels of each site's processes/ }) })
+    .locator('[data-testid="chart"] svg');
+  await expect(sitesSvg.locator('text').filter({ hasText: /^z-level$/ })).toHaveCount(1);
+  const written = await sitesSvg.locator('text').allTextContents();
+  // Long names end in an ellipsis where the room runs out: their first ten characters are written.
+  for (const name of siteNames)
+    expect(written.some((t) => t.startsWith(name.trim().slice(0, 10)))).toBe(true);
 });

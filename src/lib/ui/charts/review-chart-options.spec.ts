@@ -7,6 +7,7 @@ import type { ReviewProcessLine } from '../../domain/review-figures';
 import {
   movementOption,
   paretoRows,
+  siteBandsHeight,
   siteDistributionOption,
   zAgainstTargetOption
 } from './review-chart-options';
@@ -87,5 +88,42 @@ describe('long portfolios', () => {
       expect(series.largeThreshold).toBeGreaterThan(series.data.length);
       expect(series.largeThreshold).toBeLessThan(2000);
     }
+  });
+});
+
+describe('the sites chart', () => {
+  it('names every site down the side, one band each, with each process at its z-level', () => {
+    const site = (i: number, zLevels: number[]) => ({
+      siteId: `s${i}`,
+      site: `Site ${i}`,
+      processes: zLevels.length,
+      reviewed: zLevels.length,
+      meeting: 0,
+      share: 0,
+      cost: { byCurrency: [] },
+      zLevels,
+      medianZ: zLevels.length ? zLevels[0] : undefined
+    });
+    const sites = Array.from({ length: 50 }, (_, i) => site(i, i === 3 ? [2.5, 4] : [3]));
+    const option = siteDistributionOption({ quarter: '2026-Q3', sites } as unknown as Parameters<
+      typeof siteDistributionOption
+    >[0]) as {
+      yAxis: { type: string; data: string[]; axisLabel: { interval: number } };
+      xAxis: { type: string };
+      series: { name: string; data: ([number, number] | null)[] }[];
+    };
+    expect(option.yAxis.type).toBe('category');
+    expect(option.yAxis.data).toHaveLength(50);
+    // Interval 0: no name is left out to make room (ECharts hides crowded category names otherwise).
+    expect(option.yAxis.axisLabel.interval).toBe(0);
+    expect(option.xAxis.type).toBe('value');
+    const points = option.series.find((x) => x.name === 'process')!.data;
+    expect(points.filter((p) => p![1] === 3)).toEqual([
+      [2.5, 3],
+      [4, 3]
+    ]);
+    // Room for each band grows with the sites: 50 sites get more than a few.
+    expect(parseFloat(siteBandsHeight(50))).toBeGreaterThan(parseFloat(siteBandsHeight(5)));
+    expect(parseFloat(siteBandsHeight(50)) * 16).toBeGreaterThanOrEqual(50 * 20);
   });
 });

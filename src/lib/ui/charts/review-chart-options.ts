@@ -189,20 +189,25 @@ export function movementOption(figures: ReviewFigures): EChartsCoreOption {
   };
 }
 
-/** The z-levels of each site's processes as points, with the site's median. */
+/**
+ * The z-levels of each site's processes as points, with the site's median: sites down the side, one band each
+ * (siteBandsHeight), so that every site is named — across the chart, 50 sites left room for a few names at most,
+ * and on a phone for the first and the last.
+ */
 export function siteDistributionOption(figures: ReviewFigures): EChartsCoreOption {
   const sites = figures.sites;
   return {
     ...base,
-    grid: { left: 8, right: 24, top: 28, bottom: 8, containLabel: true },
+    grid: { left: 8, right: 24, top: 28, bottom: 24, containLabel: true },
     legend: { top: 0, data: ['process', 'median'] },
     tooltip: { trigger: 'item' },
-    xAxis: {
+    xAxis: { type: 'value', name: 'z-level', nameLocation: 'middle', nameGap: 24 },
+    yAxis: {
       type: 'category',
       data: sites.map((s) => s.site),
-      axisLabel: { width: 120, overflow: 'truncate' }
+      inverse: true,
+      axisLabel: { width: 160, overflow: 'truncate', interval: 0 }
     },
-    yAxis: { type: 'value', name: 'z-level' },
     series: [
       {
         type: 'scatter',
@@ -210,18 +215,23 @@ export function siteDistributionOption(figures: ReviewFigures): EChartsCoreOptio
         ...MANY_POINTS,
         symbolSize: 8,
         itemStyle: { color: TARGET, opacity: 0.7 },
-        data: sites.flatMap((s, i) => s.zLevels.map((z) => [i, round(z)]))
+        data: sites.flatMap((s, i) => s.zLevels.map((z) => [round(z), i]))
       },
       {
         type: 'scatter',
         name: 'median',
         symbol: 'rect',
-        symbolSize: [28, 3],
+        symbolSize: [3, 14],
         itemStyle: { color: SHORT },
-        data: sites.map((s, i) => (s.medianZ === undefined ? null : [i, round(s.medianZ)]))
+        data: sites.map((s, i) => (s.medianZ === undefined ? null : [round(s.medianZ), i]))
       }
     ]
   };
+}
+
+/** The height of a chart with one band per site (siteDistributionOption), as a CSS length. */
+export function siteBandsHeight(sites: number): string {
+  return `${Math.max(14, sites * 1.4 + 5)}rem`;
 }
 
 /** Share of reviewed processes meeting target, and meeting it with confidence, over the last quarters. */
