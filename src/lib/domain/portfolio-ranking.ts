@@ -470,7 +470,8 @@ function judgingKeyOf(profile: ContextProfile | undefined): string {
  * window cost more memory than the trends it held.
  */
 function shiftedTrend(p: PreparedProcess, shift: number): (number | undefined)[] {
-  if (shift === 0) return p.trend;
+  // No trend computed (`trendMonths: 0`, as the portfolio's worker ranks): nothing to shift.
+  if (shift === 0 || p.trend.length === 0) return p.trend;
   if (p.shifted?.shift !== shift) {
     const trend = p.trend.map((z) => (z === undefined ? undefined : z + shift));
     p.shifted = { shift, trend: Object.freeze(trend) as (number | undefined)[] };
@@ -491,8 +492,15 @@ function processBadges(p: PreparedProcess, variant: BadgeVariant): Badge[] {
     if (c.limitsChanged) set.add('limits changed');
   }
   if (p.withData && p.withData < p.characteristics.length) set.add('incomplete');
-  return (kept[variant] = Object.freeze([...set]) as Badge[]);
+  // Interned: a portfolio has a handful of different lists, and an array per process was one more object each.
+  const key = [...set].join('|');
+  let list = processBadgeLists.get(key);
+  if (!list) processBadgeLists.set(key, (list = Object.freeze([...set]) as Badge[]));
+  return (kept[variant] = list);
 }
+
+/** Every list of process badges met so far, by its badges joined (frozen and shared, as badgeSet's). */
+const processBadgeLists = new Map<string, Badge[]>();
 
 /**
  * Prepared windows per read model and window, one per process of its ranking plan (in the plan's order): a
