@@ -503,33 +503,23 @@ function processBadges(p: PreparedProcess, variant: BadgeVariant): Badge[] {
 const processBadgeLists = new Map<string, Badge[]>();
 
 /**
- * Prepared windows per read model and window, one per process of its ranking plan (in the plan's order): a
- * change of target, weight or order re-judges these without looking at a study again. A new plan (a study
- * written changes the model's version; new record arrays) starts them again.
+ * Prepared windows per ranking plan and window, one per process of the plan (in its order): a change of target,
+ * weight or order re-judges these without looking at a study again. A new plan (a study written changes the
+ * model's version; new record arrays) starts them again.
  */
-const preparedWindows = new WeakMap<
-  MonthlyStatistics,
-  { plan: RankingPlan; byWindow: Map<string, (PreparedProcess | undefined)[]> }
->();
+const preparedWindows = new WeakMap<RankingPlan, Map<string, (PreparedProcess | undefined)[]>>();
 
 const PREPARED_WINDOWS = 4;
 
-function preparedFor(
-  model: MonthlyStatistics,
-  plan: RankingPlan,
-  window: string
-): (PreparedProcess | undefined)[] {
-  let entry = preparedWindows.get(model);
-  if (!entry || entry.plan !== plan) {
-    entry = { plan, byWindow: new Map() };
-    preparedWindows.set(model, entry);
-  }
-  let prepared = entry.byWindow.get(window);
+function preparedFor(plan: RankingPlan, window: string): (PreparedProcess | undefined)[] {
+  let byWindow = preparedWindows.get(plan);
+  if (!byWindow) preparedWindows.set(plan, (byWindow = new Map()));
+  let prepared = byWindow.get(window);
   if (!prepared) {
     // The windows of the last few requests only: the review ranks ten quarters, and keeping every one of them
     // prepared cost hundreds of megabytes at company size; the window figures cache keeps the figures anyway.
-    if (entry.byWindow.size >= PREPARED_WINDOWS) entry.byWindow.delete(entry.byWindow.keys().next().value!);
-    entry.byWindow.set(window, (prepared = new Array<PreparedProcess | undefined>(plan.processes.length)));
+    if (byWindow.size >= PREPARED_WINDOWS) byWindow.delete(byWindow.keys().next().value!);
+    byWindow.set(window, (prepared = new Array<PreparedProcess | undefined>(plan.processes.length)));
   }
   return prepared;
 }
@@ -826,9 +816,9 @@ function rankingContext(records: PortfolioRecords, options: RankingOptions) {
 }
 
 /** The prepared windows kept for a full ranking's window (the last few asked for; see preparedFor). */
-function preparedOf(options: RankingOptions, model: MonthlyStatistics, plan: RankingPlan) {
+function preparedOf(options: RankingOptions, plan: RankingPlan) {
   const key = `${options.endPeriod}|${options.windowMonths}|${options.trendMonths ?? 12}`;
-  return preparedFor(model, plan, key);
+  return preparedFor(plan, key);
 }
 
 /** A process's characteristics judged under a profile with this judging key, into its judged fields. */
@@ -865,29 +855,80 @@ export function portfolioStandings(
   profiles: readonly ContextProfile[],
   options: RankingOptions
 ): ProcessStanding[] {
-  // Neither cached nor kept: eight quarters of every process's windows held for the review's trend cost more
-  // (their garbage, the heap they grew, and the full rankings' prepared windows they pushed out) than computing
-  // them again — in the benchmark at 20 000 processes the first review took 5–12 % less time and 60 MB less
-  // memory without, and a review with the window figures cached no more time.
+  // No window is kept: eight quarters of every process's windows held for the review's trend cost more (their
+  // garbage, the heap they grew, and the full rankings' prepared windows they pushed out) than computing them
+  // again. What is kept is the judging itself, three numbers per process and quarter (judgedStandings): stepping
+  // to the next quarter, or changing the reporting currency, judges again only the quarters not seen.
   const { months, model } = rankingContext(records, options);
   const plan = rankingPlan(records, model);
-  const standings: ProcessStanding[] = [];
+  const judged = judgedStandings(plan, profiles, options, () => {
+    const count = plan.processes.length;
+    const out = {
+      status: new Uint8Array(count),
+      yield: new Float64Array(count),
+      withData: new Int32Array(count)
+    };
+    for (let p = 0; p < count; p += 1) {
+      const profile = profileFor(profiles, plan.processes[p]!.contextId);
+      const s = standingOfProcess(
+        plan.characteristics[p]!,
+        plan.rows,
+        plan.start[p]!,
+        model,
+        options,
+        months,
+        profile
+      );
+      out.status[p] = STATUS_RANK[s.status];
+      out.yield[p] = s.yield;
+      out.withData[p] = s.withData;
+    }
+    return out;
+  });
+  const standings = new Array<ProcessStanding>(plan.processes.length);
   for (let p = 0; p < plan.processes.length; p += 1) {
     const process = plan.processes[p]!;
-    const chars = plan.characteristics[p]!;
-    const profile = profileFor(profiles, process.contextId);
-    const {
-      status,
-      yield: y,
-      withData
-    } = standingOfProcess(chars, plan.rows, plan.start[p]!, model, options, months, profile);
+    const withData = judged.withData[p]!;
     // As rankPortfolio: a cost where some characteristic has figures; incomplete where not all of them have.
-    standings.push({
+    standings[p] = {
       process,
-      status,
-      costPerYear: withData ? costPerYear(1 - y, process) : undefined,
-      incomplete: withData > 0 && withData < chars.length
-    });
+      status: STATUS_ORDER[judged.status[p]!]!,
+      costPerYear: withData ? costPerYear(1 - judged.yield[p]!, process) : undefined,
+      incomplete: withData > 0 && withData < plan.characteristics[p]!.length
+    };
+  }
+  return standings;
+}
+
+/** Each process of a plan as standingOfProcess judged it for one window: status (its STATUS_ORDER position), yield, count. */
+interface JudgedStandings {
+  status: Uint8Array;
+  yield: Float64Array;
+  withData: Int32Array;
+}
+
+/** Standings kept per plan (a new plan — records or studies changed — starts afresh), for the last few windows. */
+const standingsByPlan = new WeakMap<RankingPlan, Map<string, JudgedStandings>>();
+const STANDINGS_KEPT = 12;
+
+/**
+ * The standings of a window under these profiles, judged by `judge` the first time. Found by the window and by
+ * what judging reads of every profile (judgingKeyOf): a change of weights or order, which standings never read,
+ * finds them; a change of target does not.
+ */
+function judgedStandings(
+  plan: RankingPlan,
+  profiles: readonly ContextProfile[],
+  options: RankingOptions,
+  judge: () => JudgedStandings
+): JudgedStandings {
+  let kept = standingsByPlan.get(plan);
+  if (!kept) standingsByPlan.set(plan, (kept = new Map()));
+  const key = `${options.endPeriod}|${options.windowMonths}|${profiles.map((p) => `${p.id}=${judgingKeyOf(p)}`).join(';')}`;
+  let standings = kept.get(key);
+  if (!standings) {
+    if (kept.size >= STANDINGS_KEPT) kept.delete(kept.keys().next().value!);
+    kept.set(key, (standings = judge()));
   }
   return standings;
 }
@@ -964,7 +1005,7 @@ export function rankPortfolio(
   const rows: ProcessRow[] = [];
   const { months, model } = rankingContext(records, options);
   const plan = rankingPlan(records, model);
-  const prepared = preparedOf(options, model, plan);
+  const prepared = preparedOf(options, plan);
   // Judging keys of the profiles met, worked out once per profile in this ranking.
   const keys = new Map<ContextProfile | undefined, string>();
   for (let p = 0; p < plan.processes.length; p += 1) {

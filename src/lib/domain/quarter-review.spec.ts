@@ -87,6 +87,28 @@ describe('the trend quarters and the year-ago quarter judged without rows', () =
       expect(new Set(standings.map((s) => s.status)).size).toBeGreaterThan(2);
     }
   });
+
+  it('are kept per window and judging, yet follow every change of target, as if judged from scratch', () => {
+    const records = parseDemoPortfolio(demo).records;
+    const options = { endPeriod: '2026-09', windowMonths: 3, trendMonths: 0 };
+    // Stricter and looser targets for every context, then the built-in ones again: each must be judged anew
+    // (kept standings found for the built-in targets the second time), never found under another target's key.
+    const scaled = (f: number) =>
+      BUILT_IN_PROFILES.map((p) => ({
+        ...p,
+        levels: { standard: p.levels.standard * f, key: p.levels.key * f, safety: p.levels.safety * f }
+      }));
+    const seen = new Set<string>();
+    for (const profiles of [BUILT_IN_PROFILES, scaled(1.3), scaled(0.7), BUILT_IN_PROFILES]) {
+      const kept = portfolioStandings(records, profiles, options);
+      // From scratch: a record set of its own (another read model, so another plan): nothing judged before is found.
+      const fresh = portfolioStandings({ ...records, studies: [...records.studies] }, profiles, options);
+      expect(kept).toEqual(fresh);
+      seen.add(kept.map((s) => s.status).join());
+    }
+    // The targets changed the statuses (the comparison is not between unchanged lists).
+    expect(seen.size).toBeGreaterThan(1);
+  });
 });
 
 describe("the projects' before-and-after figures", () => {

@@ -189,11 +189,23 @@ const ASSUMPTION_TOPICS: Badge[] = [
   'incomplete'
 ];
 
+/**
+ * The records of the chosen sites only. The same record set for the same choice (the last one made is kept per
+ * record set): what a ranking resolves and keeps for a record set (its plan, the quarters it judged) is then
+ * found again when the review is built anew for those sites, in another quarter or currency.
+ */
 function scoped(records: PortfolioRecords, siteIds: readonly string[] | undefined): PortfolioRecords {
   if (!siteIds || siteIds.length === 0) return records;
+  const key = [...siteIds].sort().join('\n');
+  const kept = scopedRecords.get(records);
+  if (kept?.key === key) return kept.records;
   const sites = new Set(siteIds);
-  return { ...records, sites: records.sites.filter((s) => sites.has(s.id)) };
+  const chosen = { ...records, sites: records.sites.filter((s) => sites.has(s.id)) };
+  scopedRecords.set(records, { key, records: chosen });
+  return chosen;
 }
+
+const scopedRecords = new WeakMap<PortfolioRecords, { key: string; records: PortfolioRecords }>();
 
 export function buildQuarterReview(
   allRecords: PortfolioRecords,

@@ -29,15 +29,17 @@ export interface RankingPlan {
 const NO_CHARACTERISTICS: readonly Characteristic[] = Object.freeze([]);
 
 /**
- * Plans kept per read model, for the record arrays and the model version they were made from. Rows never move
- * in a model (they are only added), but a characteristic without a row gets one when its first study is
+ * Plans kept per process array (the review ranks a few processes of the same records now and then, each time
+ * in an array of their own: keyed by the model, their plans pushed out the whole portfolio's, and everything
+ * kept with it), for the read model, its version and the other record arrays they were made from. Rows never
+ * move in a model (they are only added), but a characteristic without a row gets one when its first study is
  * written — which changes the version.
  */
 const plans = new WeakMap<
-  MonthlyStatistics,
+  readonly Process[],
   {
+    model: MonthlyStatistics;
     version: number;
-    processes: readonly Process[];
     characteristics: readonly Characteristic[];
     sites: readonly Site[];
     projects: readonly ImprovementProject[];
@@ -47,20 +49,20 @@ const plans = new WeakMap<
 
 /** The plan of these records over this read model (built on first use, then kept while neither changes). */
 export function rankingPlan(records: PortfolioRecords, model: MonthlyStatistics): RankingPlan {
-  const kept = plans.get(model);
+  const kept = plans.get(records.processes);
   if (
     kept &&
+    kept.model === model &&
     kept.version === model.version &&
-    kept.processes === records.processes &&
     kept.characteristics === records.characteristics &&
     kept.sites === records.sites &&
     kept.projects === records.projects
   )
     return kept.plan;
   const plan = planOf(records, model);
-  plans.set(model, {
+  plans.set(records.processes, {
+    model,
     version: model.version,
-    processes: records.processes,
     characteristics: records.characteristics,
     sites: records.sites,
     projects: records.projects,
