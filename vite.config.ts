@@ -3,6 +3,7 @@ import { SvelteKitPWA } from '@vite-pwa/sveltekit';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
+import { chartCompileHint } from './src/build/chart-compile-hint';
 
 const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as {
   version: string;
@@ -24,6 +25,7 @@ export default defineConfig({
   worker: { format: 'es' },
   plugins: [
     sveltekit(),
+    chartCompileHint(),
     SvelteKitPWA({
       // base and scope fixed at the root: deep links must not register the worker at their own path.
       base: '/',

@@ -2,6 +2,7 @@
  * Size budget of the built app, checked in the test command (sizes, never times):
  *  - JavaScript fetched by a first visit to the portfolio page, gzip-compressed: under FIRST_PAGE_BUDGET;
  *  - the chart library and the demo portfolio are never part of that first page;
+ *  - the chart library's chunk opens with V8's compile hint (src/build/chart-compile-hint.ts);
  *  - everything the service worker precaches: under PRECACHE_BUDGET (uncompressed, what lands on the device).
  * The first page is measured in real Chromium: the scripts it actually requested, not a guess from the graph.
  * Prints the figures; exits 1 when a budget is exceeded.
@@ -142,6 +143,14 @@ for (const [label, file] of Object.entries(lazyOnly)) {
     console.log(`budget: the ${label} chunk (${file}) is loaded by the first page; it must load lazily`);
     failures += 1;
   }
+}
+const chartChunk = lazyOnly['chart library'];
+if (
+  chartChunk &&
+  !readFileSync(join(build, chartChunk), 'utf8').startsWith('//# allFunctionsCalledOnLoad\n')
+) {
+  console.log(`budget: the chart library chunk (${chartChunk}) does not open with its compile hint`);
+  failures += 1;
 }
 if (precacheBytes > PRECACHE_BUDGET) {
   console.log(`budget: precache ${kb(precacheBytes)} exceeds ${kb(PRECACHE_BUDGET)}`);
