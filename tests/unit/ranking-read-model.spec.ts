@@ -19,6 +19,7 @@ import { addMonths, periodsOfQuarter } from '../../src/lib/domain/period';
 import {
   costPerYear,
   judgeCharacteristic,
+  portfolioStandings,
   processTrends,
   quickYield,
   rankPortfolio,
@@ -320,6 +321,51 @@ describe('the indexed, cached ranking gives the figures of a plain record-by-rec
         expectPlainFigures(rows, plain);
       }),
       { numRuns: 150, seed: 20261204 }
+    );
+  });
+
+  it('ranks a read model written between rankings as a fresh one: what a ranking keeps never outlives a write', () => {
+    // As the app's workers hold them: one record set whose read model takes each write in place. Plans,
+    // prepared windows, judged rows and kept standings are found by the model's version; ranked after every
+    // batch, each ranking must equal one of a model built afresh from the studies written so far.
+    fc.assert(
+      fc.property(
+        portfolioArb,
+        fc.integer({ min: 1, max: 6 }),
+        fc.integer({ min: 2, max: 14 }),
+        (records, step, end) => {
+          const model = new MonthlyStatistics();
+          const live: PortfolioRecords = { ...records, studies: [], statistics: model };
+          const options = {
+            endPeriod: MONTHS[end]!,
+            windowMonths: 3,
+            trendMonths: 6,
+            cache: new WindowFiguresCache()
+          };
+          const quarter = { ...options, trendMonths: 0 };
+          for (let i = 0; i < records.studies.length;) {
+            const batch = records.studies.slice(i, (i += step));
+            model.putAll(batch);
+            if (model.needsRebuild) return;
+            // Arrays of its own: nothing the live record set's rankings kept is found for it.
+            const written: PortfolioRecords = {
+              sites: [...records.sites],
+              processes: [...records.processes],
+              characteristics: [...records.characteristics],
+              projects: [...records.projects],
+              studies: records.studies.slice(0, i)
+            };
+            const fresh = { ...options, cache: new WindowFiguresCache() };
+            expect(rankPortfolio(live, BUILT_IN_PROFILES, options)).toEqual(
+              rankPortfolio(written, BUILT_IN_PROFILES, fresh)
+            );
+            expect(portfolioStandings(live, BUILT_IN_PROFILES, quarter)).toEqual(
+              portfolioStandings(written, BUILT_IN_PROFILES, { ...quarter, cache: new WindowFiguresCache() })
+            );
+          }
+        }
+      ),
+      { numRuns: 60, seed: 20261203 }
     );
   });
 
