@@ -77,7 +77,9 @@ test('the review of a demo quarter shows the right headline, keeps a note and pr
     'Share meeting target held; cost fell at two sites.'
   );
 
-  // Every chart drawn before printing.
+  // Every chart drawn before printing. The sections after the headline are drawn one per task: counted once
+  // none is still waiting, or the count can be taken while the last ones are still coming.
+  await expect(page.getByRole('status').filter({ hasText: 'Drawing this section' })).toHaveCount(0);
   const charts = page.getByTestId('chart');
   const count = await charts.count();
   expect(count).toBeGreaterThanOrEqual(6);
