@@ -777,8 +777,7 @@ function pooledWindow(
     // Pooled as poolMeasuredMonths pools, from the cells themselves (one fold reused: a ranking is synchronous).
     const fold = measuredFold.reset();
     for (const cell of cells) fold.add(model.n[cell]!, model.mean[cell]!, model.sd[cell]!);
-    const { data, sdWithin } = measuredWindowOf(fold);
-    return sdWithin !== undefined ? { data, sdWithin, months } : { data, months };
+    return { ...measuredWindowOf(fold), months };
   }
   if (defectives === months)
     return {

@@ -52,8 +52,8 @@ export function windowData(studies: readonly Study[]): WindowData | undefined {
 
 /**
  * Months of measured data (each as n, mean, sd) merged in month order by the exact pooled mean and variance, with
- * the pooled within-month sd. The one rule for a measured window that is not all raw; the portfolio's read model
- * (monthly-statistics.ts) pools its cells through it too.
+ * the pooled within-month sd. The one rule for a measured window that is not all raw; the ranking pools the read
+ * model's cells (monthly-statistics.ts) by the same fold, through measuredWindowOf.
  */
 export function poolMeasuredMonths(parts: readonly Moments[]): Pick<WindowData, 'data' | 'sdWithin'> {
   const fold = new MomentsFold();
