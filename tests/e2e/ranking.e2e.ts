@@ -31,6 +31,23 @@ test('the ranked portfolio follows a context target change, and a click leads to
   expect(csv.trim().split('\r\n')).toHaveLength(33);
   expect(await firstSite()).not.toContain('Eastgate Service Centre');
 
+  // Filters narrow the list and its CSV alike (one rule over the list's columns, page and worker).
+  await page.getByLabel('Site').selectOption({ label: 'Eastgate Service Centre' });
+  const siteRows = table.locator('tbody tr');
+  const shown = await siteRows.count();
+  expect(shown).toBeGreaterThan(0);
+  expect(shown).toBeLessThan(32);
+  for (const site of await siteRows.locator('th .small').allTextContents())
+    expect(site).toContain('Eastgate Service Centre');
+  const [filtered] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByTestId('portfolio-csv').click()
+  ]);
+  const filteredCsv = Buffer.concat(await (await filtered.createReadStream()).toArray()).toString('utf8');
+  expect(filteredCsv.trim().split('\r\n')).toHaveLength(shown + 1);
+  await page.getByLabel('Site').selectOption({ label: 'all' });
+  await expect(siteRows).toHaveCount(32);
+
   // A much stricter target for service work puts a service process at the top of the gap order.
   await page.getByRole('link', { name: 'Settings' }).click();
   await page.getByRole('button', { name: 'Edit targets of Transactional and service work' }).click();

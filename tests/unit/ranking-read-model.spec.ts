@@ -22,6 +22,7 @@ import {
   portfolioStandings,
   processTrends,
   quickYield,
+  rankedPortfolio,
   rankPortfolio,
   standingOfRow,
   withTrends,
@@ -30,6 +31,9 @@ import {
   type ProcessRow
 } from '../../src/lib/domain/portfolio-ranking';
 import { MonthlyStatistics } from '../../src/lib/domain/monthly-statistics';
+import { listRowAt } from '../../src/lib/domain/portfolio-list-columns';
+import { listColumnsOf } from '../../src/lib/domain/portfolio-list-of-ranking';
+import type { PortfolioListRow } from '../../src/lib/domain/portfolio-list-row';
 import type { Process } from '../../src/lib/domain/process';
 import { buildQuarterReview, headlineOf } from '../../src/lib/domain/quarter-review';
 import type { RecordMeta } from '../../src/lib/domain/record-meta';
@@ -121,6 +125,50 @@ function plainRanking(
     });
   }
   return out;
+}
+
+/**
+ * The list row a full row stands for, written out plainly: what the table draws (a figure not known is left
+ * out; the trend line is asked for separately).
+ */
+function listFiguresOf(row: ProcessRow): PortfolioListRow {
+  const w = row.weakest;
+  const present = <T extends object>(o: T) =>
+    Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as Partial<T>;
+  return {
+    process: {
+      id: row.process.id,
+      name: row.process.name,
+      contextId: row.process.contextId,
+      currency: row.process.currency
+    },
+    site: { id: row.site.id, name: row.site.name },
+    measure: row.profile?.measure,
+    status: row.status,
+    riskClass: row.riskClass,
+    zBasis: row.zBasis,
+    badges: row.badges,
+    projects: row.projects.map((p) => ({ id: p.id, phase: p.phase })),
+    ...present({
+      yield: row.yield,
+      ppm: row.ppm,
+      zLevel: row.zLevel,
+      costPerYear: row.costPerYear,
+      requiredZ: row.requiredZ
+    }),
+    ...(w
+      ? {
+          weakest: {
+            name: w.characteristic.name,
+            required: w.required,
+            ...present({ estimate: w.estimate, bound: w.bound, requiredZ: w.requiredZ }),
+            ...(w.result?.cpk !== undefined || w.result?.ppk !== undefined
+              ? { result: present({ cpk: w.result.cpk, ppk: w.result.ppk }) }
+              : {})
+          }
+        }
+      : {})
+  };
 }
 
 const portfolioArb = fc
@@ -457,6 +505,13 @@ describe('the indexed, cached ranking gives the figures of a plain record-by-rec
             order: s.order
           });
           expect(again).toEqual(fresh);
+          // The page's list, built from the ranking's numbers without rows, shows the full rows' figures.
+          const list = listColumnsOf(
+            rankedPortfolio(records, profiles, { ...options, weights: s.weights, order: s.order })
+          );
+          expect(Array.from({ length: list.count }, (_, i) => listRowAt(list, i))).toEqual(
+            again.map(listFiguresOf)
+          );
         }
       }),
       { numRuns: 80, seed: 20261205 }

@@ -2,7 +2,7 @@ import { normalCdf, normalSf, normalUpperQuantile } from '../stats/normal-distri
 import { MomentsFold, summariseMoments } from '../stats/pooled-moments';
 import { leastSquaresSlope } from '../stats/trend-slope';
 import { windowFiguresOfStudy, type WindowFigures } from './window-figures';
-import type { Characteristic, RiskClass } from './characteristic';
+import { RISK_CLASSES, type Characteristic, type RiskClass } from './characteristic';
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
 import { addMonths } from './period';
 import { monthOrdinal, portfolioIndex } from './portfolio-index';
@@ -39,7 +39,8 @@ import {
   type ProcessStanding,
   type ProcessTrend,
   type RankingOptions,
-  type RankingOrder
+  type RankingOrder,
+  type RankingWeights
 } from './portfolio-terms';
 
 export * from './portfolio-terms';
@@ -255,6 +256,8 @@ export function judgeCharacteristic(
  */
 interface Verdict {
   estimate: number;
+  /** The required level in the measure's unit (the profile's level for the risk class). */
+  required: number;
   bound: number | undefined;
   meets: boolean;
   boundMeets: boolean;
@@ -269,6 +272,7 @@ interface Verdict {
 
 const verdict: Verdict = {
   estimate: 0,
+  required: 0,
   bound: undefined,
   meets: false,
   boundMeets: false,
@@ -324,6 +328,7 @@ function judgeFigures(
   }
   const v = verdict;
   v.estimate = estimate;
+  v.required = required;
   v.bound = bound;
   v.meets = meets;
   v.boundMeets = boundMeets;
@@ -404,10 +409,6 @@ const STATUS_RANK = Object.fromEntries(STATUS_ORDER.map((s, i) => [s, i])) as Re
   number
 >;
 
-function statusRank(s: CharacteristicStatus): number {
-  return STATUS_RANK[s];
-}
-
 /**
  * Arrays kept with the prepared windows are shared by the rows of every ranking that judges them, so they are
  * frozen: a change to one row's badges or trend would otherwise show in every other.
@@ -436,21 +437,11 @@ interface PreparedProcess {
   yield: number;
   /** Long-term z-level of that yield (the context's shift is added when judged). */
   zLevel: number;
-  /** The process's badges for each variant, built on first use. */
-  badges: Partial<Record<BadgeVariant, Badge[]>> | undefined;
   /** The trend with a context's shift added, for the last shift asked for (shiftedTrend). */
   shifted: { shift: number; trend: (number | undefined)[] } | undefined;
-  /**
-   * The characteristics as last judged (judgeProcess), under a profile with this judging key (judgingKeyOf):
-   * their rows, the process's status (the worst of theirs), the weakest (smallest gap) and whether any with data
-   * is not shown to meet its target. Fields of the process, not an object of their own: a recompute after a
-   * target change judges every process again.
-   */
-  judgedKey: string | undefined;
-  judgedRows: CharacteristicRow[];
-  judgedStatus: CharacteristicStatus;
-  judgedWeakest: CharacteristicRow | undefined;
-  judgedNotShown: number;
+  /** The characteristic rows (judgePrepared) under the profile with this key, built when a full row is asked for. */
+  rowsKey: string | undefined;
+  rows: CharacteristicRow[];
 }
 
 /**
@@ -479,39 +470,107 @@ function shiftedTrend(p: PreparedProcess, shift: number): (number | undefined)[]
   return p.shifted.trend;
 }
 
-/** The process's badges as the old per-row union gave them: each row's in order, then 'incomplete'. */
-function processBadges(p: PreparedProcess, variant: BadgeVariant): Badge[] {
-  const kept = (p.badges ??= {});
-  const known = kept[variant];
-  if (known) return known;
-  const set = new Set<Badge>();
-  for (const c of p.characteristics) {
-    if (!c.result) continue;
-    if (variant !== 'none') for (const b of badgeSet(c.badgeMask)) set.add(b);
-    if (variant === 'short-term') set.add('shift convention');
-    if (c.limitsChanged) set.add('limits changed');
-  }
-  if (p.withData && p.withData < p.characteristics.length) set.add('incomplete');
-  // Interned: a portfolio has a handful of different lists, and an array per process was one more object each.
-  const key = [...set].join('|');
-  let list = processBadgeLists.get(key);
-  if (!list) processBadgeLists.set(key, (list = Object.freeze([...set]) as Badge[]));
-  return (kept[variant] = list);
-}
-
-/** Every list of process badges met so far, by its badges joined (frozen and shared, as badgeSet's). */
-const processBadgeLists = new Map<string, Badge[]>();
+/** The badge variants, as positions in a prepared window's `badges`. */
+const BADGE_VARIANTS: readonly BadgeVariant[] = ['none', 'long-term', 'short-term'];
 
 /**
- * Prepared windows per ranking plan and window, one per process of the plan (in its order): a change of target,
- * weight or order re-judges these without looking at a study again. A new plan (a study written changes the
- * model's version; new record arrays) starts them again.
+ * The badges of the process at position p as the old per-row union gave them (each row's in order, then
+ * 'incomplete'), built on first use for each variant. Interned: a portfolio has a handful of different lists,
+ * and the window keeps only their positions (an array per process was one more object each).
  */
-const preparedWindows = new WeakMap<RankingPlan, Map<string, (PreparedProcess | undefined)[]>>();
+function processBadges(window: PreparedWindow, p: number, variant: BadgeVariant): Badge[] {
+  const slot = p * BADGE_VARIANTS.length + BADGE_VARIANTS.indexOf(variant);
+  let at = window.badges[slot]!;
+  if (at < 0) {
+    const windows = window.processes[p]!;
+    const set = new Set<Badge>();
+    for (const c of windows.characteristics) {
+      if (!c.result) continue;
+      if (variant !== 'none') for (const b of badgeSet(c.badgeMask)) set.add(b);
+      if (variant === 'short-term') set.add('shift convention');
+      if (c.limitsChanged) set.add('limits changed');
+    }
+    if (windows.withData && windows.withData < windows.characteristics.length) set.add('incomplete');
+    const key = [...set].join('|');
+    at = processBadgeListAt.get(key) ?? -1;
+    if (at < 0) {
+      at = processBadgeLists.push(Object.freeze([...set]) as Badge[]) - 1;
+      processBadgeListAt.set(key, at);
+    }
+    window.badges[slot] = at;
+  }
+  return processBadgeLists[at]!;
+}
+
+/** Every list of process badges met so far (frozen and shared, as badgeSet's), and each one's position by its badges joined. */
+const processBadgeLists: Badge[][] = [];
+const processBadgeListAt = new Map<string, number>();
+
+/**
+ * A window prepared for every process of a plan: each process's windows (by plan position) and, in typed arrays
+ * by the same position, what a ranking reads of them — the process's risk class (RISK_CLASSES position), yield
+ * and long-term z-level, and how it was last judged (judgeProcess) under a profile with the judging key `judgedKey[p]` (judgingKeyOf):
+ * its status (STATUS_ORDER position; the worst of its characteristics'), its weakest characteristic (smallest
+ * gap; an index into its characteristics, −1 for none) with that one's gap (Infinity without a profile),
+ * estimate, bound, required level and its z, Cpk and Ppk (NaN where not known), and whether any characteristic
+ * with data is not shown to meet its target. In arrays, not in each process's object: a recompute after a target
+ * change judges every process again, and the list reads them all in ranked order, a shuffle of the order the
+ * objects lie in memory (at company size, a cache miss per field read).
+ */
+interface PreparedWindow {
+  processes: (PreparedProcess | undefined)[];
+  /** Per position and badge variant (BADGE_VARIANTS): the process's badges, as processBadges interned them (−1 until then). */
+  badges: Int32Array;
+  risk: Uint8Array;
+  yield: Float64Array;
+  zLevel: Float64Array;
+  judgedKey: (string | undefined)[];
+  status: Uint8Array;
+  weakest: Int32Array;
+  gap: Float64Array;
+  estimate: Float64Array;
+  bound: Float64Array;
+  required: Float64Array;
+  requiredZ: Float64Array;
+  cpk: Float64Array;
+  ppk: Float64Array;
+  notShown: Uint8Array;
+}
+
+/** How a ranked portfolio's processes were judged, by plan position (PreparedWindow's arrays), read only. */
+export type JudgedColumns = Readonly<Omit<PreparedWindow, 'processes' | 'judgedKey' | 'badges'>>;
+
+function preparedWindowOf(count: number): PreparedWindow {
+  return {
+    processes: new Array<PreparedProcess | undefined>(count),
+    badges: new Int32Array(count * BADGE_VARIANTS.length).fill(-1),
+    risk: new Uint8Array(count),
+    yield: new Float64Array(count),
+    zLevel: new Float64Array(count),
+    judgedKey: new Array<string | undefined>(count),
+    status: new Uint8Array(count),
+    weakest: new Int32Array(count),
+    gap: new Float64Array(count),
+    estimate: new Float64Array(count),
+    bound: new Float64Array(count),
+    required: new Float64Array(count),
+    requiredZ: new Float64Array(count),
+    cpk: new Float64Array(count),
+    ppk: new Float64Array(count),
+    notShown: new Uint8Array(count)
+  };
+}
+
+/**
+ * Prepared windows per ranking plan and window: a change of target, weight or order re-judges these without
+ * looking at a study again. A new plan (a study written changes the model's version; new record arrays) starts
+ * them again.
+ */
+const preparedWindows = new WeakMap<RankingPlan, Map<string, PreparedWindow>>();
 
 const PREPARED_WINDOWS = 4;
 
-function preparedFor(plan: RankingPlan, window: string): (PreparedProcess | undefined)[] {
+function preparedFor(plan: RankingPlan, window: string): PreparedWindow {
   let byWindow = preparedWindows.get(plan);
   if (!byWindow) preparedWindows.set(plan, (byWindow = new Map()));
   let prepared = byWindow.get(window);
@@ -519,7 +578,7 @@ function preparedFor(plan: RankingPlan, window: string): (PreparedProcess | unde
     // The windows of the last few requests only: the review ranks ten quarters, and keeping every one of them
     // prepared cost hundreds of megabytes at company size; the window figures cache keeps the figures anyway.
     if (byWindow.size >= PREPARED_WINDOWS) byWindow.delete(byWindow.keys().next().value!);
-    byWindow.set(window, (prepared = new Array<PreparedProcess | undefined>(plan.processes.length)));
+    byWindow.set(window, (prepared = preparedWindowOf(plan.processes.length)));
   }
   return prepared;
 }
@@ -619,13 +678,9 @@ function prepareProcess(
     withData,
     yield: y,
     zLevel: normalUpperQuantile(Math.min(1, 1 - y)),
-    badges: undefined,
     shifted: undefined,
-    judgedKey: undefined,
-    judgedRows: NO_ROWS,
-    judgedStatus: 'no recent data',
-    judgedWeakest: undefined,
-    judgedNotShown: 0
+    rowsKey: undefined,
+    rows: NO_ROWS
   };
 }
 
@@ -820,27 +875,75 @@ function preparedOf(options: RankingOptions, plan: RankingPlan) {
   return preparedFor(plan, key);
 }
 
-/** A process's characteristics judged under a profile with this judging key, into its judged fields. */
-function judgeProcess(windows: PreparedProcess, profile: ContextProfile | undefined, key: string): void {
-  // Mapped, not pushed: an array grown by push keeps room for 17 rows, most of a row's memory at company size.
-  // Frozen: kept with the prepared windows, the rows are shared by the rankings that judge them alike.
-  const rows = Object.freeze(
-    windows.characteristics.map((w) => judgePrepared(w, profile, rowBadges(w, profile)))
-  ) as CharacteristicRow[];
+/**
+ * A process's characteristics judged under a profile with this judging key, into position p of the window's
+ * judged arrays: as judgePrepared judges each (STATUS_RULE), without building its row.
+ */
+function judgeProcess(
+  window: PreparedWindow,
+  p: number,
+  windows: PreparedProcess,
+  profile: ContextProfile | undefined,
+  key: string
+): void {
   let status: CharacteristicStatus = 'no recent data';
-  let weakest: CharacteristicRow | undefined;
+  let weakest = -1;
+  let gap = Infinity;
   let notShown = 0;
-  for (const r of rows) {
-    if (r.status !== 'no recent data' && STATUS_RANK[r.status] < STATUS_RANK[status]) status = r.status;
-    if (!r.result) continue;
-    if (!weakest || (r.zGap ?? Infinity) < (weakest.zGap ?? Infinity)) weakest = r;
-    if (r.status !== 'meets, shown') notShown = 1;
+  window.estimate[p] = window.bound[p] = window.required[p] = window.requiredZ[p] = NaN;
+  window.cpk[p] = window.ppk[p] = NaN;
+  const chars = windows.characteristics;
+  for (let i = 0; i < chars.length; i += 1) {
+    const w = chars[i]!;
+    const result = w.result;
+    if (!result) continue;
+    if (!profile) {
+      // Figures without a profile: the row shows them, unjudged ('no recent data', no gap).
+      if (weakest < 0) {
+        weakest = i;
+        window.cpk[p] = result.cpk ?? NaN;
+        window.ppk[p] = result.ppk ?? NaN;
+      }
+      notShown = 1;
+      continue;
+    }
+    const v = judgeFigures(result, w, w.characteristic.riskClass, profile);
+    if (STATUS_RANK[v.status] < STATUS_RANK[status]) status = v.status;
+    const zGap = v.zEstimate - v.needZ;
+    // The smallest gap; the first of equal ones (a NaN gap never replaces one, as the rows compared them).
+    if (weakest < 0 || zGap < gap) {
+      weakest = i;
+      gap = zGap;
+      window.estimate[p] = v.estimate;
+      window.bound[p] = v.bound ?? NaN;
+      window.required[p] = v.required;
+      window.requiredZ[p] = v.needZ;
+      window.cpk[p] = result.cpk ?? NaN;
+      window.ppk[p] = result.ppk ?? NaN;
+    }
+    if (v.status !== 'meets, shown') notShown = 1;
   }
-  windows.judgedKey = key;
-  windows.judgedRows = rows;
-  windows.judgedStatus = status;
-  windows.judgedWeakest = weakest;
-  windows.judgedNotShown = notShown;
+  window.judgedKey[p] = key;
+  window.status[p] = STATUS_RANK[status];
+  window.weakest[p] = weakest;
+  window.gap[p] = gap;
+  window.notShown[p] = notShown;
+}
+
+/** The process's characteristic rows under a profile with this judging key, built once per key (frozen, shared). */
+function rowsOf(
+  windows: PreparedProcess,
+  profile: ContextProfile | undefined,
+  key: string
+): CharacteristicRow[] {
+  if (windows.rowsKey !== key) {
+    // Mapped, not pushed: an array grown by push keeps room for 17 rows.
+    windows.rows = Object.freeze(
+      windows.characteristics.map((w) => judgePrepared(w, profile, rowBadges(w, profile)))
+    ) as CharacteristicRow[];
+    windows.rowsKey = key;
+  }
+  return windows.rows;
 }
 
 /**
@@ -994,128 +1097,243 @@ export function withTrends(
 /** The projects of a process without any open, shared by every such row (frozen). */
 const NO_PROJECTS = Object.freeze([]) as unknown as ImprovementProject[];
 
-/** Ranks the portfolio; ties broken by zGap (lower first), cost (higher first), process name, then id. */
+/**
+ * A ranking as numbers, one entry per process of its plan (plan.processes, by position): what the list shows
+ * and sorts on, kept in typed arrays, and the process's judged fields (judged). A full row (rowAt) is built only
+ * for the rows someone looks at — the details, the CSV, the command line: at company size the rows were most of
+ * a recompute's time and garbage, and the portfolio's list shows some thirty at a time.
+ */
+export interface RankedPortfolio {
+  plan: RankingPlan;
+  /** Positions in plan.processes, in the order asked for (sortPositions). */
+  order: Uint32Array;
+  /** Per position: STATUS_ORDER position; 1 where some characteristic has window figures (yield, cost known). */
+  status: Uint8Array;
+  figured: Uint8Array;
+  /** Per position, where `figured`: yield, cost per year, z-level as reported; the priority of every one. */
+  yield: Float64Array;
+  costPerYear: Float64Array;
+  zLevel: Float64Array;
+  priority: Float64Array;
+  /** The process's profile (undefined where its context has none). */
+  profileAt(position: number): ContextProfile | undefined;
+  /** How each process was judged, by position: its weakest characteristic and that one's figures. */
+  judged: JudgedColumns;
+  /** Badges of the process as its row lists them (interned lists, shared). */
+  badgesAt(position: number): Badge[];
+  /** The full row of a process, as rankPortfolio gives it. */
+  rowAt(position: number): ProcessRow;
+}
+
+/** The priority score (PRIORITY_FORMULA), from a row's gap, cost, risk weight (RISK_WEIGHT) and whether meeting is not shown. */
+function priorityOf(
+  weights: RankingWeights,
+  zGap: number,
+  cost: number | undefined,
+  riskWeight: number,
+  notShown: number
+): number {
+  // A gap not known is Infinity here (the sort's key): no shortfall, as 0 would be.
+  return (
+    weights.gap * Math.max(0, -zGap) +
+    weights.cost * Math.log10(1 + (cost ?? 0)) +
+    weights.risk * riskWeight +
+    weights.confidence * notShown
+  );
+}
+
+/** The badge variant of a profile (processBadges). */
+function variantOf(profile: ContextProfile | undefined): BadgeVariant {
+  return !profile ? 'none' : profile.reporting === 'short-term' ? 'short-term' : 'long-term';
+}
+
+/**
+ * Ranks the portfolio into numbers (RankedPortfolio); ties broken by zGap (lower first), cost (higher first),
+ * process name, then id. Every process is judged (kept per judging key, see judgeProcess) and scored; no row is
+ * built.
+ */
+export function rankedPortfolio(
+  records: PortfolioRecords,
+  profiles: readonly ContextProfile[],
+  options: RankingOptions
+): RankedPortfolio {
+  const weights = options.weights ?? DEFAULT_WEIGHTS;
+  const { months, model } = rankingContext(records, options);
+  const plan = rankingPlan(records, model);
+  const window = preparedOf(options, plan);
+  const prepared = window.processes;
+  const count = plan.processes.length;
+  const figured = new Uint8Array(count);
+  const yields = new Float64Array(count);
+  const cost = new Float64Array(count);
+  const zLevel = new Float64Array(count);
+  const priority = new Float64Array(count);
+  const profileOf = new Array<ContextProfile | undefined>(count);
+  // Judging keys of the profiles met, worked out once per profile in this ranking.
+  const keys = new Map<ContextProfile | undefined, string>();
+  for (let p = 0; p < count; p += 1) {
+    const process = plan.processes[p]!;
+    const profile = profileFor(profiles, process.contextId);
+    profileOf[p] = profile;
+    let key = keys.get(profile);
+    if (key === undefined) keys.set(profile, (key = judgingKeyOf(profile)));
+    // Judged again only under a profile that judges differently (the judging is kept, like the windows).
+    if (window.judgedKey[p] !== key) {
+      let windows = prepared[p];
+      if (!windows) {
+        const at = plan.start[p]!;
+        prepared[p] = windows = prepareProcess(
+          plan.characteristics[p]!,
+          plan.rows,
+          at,
+          model,
+          options,
+          months
+        );
+        window.risk[p] = RISK_CLASSES.indexOf(windows.riskClass);
+        window.yield[p] = windows.yield;
+        window.zLevel[p] = windows.zLevel;
+      }
+      judgeProcess(window, p, windows, profile, key);
+    }
+    const known = window.weakest[p]! >= 0;
+    const c = known ? costPerYear(1 - window.yield[p]!, process) : undefined;
+    figured[p] = known ? 1 : 0;
+    yields[p] = known ? window.yield[p]! : NaN;
+    cost[p] = c ?? NaN;
+    zLevel[p] = known ? window.zLevel[p]! + shortTermShift(profile) : NaN;
+    const gap = window.gap[p]!;
+    priority[p] = priorityOf(
+      weights,
+      gap,
+      c,
+      RISK_WEIGHT[RISK_CLASSES[window.risk[p]!]!],
+      window.notShown[p]!
+    );
+  }
+  const order = sortPositions(plan, options.order ?? 'priority', { window, figured, cost, priority });
+  return {
+    plan,
+    order,
+    status: window.status,
+    figured,
+    yield: yields,
+    costPerYear: cost,
+    zLevel,
+    priority,
+    profileAt: (p) => profileOf[p],
+    judged: window,
+    badgesAt: (p) => processBadges(window, p, variantOf(profileOf[p])),
+    rowAt: (p) => processRowOf(plan, p, window, profileOf[p], keys.get(profileOf[p])!, priority[p]!)
+  };
+}
+
+/** A process's full row from its prepared window (the numbers rankedPortfolio sorts on, and its characteristics' rows). */
+function processRowOf(
+  plan: RankingPlan,
+  p: number,
+  window: PreparedWindow,
+  profile: ContextProfile | undefined,
+  key: string,
+  priority: number
+): ProcessRow {
+  const windows = window.processes[p]!;
+  const process = plan.processes[p]!;
+  const shift = shortTermShift(profile);
+  const charRows = rowsOf(windows, profile, key);
+  const w = window.weakest[p]!;
+  const weakest = w >= 0 ? charRows[w] : undefined;
+  const y = weakest ? windows.yield : undefined;
+  const cost = y !== undefined ? costPerYear(1 - y, process) : undefined;
+  const needZ = weakest?.requiredZ;
+  const ppmAtTarget = needZ !== undefined ? ppmAtLongTermZ(needZ - shift) : undefined;
+  // One object literal with every field (undefined where not known): rows built field by field went through
+  // a dozen shapes each.
+  return {
+    process,
+    site: plan.sites[p]!,
+    profile,
+    characteristics: charRows,
+    status: STATUS_ORDER[window.status[p]!]!,
+    yield: y,
+    ppm: y !== undefined ? (1 - y) * 1e6 : undefined,
+    zLevel: y !== undefined ? windows.zLevel + shift : undefined,
+    zBasis: zBasisOf(profile),
+    weakest,
+    zGap: weakest?.zGap,
+    requiredZ: needZ,
+    ppmAtTarget,
+    gainIfMet:
+      ppmAtTarget !== undefined && cost !== undefined
+        ? Math.max(0, cost - costPerYear(ppmAtTarget / 1e6, process))
+        : undefined,
+    costPerYear: cost,
+    trend: shiftedTrend(windows, shift),
+    trendSlope: windows.trendSlope,
+    badges: processBadges(window, p, variantOf(profile)),
+    projects: plan.openProjects[p] ?? NO_PROJECTS,
+    priority,
+    riskClass: windows.riskClass
+  };
+}
+
+/** Ranks the portfolio into full rows: every row of rankedPortfolio, in its order. */
 export function rankPortfolio(
   records: PortfolioRecords,
   profiles: readonly ContextProfile[],
   options: RankingOptions
 ): ProcessRow[] {
-  const weights = options.weights ?? DEFAULT_WEIGHTS;
-  const rows: ProcessRow[] = [];
-  const { months, model } = rankingContext(records, options);
-  const plan = rankingPlan(records, model);
-  const prepared = preparedOf(options, plan);
-  // Judging keys of the profiles met, worked out once per profile in this ranking.
-  const keys = new Map<ContextProfile | undefined, string>();
-  for (let p = 0; p < plan.processes.length; p += 1) {
-    const process = plan.processes[p]!;
-    const site = plan.sites[p]!;
-    let windows = prepared[p];
-    if (!windows) {
-      const at = plan.start[p]!;
-      prepared[p] = windows = prepareProcess(plan.characteristics[p]!, plan.rows, at, model, options, months);
-    }
-    const profile = profileFor(profiles, process.contextId);
-    const shift = shortTermShift(profile);
-    const variant: BadgeVariant = !profile
-      ? 'none'
-      : profile.reporting === 'short-term'
-        ? 'short-term'
-        : 'long-term';
-    let key = keys.get(profile);
-    if (key === undefined) keys.set(profile, (key = judgingKeyOf(profile)));
-    // Judged again only under a profile that judges differently (the rows are shared, like the windows).
-    if (windows.judgedKey !== key) judgeProcess(windows, profile, key);
-    const charRows = windows.judgedRows;
-    const status = windows.judgedStatus;
-    const weakest = windows.judgedWeakest;
-    const notShown = windows.judgedNotShown;
-    const riskClass = windows.riskClass;
-    // One object literal with every field (undefined where not known): rows built field by field went through
-    // a dozen shapes each, a third of a recompute at company size.
-    const y = weakest ? windows.yield : undefined;
-    const cost = y !== undefined ? costPerYear(1 - y, process) : undefined;
-    const needZ = weakest?.requiredZ;
-    const ppmAtTarget = needZ !== undefined ? ppmAtLongTermZ(needZ - shift) : undefined;
-    const row: ProcessRow = {
-      process,
-      site,
-      profile,
-      characteristics: charRows,
-      status,
-      yield: y,
-      ppm: y !== undefined ? (1 - y) * 1e6 : undefined,
-      zLevel: y !== undefined ? windows.zLevel + shift : undefined,
-      zBasis: zBasisOf(profile),
-      weakest,
-      zGap: weakest?.zGap,
-      requiredZ: needZ,
-      ppmAtTarget,
-      gainIfMet:
-        ppmAtTarget !== undefined && cost !== undefined
-          ? Math.max(0, cost - costPerYear(ppmAtTarget / 1e6, process))
-          : undefined,
-      costPerYear: cost,
-      trend: shiftedTrend(windows, shift),
-      trendSlope: windows.trendSlope,
-      badges: processBadges(windows, variant),
-      projects: plan.openProjects[p] ?? NO_PROJECTS,
-      priority: 0,
-      riskClass
-    };
-    row.priority =
-      weights.gap * Math.max(0, -(row.zGap ?? 0)) +
-      weights.cost * Math.log10(1 + (row.costPerYear ?? 0)) +
-      weights.risk * RISK_WEIGHT[riskClass] +
-      weights.confidence * notShown;
-    rows.push(row);
-  }
-  return sortRows(rows, options.order ?? 'priority');
+  const ranked = rankedPortfolio(records, profiles, options);
+  const rows = new Array<ProcessRow>(ranked.order.length);
+  for (let i = 0; i < rows.length; i += 1) rows[i] = ranked.rowAt(ranked.order[i]!);
+  return rows;
 }
 
 /**
- * Deterministic order: the chosen key, then zGap ascending, cost descending, process name, process id. The keys
- * are read once per row into typed arrays and an index is sorted: reading them inside the comparison, some
- * 15 times per row at 20 000 rows, was a fifth of a recompute.
+ * Deterministic order of the plan's positions: the chosen key, then zGap ascending, cost descending, process
+ * name, process id. Keys are read from typed arrays and an index is sorted.
  */
-export function sortRows(rows: ProcessRow[], order: RankingOrder): ProcessRow[] {
-  const key = (r: ProcessRow): number => {
-    switch (order) {
-      case 'priority':
-        return -r.priority;
-      case 'gap':
-        return r.zGap ?? Infinity;
-      case 'cost':
-        return -(r.costPerYear ?? -Infinity);
-      case 'risk':
-        return -RISK_WEIGHT[r.riskClass];
-      case 'confidence':
-        return statusRank(r.status);
-    }
-  };
-  const n = rows.length;
+function sortPositions(
+  plan: RankingPlan,
+  order: RankingOrder,
+  by: { window: PreparedWindow; figured: Uint8Array; cost: Float64Array; priority: Float64Array }
+): Uint32Array {
+  const n = plan.processes.length;
   const first = new Float64Array(n);
-  const gap = new Float64Array(n);
   const cost = new Float64Array(n);
   const at = new Uint32Array(n);
+  const gap = by.window.gap;
   for (let i = 0; i < n; i += 1) {
-    const r = rows[i]!;
-    first[i] = key(r);
-    gap[i] = r.zGap ?? Infinity;
-    cost[i] = r.costPerYear ?? 0;
+    const known = by.figured[i] === 1;
+    switch (order) {
+      case 'priority':
+        first[i] = -by.priority[i]!;
+        break;
+      case 'gap':
+        first[i] = gap[i]!;
+        break;
+      case 'cost':
+        first[i] = known ? -by.cost[i]! : Infinity;
+        break;
+      case 'risk':
+        first[i] = -RISK_WEIGHT[RISK_CLASSES[by.window.risk[i]!]!];
+        break;
+      case 'confidence':
+        first[i] = by.window.status[i]!;
+        break;
+    }
+    cost[i] = known ? by.cost[i]! : 0;
     at[i] = i;
   }
+  const processes = plan.processes;
   // Differences as the comparison of the rows' own values gave them: Infinity − Infinity is NaN, which counts
   // as equal and passes to the next key.
-  at.sort(
+  return at.sort(
     (a, b) =>
       first[a]! - first[b]! ||
       gap[a]! - gap[b]! ||
       cost[b]! - cost[a]! ||
-      rows[a]!.process.name.localeCompare(rows[b]!.process.name) ||
-      rows[a]!.process.id.localeCompare(rows[b]!.process.id)
+      processes[a]!.name.localeCompare(processes[b]!.name) ||
+      processes[a]!.id.localeCompare(processes[b]!.id)
   );
-  const sorted = new Array<ProcessRow>(n);
-  for (let i = 0; i < n; i += 1) sorted[i] = rows[at[i]!]!;
-  return sorted;
 }
