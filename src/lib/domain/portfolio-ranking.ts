@@ -154,34 +154,51 @@ function badgeMaskOf(r: WindowFigures): number {
   return mask;
 }
 
+/** The per-unit figures of a window, as perUnitInto writes them (a bound not known is undefined). */
+interface PerUnit {
+  z: number;
+  zBound: number | undefined;
+  fraction: number;
+  fractionBound: number | undefined;
+}
+
 /**
- * The figures a characteristic is judged on, per unit as its row shows them: the long-term z-level and its
- * one-sided lower bound, and the fraction of units out of specification (defective) and its one-sided upper
- * bound. For defects, a unit is defective when it has at least one defect: 1 − e^(−DPU).
+ * The figures a characteristic is judged on, per unit as its row shows them, written into `out`: the long-term
+ * z-level and its one-sided lower bound, and the fraction of units out of specification (defective) and its
+ * one-sided upper bound. For defects, a unit is defective when it has at least one defect: 1 − e^(−DPU). Into an
+ * object the caller keeps (a ranking reuses one): an object per window was garbage the size of the portfolio.
  */
+function perUnitInto(result: WindowFigures, out: PerUnit): PerUnit {
+  if (result.kind === 'defects') {
+    const fraction = 1 - result.yield;
+    const dpuBound = result.bounds.dpuUpper;
+    const fractionBound = dpuBound === undefined ? undefined : 1 - Math.exp(-dpuBound);
+    out.z = normalUpperQuantile(Math.min(1, Math.max(0, fraction)));
+    out.fraction = fraction;
+    out.fractionBound = fractionBound;
+    out.zBound = fractionBound !== undefined ? normalUpperQuantile(Math.min(1, fractionBound)) : undefined;
+    return out;
+  }
+  out.z = result.zLevel;
+  out.fraction = result.ppmTotal !== undefined ? result.ppmTotal / 1e6 : 1 - result.yield;
+  out.zBound = result.bounds.zLevelLower;
+  out.fractionBound = result.bounds.fractionUpper;
+  return out;
+}
+
+/** The one PerUnit a ranking writes into (it is synchronous; nothing keeps it). */
+const perUnitScratch: PerUnit = { z: NaN, zBound: undefined, fraction: NaN, fractionBound: undefined };
+
+/** The per-unit figures (perUnitInto) as an object of their own, without the bounds not known. */
 export function perUnitFigures(result: WindowFigures): {
   z: number;
   zBound?: number;
   fraction: number;
   fractionBound?: number;
 } {
-  if (result.kind === 'defects') {
-    const fraction = 1 - result.yield;
-    const dpuBound = result.bounds.dpuUpper;
-    const fractionBound = dpuBound === undefined ? undefined : 1 - Math.exp(-dpuBound);
-    return {
-      z: normalUpperQuantile(Math.min(1, Math.max(0, fraction))),
-      fraction,
-      ...(fractionBound !== undefined
-        ? { fractionBound, zBound: normalUpperQuantile(Math.min(1, fractionBound)) }
-        : {})
-    };
-  }
-  const fraction = result.ppmTotal !== undefined ? result.ppmTotal / 1e6 : 1 - result.yield;
-  const zBound = result.bounds.zLevelLower;
-  const fractionBound = result.bounds.fractionUpper;
+  const { z, zBound, fraction, fractionBound } = perUnitInto(result, { ...perUnitScratch });
   return {
-    z: result.zLevel,
+    z,
     fraction,
     ...(zBound !== undefined ? { zBound } : {}),
     ...(fractionBound !== undefined ? { fractionBound } : {})
@@ -220,7 +237,7 @@ export function judgeInput(
   period?: string,
   limitsChanged = false
 ): JudgeInput {
-  const unit = result ? perUnitFigures(result) : undefined;
+  const unit = result ? perUnitInto(result, perUnitScratch) : undefined;
   return {
     characteristic,
     result,
@@ -284,7 +301,7 @@ const verdict: Verdict = {
 
 function judgeFigures(
   result: WindowFigures,
-  unit: ReturnType<typeof perUnitFigures>,
+  unit: PerUnit,
   risk: RiskClass,
   profile: ContextProfile
 ): Verdict {
@@ -473,38 +490,42 @@ function shiftedTrend(p: PreparedProcess, shift: number): (number | undefined)[]
 /** The badge variants, as positions in a prepared window's `badges`. */
 const BADGE_VARIANTS: readonly BadgeVariant[] = ['none', 'long-term', 'short-term'];
 
+/** 'incomplete' as a bit after ROW_BADGE_ORDER's. */
+const INCOMPLETE_BIT = 1 << ROW_BADGE_ORDER.length;
+
 /**
- * The badges of the process at position p as the old per-row union gave them (each row's in order, then
- * 'incomplete'), built on first use for each variant. Interned: a portfolio has a handful of different lists,
- * and the window keeps only their positions (an array per process was one more object each).
+ * The badges of the process at position p: every badge of its rows with window figures, in the rows' order
+ * (ROW_BADGE_ORDER), then 'incomplete' where some characteristic has none — built on first use for each
+ * variant, as a mask of bits. Interned by that mask: a portfolio has a handful of different lists, and the window
+ * keeps only their masks (an array per process was one more object each, and a set per process the first time
+ * was a twentieth of a first ranking).
  */
 function processBadges(window: PreparedWindow, p: number, variant: BadgeVariant): Badge[] {
   const slot = p * BADGE_VARIANTS.length + BADGE_VARIANTS.indexOf(variant);
-  let at = window.badges[slot]!;
-  if (at < 0) {
+  let mask = window.badges[slot]!;
+  if (mask < 0) {
     const windows = window.processes[p]!;
-    const set = new Set<Badge>();
+    mask = 0;
     for (const c of windows.characteristics) {
       if (!c.result) continue;
-      if (variant !== 'none') for (const b of badgeSet(c.badgeMask)) set.add(b);
-      if (variant === 'short-term') set.add('shift convention');
-      if (c.limitsChanged) set.add('limits changed');
+      if (variant !== 'none') mask |= c.badgeMask;
+      if (variant === 'short-term') mask |= SHIFT_BIT;
+      if (c.limitsChanged) mask |= LIMITS_BIT;
     }
-    if (windows.withData && windows.withData < windows.characteristics.length) set.add('incomplete');
-    const key = [...set].join('|');
-    at = processBadgeListAt.get(key) ?? -1;
-    if (at < 0) {
-      at = processBadgeLists.push(Object.freeze([...set]) as Badge[]) - 1;
-      processBadgeListAt.set(key, at);
-    }
-    window.badges[slot] = at;
+    if (windows.withData && windows.withData < windows.characteristics.length) mask |= INCOMPLETE_BIT;
+    window.badges[slot] = mask;
   }
-  return processBadgeLists[at]!;
+  let list = processBadgeLists[mask];
+  if (!list) {
+    const badges: Badge[] = [...badgeSet(mask & ~INCOMPLETE_BIT)];
+    if (mask & INCOMPLETE_BIT) badges.push('incomplete');
+    processBadgeLists[mask] = list = Object.freeze(badges) as Badge[];
+  }
+  return list;
 }
 
-/** Every list of process badges met so far (frozen and shared, as badgeSet's), and each one's position by its badges joined. */
-const processBadgeLists: Badge[][] = [];
-const processBadgeListAt = new Map<string, number>();
+/** Every list of process badges met so far, by its mask (frozen and shared, as badgeSet's). */
+const processBadgeLists: (Badge[] | undefined)[] = [];
 
 /**
  * A window prepared for every process of a plan: each process's windows (by plan position) and, in typed arrays
@@ -519,7 +540,7 @@ const processBadgeListAt = new Map<string, number>();
  */
 interface PreparedWindow {
   processes: (PreparedProcess | undefined)[];
-  /** Per position and badge variant (BADGE_VARIANTS): the process's badges, as processBadges interned them (−1 until then). */
+  /** Per position and badge variant (BADGE_VARIANTS): the process's badges as a mask (processBadges; −1 until then). */
   badges: Int32Array;
   risk: Uint8Array;
   yield: Float64Array;
@@ -653,8 +674,8 @@ function prepareProcess(
       const stamps = new Array<number>(cells.length);
       for (let k = 0; k < cells.length; k += 1) stamps[k] = model.stamp[cells[k]!]!;
       cached =
-        options.cache.get(c, months.first, stamps) ??
-        options.cache.set(c, months.first, stamps, figuresOfCells(model, cells, c, options));
+        options.cache.get(model, row, c, months.firstMonth, stamps) ??
+        options.cache.set(model, row, c, months.firstMonth, stamps, figuresOfCells(model, cells, c, options));
     } else cached = figuresOfCells(model, cells, c, options);
     return judgeInput(c, cached.result, cached.months, options.endPeriod, limitsChanged);
   });
@@ -729,7 +750,9 @@ function figuresOfCells(
   options: RankingOptions,
   bounds: 'all' | 'index' = 'all'
 ): { result: WindowFigures | undefined; months: number } {
-  const w = pooledWindow(model, cells) ?? rawWindow(model, cells);
+  const pooled = pooledWindow(model, cells);
+  const raw = pooled ? undefined : rawWindow(model, cells);
+  const w = pooled ?? raw;
   let result: WindowFigures | undefined;
   if (w) {
     try {
@@ -738,7 +761,8 @@ function figuresOfCells(
       result = undefined;
     }
   }
-  return { result, months: w ? w.months : 0 };
+  // A pooled window counts each of its cells as a month; a raw one, the months windowData analysed.
+  return { result, months: pooled ? cells.length : raw ? raw.months : 0 };
 }
 
 /**
@@ -770,7 +794,7 @@ function standingOfProcess(
     withData += 1;
     y *= result.yield;
     if (!profile) continue;
-    const s = judgeFigures(result, perUnitFigures(result), c.riskClass, profile).status;
+    const s = judgeFigures(result, perUnitInto(result, perUnitScratch), c.riskClass, profile).status;
     if (STATUS_RANK[s] < STATUS_RANK[status]) status = s;
   }
   return { status, yield: y, withData };
@@ -813,7 +837,7 @@ const measuredFold = new MomentsFold();
 function pooledWindow(
   model: MonthlyStatistics,
   cells: readonly number[]
-): { data: StudyData; sdWithin?: number; months: number } | undefined {
+): { data: StudyData; sdWithin?: number } | undefined {
   if (cells.length === 0) return undefined;
   let raw = 0;
   let measured = 0;
@@ -832,14 +856,13 @@ function pooledWindow(
     // Pooled as poolMeasuredMonths pools, from the cells themselves (one fold reused: a ranking is synchronous).
     const fold = measuredFold.reset();
     for (const cell of cells) fold.add(model.n[cell]!, model.mean[cell]!, model.sd[cell]!);
-    return { ...measuredWindowOf(fold), months };
+    return measuredWindowOf(fold);
   }
   if (defectives === months)
     return {
       data: poolDefectiveMonths(
         cells.map((cell) => ({ units: model.units[cell]!, defectives: model.count[cell]! }))
-      ),
-      months
+      )
     };
   if (defects === months)
     return {
@@ -849,8 +872,7 @@ function pooledWindow(
           defects: model.count[cell]!,
           opportunitiesPerUnit: model.opportunities[cell]!
         }))
-      ),
-      months
+      )
     };
   return undefined;
 }

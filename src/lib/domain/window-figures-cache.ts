@@ -14,7 +14,8 @@ export interface CachedWindow {
 /** A window kept: its figures, with what finds them (one object per window: there are tens of thousands). */
 interface Entry extends CachedWindow {
   rev: number;
-  first: string;
+  /** The window's first month (portfolio-index monthOrdinal). */
+  first: number;
   /** A plain array: a typed array costs some hundred bytes of its own, times every window kept. */
   stamps: number[];
 }
@@ -22,12 +23,15 @@ interface Entry extends CachedWindow {
 /**
  * Window figures computed once per characteristic and kept while its studies do not change: re-judging after a
  * target or weight change, or opening another quarter, then costs only the comparison and the sort. An entry
- * is found by the characteristic's id and revision, the window's first month, and the id and revision of every
- * study in the window — compared one by one, not joined into a key string per lookup (at company size those
- * strings were a large share of the work and of the garbage).
+ * is found by the characteristic's row in the read model (rows never move in a model), its revision, the
+ * window's first month, and the stamp of every cell of the window — compared one by one, not joined into a key.
+ * Entries are kept per row in an array, not in a map by the characteristic's id: at company size the lookup by
+ * id string was a tenth of a first ranking. A cache asked about another model starts afresh (a model rebuilt
+ * numbers its rows anew).
  */
 export class WindowFiguresCache {
-  #byCharacteristic = new Map<string, Entry[]>();
+  #model: object | undefined;
+  #byRow: (Entry[] | undefined)[] = [];
   #size = 0;
 
   get size(): number {
@@ -35,16 +39,19 @@ export class WindowFiguresCache {
   }
 
   clear(): void {
-    this.#byCharacteristic.clear();
+    this.#byRow = [];
     this.#size = 0;
   }
 
   get(
-    c: Pick<Characteristic, 'id' | 'rev'>,
-    first: string,
+    model: object,
+    row: number,
+    c: Pick<Characteristic, 'rev'>,
+    first: number,
     stamps: ArrayLike<number>
   ): CachedWindow | undefined {
-    const entries = this.#byCharacteristic.get(c.id);
+    if (model !== this.#model) return undefined;
+    const entries = this.#byRow[row];
     if (!entries) return undefined;
     for (const e of entries) {
       if (e.rev !== c.rev || e.first !== first || e.stamps.length !== stamps.length) continue;
@@ -60,16 +67,22 @@ export class WindowFiguresCache {
    * window as kept, which `get` gives from then on (the value's fields, not the value).
    */
   set(
-    c: Pick<Characteristic, 'id' | 'rev'>,
-    first: string,
+    model: object,
+    row: number,
+    c: Pick<Characteristic, 'rev'>,
+    first: number,
     stamps: number[],
     value: CachedWindow
   ): CachedWindow {
     const entry: Entry = { result: value.result, months: value.months, rev: c.rev, first, stamps };
+    if (model !== this.#model) {
+      this.clear();
+      this.#model = model;
+    }
     if (this.#size >= TOTAL) this.clear();
-    const entries = this.#byCharacteristic.get(c.id);
+    const entries = this.#byRow[row];
     if (!entries) {
-      this.#byCharacteristic.set(c.id, [entry]);
+      this.#byRow[row] = [entry];
       this.#size += 1;
     } else if (entries.length < PER_CHARACTERISTIC) {
       entries.push(entry);
