@@ -25,6 +25,7 @@ import {
 } from '../../src/lib/domain/portfolio-ranking';
 import { MonthlyStatistics } from '../../src/lib/domain/monthly-statistics';
 import { listColumnsOf } from '../../src/lib/domain/portfolio-list-of-ranking';
+import { listRowAt } from '../../src/lib/domain/portfolio-list-columns';
 import type { Process } from '../../src/lib/domain/process';
 import { buildQuarterReview } from '../../src/lib/domain/quarter-review';
 import type { Study } from '../../src/lib/domain/study';
@@ -216,6 +217,13 @@ export function measureScale(size: number): BenchRow[] {
     )
   );
   const restorePeakMB = process.resourceUsage().maxRSS / 1024;
+  // What the page receives (workers/portfolio-ranking.worker.ts): the list's columns, copied as postMessage copies
+  // them, beside the same list as one object per row (what the worker sent before the columns).
+  const list = listColumnsOf(rankedPortfolio(records, BUILT_IN_PROFILES, { ...options, trendMonths: 0 }));
+  const listAsRows = Array.from({ length: list.count }, (_, i) => listRowAt(list, i));
+  const listCopy = median([0, 1, 2].map(() => timed(() => structuredClone(list))));
+  const rowsCopy = median([0, 1, 2].map(() => timed(() => structuredClone(listAsRows))));
+  const listPeakMB = process.resourceUsage().maxRSS / 1024;
   // As the command line ranks: every row with its trend line, on a cache of its own (last: its prepared windows
   // are kept beside the app's, which no real use does).
   const withEveryTrend = timed(() =>
@@ -267,6 +275,14 @@ export function measureScale(size: number): BenchRow[] {
       ms: restoreMs,
       size,
       peakMB: restorePeakMB
+    },
+    {
+      name: `portfolio list ${label}: copied to the page as the worker sends it (structured clone of the list's columns)`,
+      ms: listCopy,
+      size,
+      baselineName: 'the same list as one object per row',
+      baselineMs: rowsCopy,
+      peakMB: listPeakMB
     },
     {
       name: `ranking ${label}, first computation with every row's trend line (as the command line prints it; peak: beside the rest)`,

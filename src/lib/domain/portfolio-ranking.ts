@@ -1124,6 +1124,10 @@ const NO_PROJECTS = Object.freeze([]) as unknown as ImprovementProject[];
  * and sorts on, kept in typed arrays, and the process's judged fields (judged). A full row (rowAt) is built only
  * for the rows someone looks at — the details, the CSV, the command line: at company size the rows were most of
  * a recompute's time and garbage, and the portfolio's list shows some thirty at a time.
+ *
+ * `judged`, `badgesAt` and `rowAt` read the judging kept with the prepared window, which the next ranking of the
+ * same records and window writes over when it judges under other targets: use a ranked portfolio before ranking
+ * again (the worker keeps only its last one; rankPortfolio builds its rows at once).
  */
 export interface RankedPortfolio {
   plan: RankingPlan;
@@ -1237,7 +1241,8 @@ export function rankedPortfolio(
   return {
     plan,
     order,
-    status: window.status,
+    // Its own copy: the window's is judged over by the next ranking (see RankedPortfolio).
+    status: window.status.slice(),
     figured,
     yield: yields,
     costPerYear: cost,
