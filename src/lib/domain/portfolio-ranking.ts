@@ -454,6 +454,12 @@ interface PreparedProcess {
   yield: number;
   /** Long-term z-level of that yield (the context's shift is added when judged). */
   zLevel: number;
+  /**
+   * The badges of its characteristics with window figures, as masks (processBadges): those that follow from the
+   * figures, and 'limits changed' with 'incomplete' (some characteristic without figures).
+   */
+  figureBadges: number;
+  otherBadges: number;
   /** The trend with a context's shift added, for the last shift asked for (shiftedTrend). */
   shifted: { shift: number; trend: (number | undefined)[] } | undefined;
   /** The characteristic rows (judgePrepared) under the profile with this key, built when a full row is asked for. */
@@ -487,34 +493,20 @@ function shiftedTrend(p: PreparedProcess, shift: number): (number | undefined)[]
   return p.shifted.trend;
 }
 
-/** The badge variants, as positions in a prepared window's `badges`. */
-const BADGE_VARIANTS: readonly BadgeVariant[] = ['none', 'long-term', 'short-term'];
-
 /** 'incomplete' as a bit after ROW_BADGE_ORDER's. */
 const INCOMPLETE_BIT = 1 << ROW_BADGE_ORDER.length;
 
 /**
- * The badges of the process at position p: every badge of its rows with window figures, in the rows' order
- * (ROW_BADGE_ORDER), then 'incomplete' where some characteristic has none — built on first use for each
- * variant, as a mask of bits. Interned by that mask: a portfolio has a handful of different lists, and the window
- * keeps only their masks (an array per process was one more object each, and a set per process the first time
- * was a twentieth of a first ranking).
+ * A process's badges under a badge variant: every badge of its rows with window figures, in the rows' order
+ * (ROW_BADGE_ORDER; the figures' own only where a profile judges them, the shift convention where it reports
+ * short-term), then 'incomplete' where some characteristic has none. From the masks its preparation kept, and
+ * interned by the resulting mask: a portfolio has a handful of different lists (an array per process was one
+ * more object each, and a set per process the first time a twentieth of a first ranking).
  */
-function processBadges(window: PreparedWindow, p: number, variant: BadgeVariant): Badge[] {
-  const slot = p * BADGE_VARIANTS.length + BADGE_VARIANTS.indexOf(variant);
-  let mask = window.badges[slot]!;
-  if (mask < 0) {
-    const windows = window.processes[p]!;
-    mask = 0;
-    for (const c of windows.characteristics) {
-      if (!c.result) continue;
-      if (variant !== 'none') mask |= c.badgeMask;
-      if (variant === 'short-term') mask |= SHIFT_BIT;
-      if (c.limitsChanged) mask |= LIMITS_BIT;
-    }
-    if (windows.withData && windows.withData < windows.characteristics.length) mask |= INCOMPLETE_BIT;
-    window.badges[slot] = mask;
-  }
+function processBadges(windows: PreparedProcess, variant: BadgeVariant): Badge[] {
+  let mask = windows.otherBadges;
+  if (variant !== 'none') mask |= windows.figureBadges;
+  if (variant === 'short-term' && windows.withData > 0) mask |= SHIFT_BIT;
   let list = processBadgeLists[mask];
   if (!list) {
     const badges: Badge[] = [...badgeSet(mask & ~INCOMPLETE_BIT)];
@@ -540,8 +532,6 @@ const processBadgeLists: (Badge[] | undefined)[] = [];
  */
 interface PreparedWindow {
   processes: (PreparedProcess | undefined)[];
-  /** Per position and badge variant (BADGE_VARIANTS): the process's badges as a mask (processBadges; −1 until then). */
-  badges: Int32Array;
   risk: Uint8Array;
   yield: Float64Array;
   zLevel: Float64Array;
@@ -559,12 +549,11 @@ interface PreparedWindow {
 }
 
 /** How a ranked portfolio's processes were judged, by plan position (PreparedWindow's arrays), read only. */
-export type JudgedColumns = Readonly<Omit<PreparedWindow, 'processes' | 'judgedKey' | 'badges'>>;
+export type JudgedColumns = Readonly<Omit<PreparedWindow, 'processes' | 'judgedKey'>>;
 
 function preparedWindowOf(count: number): PreparedWindow {
   return {
     processes: new Array<PreparedProcess | undefined>(count),
-    badges: new Int32Array(count * BADGE_VARIANTS.length).fill(-1),
     risk: new Uint8Array(count),
     yield: new Float64Array(count),
     zLevel: new Float64Array(count),
@@ -682,11 +671,16 @@ function prepareProcess(
   const trend = monthlyTrend(chars, rows, at, model, months);
   let withData = 0;
   let y = 1;
+  let figureBadges = 0;
+  let otherBadges = 0;
   for (const c of prepared)
     if (c.result) {
       withData += 1;
       y *= c.result.yield;
+      figureBadges |= c.badgeMask;
+      if (c.limitsChanged) otherBadges |= LIMITS_BIT;
     }
+  if (withData && withData < prepared.length) otherBadges |= INCOMPLETE_BIT;
   return {
     characteristics: prepared,
     trend,
@@ -699,6 +693,8 @@ function prepareProcess(
     withData,
     yield: y,
     zLevel: normalUpperQuantile(Math.min(1, 1 - y)),
+    figureBadges,
+    otherBadges,
     shifted: undefined,
     rowsKey: undefined,
     rows: NO_ROWS
@@ -1250,7 +1246,7 @@ export function rankedPortfolio(
     priority,
     profileAt: (p) => profileOf[p],
     judged: window,
-    badgesAt: (p) => processBadges(window, p, variantOf(profileOf[p])),
+    badgesAt: (p) => processBadges(prepared[p]!, variantOf(profileOf[p])),
     rowAt: (p) => processRowOf(plan, p, window, profileOf[p], keys.get(profileOf[p])!, priority[p]!)
   };
 }
@@ -1297,7 +1293,7 @@ function processRowOf(
     costPerYear: cost,
     trend: shiftedTrend(windows, shift),
     trendSlope: windows.trendSlope,
-    badges: processBadges(window, p, variantOf(profile)),
+    badges: processBadges(windows, variantOf(profile)),
     projects: plan.openProjects[p] ?? NO_PROJECTS,
     priority,
     riskClass: windows.riskClass
@@ -1354,7 +1350,8 @@ function sortPositions(
   }
   const processes = plan.processes;
   // Differences as the comparison of the rows' own values gave them: Infinity − Infinity is NaN, which counts
-  // as equal and passes to the next key.
+  // as equal and passes to the next key. (A radix sort of the first key ran slower than this in a worker's first
+  // ranking, where its loops run before they are compiled; the comparison sort's own loop is compiled code.)
   return at.sort(
     (a, b) =>
       first[a]! - first[b]! ||
