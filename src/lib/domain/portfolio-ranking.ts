@@ -4,7 +4,6 @@ import { leastSquaresSlope } from '../stats/trend-slope';
 import { windowFiguresOfStudy, type WindowFigures } from './window-figures';
 import { RISK_CLASSES, type Characteristic, type RiskClass } from './characteristic';
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
-import { addMonths } from './period';
 import { monthOrdinal, portfolioIndex } from './portfolio-index';
 import { rankingPlan, type RankingPlan } from './ranking-plan';
 import type { ImprovementProject } from './improvement-project';
@@ -651,11 +650,17 @@ function prepareProcess(
   at: number,
   model: MonthlyStatistics,
   options: RankingOptions,
-  months: { first: string; end: number; firstMonth: number; trendFirstMonth: number; trendMonths: number }
+  months: { end: number; firstMonth: number; trendFirstMonth: number; trendMonths: number }
 ): PreparedProcess {
-  const prepared = chars.map((c, i): JudgeInput => {
+  // A loop, not a map: a closure per process was one more object each, and a call per characteristic.
+  const prepared = new Array<JudgeInput>(chars.length);
+  for (let i = 0; i < chars.length; i += 1) {
+    const c = chars[i]!;
     const row = rows[at + i]!;
-    if (row < 0) return judgeInput(c, undefined, 0, options.endPeriod);
+    if (row < 0) {
+      prepared[i] = judgeInput(c, undefined, 0, options.endPeriod);
+      continue;
+    }
     const cells = windowCellsScratch;
     const limitsChanged = windowCells(model, row, c, months, options.endPeriod, cells);
     let cached: { result: WindowFigures | undefined; months: number } | undefined;
@@ -666,8 +671,8 @@ function prepareProcess(
         options.cache.get(model, row, c, months.firstMonth, stamps) ??
         options.cache.set(model, row, c, months.firstMonth, stamps, figuresOfCells(model, cells, c, options));
     } else cached = figuresOfCells(model, cells, c, options);
-    return judgeInput(c, cached.result, cached.months, options.endPeriod, limitsChanged);
-  });
+    prepared[i] = judgeInput(c, cached.result, cached.months, options.endPeriod, limitsChanged);
+  }
   const trend = monthlyTrend(chars, rows, at, model, months);
   let withData = 0;
   let y = 1;
@@ -878,7 +883,6 @@ function rankingContext(records: PortfolioRecords, options: RankingOptions) {
   const trendMonths = options.trendMonths ?? 12;
   const end = monthOrdinal(options.endPeriod);
   const months = {
-    first: addMonths(options.endPeriod, -(options.windowMonths - 1)),
     end,
     firstMonth: end - (options.windowMonths - 1),
     trendFirstMonth: end - (trendMonths - 1),
