@@ -13,8 +13,8 @@ export const LIST_MEASURES: readonly RulingMeasure[] = ['index', 'zLevel', 'ppm'
  * column — numbers in typed arrays (NaN where a figure is not known), repeated strings as positions in small
  * tables (sites, contexts, currencies, characteristic names, badge lists). At 20 000 processes a row object per
  * process (with its process, site, weakest figure and project objects) was some 100 000 objects to build, copy
- * across threads and collect; these columns are some thirty arrays, and the page builds a row (PortfolioListView)
- * only for the rows it draws.
+ * across threads and collect; these columns are some thirty arrays, and the page builds a row (listRowAt) only
+ * for the rows it draws.
  */
 export interface PortfolioListColumns {
   count: number;

@@ -21,19 +21,18 @@ class Table<T> {
  * plan's rows, as `plan.rows`), worked out once per plan: looking each of them up in a table for every process
  * of every ranking was most of the time the columns took.
  */
-interface PlanColumns {
-  processIds: string[];
-  processNames: string[];
-  site: Int32Array;
-  siteIds: string[];
-  siteNames: string[];
-  context: Int32Array;
-  contextIds: string[];
-  currency: Int32Array;
-  currencies: string[];
-  name: Int32Array;
-  names: string[];
-}
+type PlanColumns = Pick<
+  PortfolioListColumns,
+  | 'processIds'
+  | 'processNames'
+  | 'site'
+  | 'siteIds'
+  | 'siteNames'
+  | 'context'
+  | 'contextIds'
+  | 'currency'
+  | 'currencies'
+> & { name: Int32Array; names: string[] };
 
 const planColumns = new WeakMap<RankingPlan, PlanColumns>();
 
