@@ -521,13 +521,13 @@ const processBadgeLists: (Badge[] | undefined)[] = [];
 /**
  * A window prepared for every process of a plan: each process's windows (by plan position) and, in typed arrays
  * by the same position, what a ranking reads of them — the process's risk class (RISK_CLASSES position), yield
- * and long-term z-level, and how it was last judged (judgeProcess) under a profile with the judging key `judgedKey[p]` (judgingKeyOf):
- * its status (STATUS_ORDER position; the worst of its characteristics'), its weakest characteristic (smallest
- * gap; an index into its characteristics, −1 for none) with that one's gap (Infinity without a profile),
- * estimate, bound, required level and its z, Cpk and Ppk (NaN where not known), and whether any characteristic
- * with data is not shown to meet its target. In arrays, not in each process's object: a recompute after a target
- * change judges every process again, and the list reads them all in ranked order, a shuffle of the order the
- * objects lie in memory (at company size, a cache miss per field read).
+ * and long-term z-level, and how it was last judged (judgeProcess) under a profile with the judging key
+ * `judgedKey[p]` (judgingKeyOf): its status (STATUS_ORDER position; the worst of its characteristics'), its
+ * weakest characteristic (smallest gap; an index into its characteristics, −1 for none) with that one's gap
+ * (Infinity without a profile), estimate, bound, required level and its z, Cpk and Ppk (NaN where not known), and
+ * whether any characteristic with data is not shown to meet its target. In arrays, not in each process's object:
+ * a recompute after a target change judges every process again, and the list reads them all in ranked order, a
+ * shuffle of the order the objects lie in memory (at company size, a cache miss per field read).
  */
 interface PreparedWindow {
   processes: (PreparedProcess | undefined)[];
@@ -1151,7 +1151,10 @@ export interface RankedPortfolio {
   rowAt(position: number): ProcessRow;
 }
 
-/** The priority score (PRIORITY_FORMULA), from a row's gap, cost, risk weight (RISK_WEIGHT) and whether meeting is not shown. */
+/**
+ * The priority score (PRIORITY_FORMULA), from a row's gap, cost, risk weight (RISK_WEIGHT) and whether meeting is
+ * not shown.
+ */
 function priorityOf(
   weights: RankingWeights,
   zGap: number,
@@ -1255,7 +1258,10 @@ export function rankedPortfolio(
   };
 }
 
-/** A process's full row from its prepared window (the numbers rankedPortfolio sorts on, and its characteristics' rows). */
+/**
+ * A process's full row from its prepared window (the numbers rankedPortfolio sorts on, and its characteristics'
+ * rows).
+ */
 function processRowOf(
   plan: RankingPlan,
   p: number,
