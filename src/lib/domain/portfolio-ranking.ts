@@ -1359,15 +1359,22 @@ function sortPositions(
     at[i] = i;
   }
   const processes = plan.processes;
-  // Differences as the comparison of the rows' own values gave them: Infinity − Infinity is NaN, which counts
-  // as equal and passes to the next key. (A radix sort of the first key ran slower than this in a worker's first
-  // ranking, where its loops run before they are compiled; the comparison sort's own loop is compiled code.)
+  // Keys compared as the differences of the rows' own values once were: unordered (NaN, or Infinity beside
+  // Infinity) counts as equal and passes to the next key. -1, 0 or 1 rather than a difference: a difference is a
+  // double, allocated on every call while the comparison runs uncompiled (5 MB in a first ranking at 20 000, by
+  // V8's sampling heap profiler). (A radix sort of the first key, and a native sort of the keys' bits with the
+  // position in the low bits, ran no faster than this in a first ranking, where their loops run uncompiled.)
   return at.sort(
     (a, b) =>
-      first[a]! - first[b]! ||
-      gap[a]! - gap[b]! ||
-      cost[b]! - cost[a]! ||
+      order3(first[a]!, first[b]!) ||
+      order3(gap[a]!, gap[b]!) ||
+      order3(cost[b]!, cost[a]!) ||
       processes[a]!.name.localeCompare(processes[b]!.name) ||
       processes[a]!.id.localeCompare(processes[b]!.id)
   );
+}
+
+/** −1, 1, or 0 when equal or unordered (NaN). */
+function order3(x: number, y: number): number {
+  return x < y ? -1 : x > y ? 1 : 0;
 }

@@ -53,3 +53,62 @@ describe('window figures of a summary', () => {
     expect(() => capabilityOfStudy(study, c)).toThrow(/n must be a whole number of at least 2, got 1/);
   });
 });
+
+/**
+ * Counts take the same short path: the one-sided bound alone (stats/analyze-counts.ts `defectivesBounds`,
+ * `defectsBounds`), and exactly the figures the full analysis reduces to.
+ */
+describe('window figures of a count', () => {
+  const c = { dataKind: 'counted' as const };
+  const counts = fc
+    .integer({ min: 1, max: 2_000_000 })
+    .chain((units) =>
+      fc.tuple(fc.constant(units), fc.oneof(fc.constant(0), fc.integer({ min: 0, max: units })))
+    );
+  it('of defectives equal the full analysis reduced to window figures (property)', () => {
+    fc.assert(
+      fc.property(counts, ([units, defectives]) => {
+        const study = { data: { kind: 'defectives' as const, units, defectives }, period: '2026-05' };
+        expect(windowFiguresOfStudy(study, c, undefined)).toEqual(
+          windowFiguresOf(capabilityOfStudy(study, c))
+        );
+      }),
+      { numRuns: 300, seed: 12 }
+    );
+  }, 30_000);
+
+  it('of defects equal the full analysis reduced to window figures (property)', () => {
+    fc.assert(
+      fc.property(counts, fc.integer({ min: 1, max: 12 }), ([units, defects], opportunitiesPerUnit) => {
+        const study = {
+          data: { kind: 'defects' as const, units, defects, opportunitiesPerUnit },
+          period: '2026-05'
+        };
+        expect(windowFiguresOfStudy(study, c, undefined)).toEqual(
+          windowFiguresOf(capabilityOfStudy(study, c))
+        );
+      }),
+      { numRuns: 300, seed: 13 }
+    );
+  }, 30_000);
+
+  it('refuse what the full analysis refuses, with the same message', () => {
+    const cases = [
+      { kind: 'defectives' as const, units: 10, defectives: 11 },
+      { kind: 'defectives' as const, units: 0, defectives: 0 },
+      { kind: 'defects' as const, units: 10, defects: 31, opportunitiesPerUnit: 3 },
+      { kind: 'defects' as const, units: 10, defects: 1, opportunitiesPerUnit: 1.5 }
+    ];
+    for (const data of cases) {
+      const study = { data, period: '2026-05' };
+      let message = '';
+      try {
+        capabilityOfStudy(study, c);
+      } catch (e) {
+        message = (e as Error).message;
+      }
+      expect(message).not.toBe('');
+      expect(() => windowFiguresOfStudy(study, c, undefined)).toThrow(message);
+    }
+  });
+});

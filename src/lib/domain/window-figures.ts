@@ -1,3 +1,4 @@
+import { defectivesBounds, defectsBounds } from '../stats/analyze-counts';
 import { checkSummary, summaryBounds, summaryIndexBounds } from '../stats/analyze-summary';
 import type { CapabilityResult } from '../stats/capability-result';
 import type { Characteristic } from './characteristic';
@@ -82,8 +83,9 @@ const LEVEL = 0.95;
 /**
  * A window's figures. Merged summaries — most windows of a portfolio — take their figures and one-sided bounds
  * straight from `summaryBounds`, on which `analyzeSummary`'s computation is built, without the words, the
- * two-sided intervals and the objects a full result carries (a tenth of the time at company size).
- * Raw values and counts go through the full analysis. Throws RangeError as `capabilityOfStudy` does.
+ * two-sided intervals and the objects a full result carries (a tenth of the time at company size); counts
+ * likewise from `defectivesBounds` and `defectsBounds` (one quantile for the bound where the full analysis
+ * computes three). Raw values go through the full analysis. Throws RangeError as `capabilityOfStudy` does.
  *
  * `bounds: 'index'` leaves a summary's fraction and z-level bounds out (summaryIndexBounds): what a status judged
  * against an index requirement needs, and never kept. Other kinds of data are complete either way.
@@ -98,6 +100,8 @@ export function windowFiguresOfStudy(
   bounds: 'all' | 'index' = 'all'
 ): WindowFigures {
   const d = study.data;
+  if (d.kind === 'defectives') return defectivesWindowFigures(d.units, d.defectives);
+  if (d.kind === 'defects') return defectsWindowFigures(d.units, d.defects, d.opportunitiesPerUnit);
   if (d.kind !== 'summary' || !(d.sd > 0))
     return windowFiguresOf(
       capabilityOfStudy(study, characteristic, sdWithin !== undefined ? { sdWithin } : {})
@@ -129,6 +133,68 @@ export function windowFiguresOfStudy(
       // Through ppm and back, as windowFiguresOf does with a full result: the same number to the last bit.
       fractionUpper: b.fractionUpper !== undefined ? (b.fractionUpper * 1e6) / 1e6 : undefined,
       dpuUpper: undefined
+    }
+  };
+}
+
+/** A count of defectives's window figures, as windowFiguresOf gives them from analyzeDefectives. */
+function defectivesWindowFigures(units: number, defectives: number): WindowFigures {
+  const b = defectivesBounds(units, defectives, LEVEL);
+  const ppm = b.p * 1e6;
+  return {
+    kind: 'defectives',
+    n: units,
+    mean: undefined,
+    sdOverall: undefined,
+    sdWithin: undefined,
+    cpk: undefined,
+    ppk: undefined,
+    p: b.p,
+    dpu: undefined,
+    dpmo: undefined,
+    ppmTotal: ppm,
+    yield: 1 - b.p,
+    zLevel: b.zLevel,
+    model: 'binomial',
+    stable: undefined,
+    bounds: {
+      cpkLower: undefined,
+      ppkLower: undefined,
+      zLevelLower: b.zLevelLower,
+      // Through ppm and back, as windowFiguresOf does with the full result's ppm interval.
+      fractionUpper: (b.pUpperBound * 1e6) / 1e6,
+      dpuUpper: undefined
+    }
+  };
+}
+
+/** A count of defects's window figures, as windowFiguresOf gives them from analyzeDefects. */
+function defectsWindowFigures(units: number, defects: number, opportunitiesPerUnit: number): WindowFigures {
+  const b = defectsBounds(units, defects, opportunitiesPerUnit, LEVEL);
+  const dpmo = b.dpo * 1e6;
+  return {
+    kind: 'defects',
+    n: units,
+    mean: undefined,
+    sdOverall: undefined,
+    sdWithin: undefined,
+    cpk: undefined,
+    ppk: undefined,
+    p: undefined,
+    dpu: b.dpu,
+    dpmo,
+    ppmTotal: dpmo,
+    yield: Math.exp(-b.dpu),
+    zLevel: b.zLevel,
+    model: 'poisson',
+    stable: undefined,
+    // The full result has no interval on the fraction out of specification for defects: the bound is on DPU.
+    bounds: {
+      cpkLower: undefined,
+      ppkLower: undefined,
+      zLevelLower: b.zLevelLower,
+      fractionUpper: undefined,
+      dpuUpper: b.dpuUpper
     }
   };
 }

@@ -1,6 +1,11 @@
 import { WarningList } from './result-warnings';
 import type { CapabilityResult } from './capability-result';
-import { clopperPearson, poissonCountInterval } from './confidence-bounds';
+import {
+  clopperPearson,
+  clopperPearsonUpperBound,
+  poissonCountInterval,
+  poissonCountUpperBound
+} from './confidence-bounds';
 import { normalUpperQuantile } from './normal-distribution';
 import { plainSignificant } from './plain-number';
 
@@ -34,16 +39,11 @@ export function analyzeDefectives(
   defectives: number,
   options: CountOptions = {}
 ): CapabilityResult {
-  if (!(Number.isInteger(units) && units >= 1))
-    throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
-  if (!(Number.isInteger(defectives) && defectives >= 0))
-    throw new RangeError(`Defectives must be a whole number ≥ 0, got ${defectives}`);
-  if (defectives > units)
-    throw new RangeError(`Defectives (${defectives}) cannot exceed units inspected (${units})`);
+  checkDefectives(units, defectives);
   const level = options.confidence ?? 0.95;
   checkLevel(level);
-  const p = defectives / units;
   const ci = clopperPearson(defectives, units, level);
+  const { p, zLevel, zLevelLower } = defectivesFigures(units, defectives, ci.upperBound);
   const assumptions = [
     'counted data: each unit is defective or not, independently and with the same probability (binomial)',
     `interval: exact Clopper–Pearson at ${Math.round(level * 1000) / 10} %`
@@ -64,7 +64,7 @@ export function analyzeDefectives(
     ppm: p * 1e6,
     ppmTotal: p * 1e6,
     yield: 1 - p,
-    zLevel: zero ? normalUpperQuantile(ci.upperBound) : normalUpperQuantile(p),
+    zLevel,
     model: 'binomial',
     modelLabel: 'binomial count of defectives',
     method: 'fraction defective d/n; z-level = Q⁻¹(p)',
@@ -77,12 +77,51 @@ export function analyzeDefectives(
       zLevel: {
         lower: normalUpperQuantile(ci.upper),
         upper: ci.lower === 0 ? Infinity : normalUpperQuantile(ci.lower),
-        lowerBound: normalUpperQuantile(ci.upperBound),
+        lowerBound: zLevelLower,
         level
       }
     }
   };
   return shift(result, options);
+}
+
+/** The checks analyzeDefectives makes of its counts; RangeError with what is wrong. */
+export function checkDefectives(units: number, defectives: number): void {
+  if (!(Number.isInteger(units) && units >= 1))
+    throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
+  if (!(Number.isInteger(defectives) && defectives >= 0))
+    throw new RangeError(`Defectives must be a whole number ≥ 0, got ${defectives}`);
+  if (defectives > units)
+    throw new RangeError(`Defectives (${defectives}) cannot exceed units inspected (${units})`);
+}
+
+/**
+ * The figures of a count of defectives, given the one-sided upper bound of p (clopperPearsonUpperBound): p, the
+ * z-level (at the bound when none was seen) and the z-level's lower bound. The one home of these rules, for the
+ * full analysis and for a portfolio's window figures (domain/window-figures.ts).
+ */
+export function defectivesFigures(
+  units: number,
+  defectives: number,
+  pUpperBound: number
+): { p: number; zLevel: number; zLevelLower: number } {
+  const zLevelLower = normalUpperQuantile(pUpperBound);
+  const p = defectives / units;
+  return { p, zLevel: defectives === 0 ? zLevelLower : normalUpperQuantile(p), zLevelLower };
+}
+
+/**
+ * defectivesFigures with the bound computed (one beta quantile, where the full analysis computes three for its
+ * two-sided interval too). Throws RangeError as analyzeDefectives does.
+ */
+export function defectivesBounds(
+  units: number,
+  defectives: number,
+  level: number
+): { p: number; pUpperBound: number; zLevel: number; zLevelLower: number } {
+  checkDefectives(units, defectives);
+  const pUpperBound = clopperPearsonUpperBound(defectives, units, level);
+  return { ...defectivesFigures(units, defectives, pUpperBound), pUpperBound };
 }
 
 /**
@@ -96,25 +135,18 @@ export function analyzeDefects(
   opportunitiesPerUnit = 1,
   options: CountOptions = {}
 ): CapabilityResult {
-  if (!(Number.isInteger(units) && units >= 1))
-    throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
-  if (!(Number.isInteger(defects) && defects >= 0))
-    throw new RangeError(`Defects must be a whole number ≥ 0, got ${defects}`);
-  if (!(Number.isInteger(opportunitiesPerUnit) && opportunitiesPerUnit >= 1)) {
-    throw new RangeError(`Opportunities per unit must be a whole number ≥ 1, got ${opportunitiesPerUnit}`);
-  }
-  const opportunities = units * opportunitiesPerUnit;
-  if (defects > opportunities)
-    throw new RangeError(
-      `Defects (${defects}) cannot exceed the opportunities (${units} × ${opportunitiesPerUnit} = ${opportunities})`
-    );
+  checkDefects(units, defects, opportunitiesPerUnit);
   const level = options.confidence ?? 0.95;
   checkLevel(level);
-  const dpu = defects / units;
-  const dpo = defects / opportunities;
+  const opportunities = units * opportunitiesPerUnit;
   const ci = poissonCountInterval(defects, level);
+  const { dpu, dpo, upperDpo, zLevel, zLevelLower } = defectsFigures(
+    units,
+    defects,
+    opportunitiesPerUnit,
+    ci.upperBound
+  );
   const zero = defects === 0;
-  const upperDpo = Math.min(1, ci.upperBound / opportunities);
   const assumptions = [
     'counted data: defects occur independently, each opportunity equally likely to hold one (Poisson)',
     'first-pass yield e^(−DPU): the Poisson chance that a unit has no defect',
@@ -133,7 +165,7 @@ export function analyzeDefects(
     ppm: dpo * 1e6,
     ppmTotal: dpo * 1e6,
     yield: Math.exp(-dpu),
-    zLevel: zero ? normalUpperQuantile(upperDpo) : normalUpperQuantile(dpo),
+    zLevel,
     model: 'poisson',
     modelLabel: 'Poisson count of defects',
     method: 'DPMO = 10⁶·defects/(units × opportunities); z-level = Q⁻¹(DPMO/10⁶)',
@@ -152,10 +184,68 @@ export function analyzeDefects(
       zLevel: {
         lower: normalUpperQuantile(Math.min(1, ci.upper / opportunities)),
         upper: ci.lower === 0 ? Infinity : normalUpperQuantile(ci.lower / opportunities),
-        lowerBound: normalUpperQuantile(upperDpo),
+        lowerBound: zLevelLower,
         level
       }
     }
   };
   return shift(result, options);
+}
+
+/** The checks analyzeDefects makes of its counts; RangeError with what is wrong. */
+export function checkDefects(units: number, defects: number, opportunitiesPerUnit: number): void {
+  if (!(Number.isInteger(units) && units >= 1))
+    throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
+  if (!(Number.isInteger(defects) && defects >= 0))
+    throw new RangeError(`Defects must be a whole number ≥ 0, got ${defects}`);
+  if (!(Number.isInteger(opportunitiesPerUnit) && opportunitiesPerUnit >= 1)) {
+    throw new RangeError(`Opportunities per unit must be a whole number ≥ 1, got ${opportunitiesPerUnit}`);
+  }
+  const opportunities = units * opportunitiesPerUnit;
+  if (defects > opportunities)
+    throw new RangeError(
+      `Defects (${defects}) cannot exceed the opportunities (${units} × ${opportunitiesPerUnit} = ${opportunities})`
+    );
+}
+
+/**
+ * The figures of a count of defects, given the one-sided upper bound of the count (poissonCountUpperBound): DPU,
+ * defects per opportunity and its upper bound, the z-level (at the bound when none was seen) and its lower bound.
+ * The one home of these rules, for the full analysis and for a portfolio's window figures.
+ */
+export function defectsFigures(
+  units: number,
+  defects: number,
+  opportunitiesPerUnit: number,
+  countUpperBound: number
+): { dpu: number; dpo: number; upperDpo: number; zLevel: number; zLevelLower: number } {
+  const opportunities = units * opportunitiesPerUnit;
+  const dpo = defects / opportunities;
+  const upperDpo = Math.min(1, countUpperBound / opportunities);
+  const zLevelLower = normalUpperQuantile(upperDpo);
+  return {
+    dpu: defects / units,
+    dpo,
+    upperDpo,
+    zLevel: defects === 0 ? zLevelLower : normalUpperQuantile(dpo),
+    zLevelLower
+  };
+}
+
+/**
+ * defectsFigures with the bound computed (one chi-square quantile, where the full analysis computes three), and
+ * the bound on DPU. Throws RangeError as analyzeDefects does.
+ */
+export function defectsBounds(
+  units: number,
+  defects: number,
+  opportunitiesPerUnit: number,
+  level: number
+): ReturnType<typeof defectsFigures> & { dpuUpper: number } {
+  checkDefects(units, defects, opportunitiesPerUnit);
+  const countUpperBound = poissonCountUpperBound(defects, level);
+  return {
+    ...defectsFigures(units, defects, opportunitiesPerUnit, countUpperBound),
+    dpuUpper: countUpperBound / units
+  };
 }

@@ -131,8 +131,16 @@ export function clopperPearson(x: number, n: number, level = 0.95): ProportionIn
   const alpha = 1 - level;
   const lower = x === 0 ? 0 : betaQuantile(alpha / 2, x, n - x + 1);
   const upper = x === n ? 1 : betaQuantile(1 - alpha / 2, x + 1, n - x);
-  const upperBound = x === n ? 1 : x === 0 ? 1 - alpha ** (1 / n) : betaQuantile(level, x + 1, n - x);
-  return { lower, upper, upperBound, level };
+  return { lower, upper, upperBound: clopperPearsonUpperBound(x, n, level), level };
+}
+
+/**
+ * The one-sided upper bound of clopperPearson alone (one beta quantile, not three): what a portfolio judges a
+ * count of defectives on.
+ */
+export function clopperPearsonUpperBound(x: number, n: number, level = 0.95): number {
+  checkLevel(level);
+  return x === n ? 1 : x === 0 ? 1 - (1 - level) ** (1 / n) : betaQuantile(level, x + 1, n - x);
 }
 
 /**
@@ -145,6 +153,11 @@ export function poissonCountInterval(x: number, level = 0.95): ProportionInterva
   const alpha = 1 - level;
   const lower = x === 0 ? 0 : chiSquareQuantile(alpha / 2, 2 * x) / 2;
   const upper = chiSquareQuantile(1 - alpha / 2, 2 * x + 2) / 2;
-  const upperBound = x === 0 ? -Math.log(alpha) : chiSquareQuantile(level, 2 * x + 2) / 2;
-  return { lower, upper, upperBound, level };
+  return { lower, upper, upperBound: poissonCountUpperBound(x, level), level };
+}
+
+/** The one-sided upper bound of poissonCountInterval alone (one chi-square quantile, not three). */
+export function poissonCountUpperBound(x: number, level = 0.95): number {
+  checkLevel(level);
+  return x === 0 ? -Math.log(1 - level) : chiSquareQuantile(level, 2 * x + 2) / 2;
 }
