@@ -191,13 +191,22 @@ function deleteStoredReadModel(): Promise<void> {
 }
 
 /**
- * A company of 2 000 processes × 36 months (72 000 studies, 50 sites) in the built app: the exchange file
- * received on a fresh profile, then the portfolio, the quarterly review and a process page opened with the CPU
- * throttled 4×. Each row counts the page's long tasks (over 50 ms, as the browser reports them) and samples the
- * page's JS heap; the workers' own time is in the figures but not their heap.
+ * A company of `size` processes × 36 months (2 000: 72 000 studies, 50 sites) in the built app: the exchange
+ * file received on a fresh profile, then the portfolio, the quarterly review and a process page opened with the
+ * CPU throttled `throttle`× (4× at 2 000, where the targets stand; unthrottled at 20 000, a desktop's speed).
+ * Each row counts the page's long tasks (over 50 ms, as the browser reports them) and samples the page's JS
+ * heap; the workers' own time is in the figures but not their heap.
  */
-export async function companyScaleRows(browser: Browser, work: string): Promise<BenchRow[]> {
-  const size = 2000;
+export async function companyScaleRows(
+  browser: Browser,
+  work: string,
+  size = 2000,
+  throttle = 4
+): Promise<BenchRow[]> {
+  const withTargets = size === 2000 && throttle === 4;
+  const cpu = throttle === 1 ? 'CPU not throttled' : `CPU ${throttle}× throttled`;
+  // Waits grow with the company: at 20 000 processes the merge alone writes 720 000 studies.
+  const patience = 300_000 * Math.max(1, size / 2000);
   const file = join(work, 'company.capstan.json');
   writeFileSync(file, await companyPortfolioFile(size));
   const app = await startStaticServer();
@@ -210,20 +219,20 @@ export async function companyScaleRows(browser: Browser, work: string): Promise<
     let watch = await watchMainThread(page);
     const t0 = Date.now();
     await page.getByTestId('exchange-file-input').setInputFiles(file);
-    await page.getByTestId('import-preview').waitFor({ timeout: 300_000 });
+    await page.getByTestId('import-preview').waitFor({ timeout: patience });
     const previewed = Date.now() - t0;
     let seen = await watch.read();
     const t1 = Date.now();
     await page.getByTestId('confirm-merge').click();
-    await page.getByTestId('exchange-done').waitFor({ timeout: 300_000 });
+    await page.getByTestId('exchange-done').waitFor({ timeout: patience });
     const merged = Date.now() - t1;
     const mergeSeen = await watch.read();
     rows.push({
-      name: `receive the ${size.toLocaleString('en')}-process file (72,000 studies, ${(statSync(file).size / 1048576).toFixed(0)} MB), chosen → read and checked in the worker → preview shown; ${taskWords(seen.longTasks)}`,
+      name: `receive the ${size.toLocaleString('en')}-process file (${(size * 36).toLocaleString('en')} studies, ${(statSync(file).size / 1048576).toFixed(0)} MB), chosen → read and checked in the worker → preview shown; ${taskWords(seen.longTasks)}`,
       size,
       ms: previewed,
       peakMB: seen.peakHeapMB,
-      target: 'with the merge ≤ 5 s'
+      ...(withTargets ? { target: 'with the merge ≤ 5 s' } : {})
     });
     rows.push({
       name: `  … merged into the empty database (one transaction, written 250 records at a time); ${taskWords(mergeSeen.longTasks)}`,
@@ -233,7 +242,7 @@ export async function companyScaleRows(browser: Browser, work: string): Promise<
     });
 
     const cdp = await context.newCDPSession(page);
-    await cdp.send('Emulation.setCPUThrottlingRate', { rate: 4 });
+    await cdp.send('Emulation.setCPUThrottlingRate', { rate: throttle });
     const timedPage = async (name: string, go: () => Promise<void>, ready: () => Promise<void>) => {
       await go();
       watch = await watchMainThread(page);
@@ -242,23 +251,29 @@ export async function companyScaleRows(browser: Browser, work: string): Promise<
       const ms = Date.now() - t;
       seen = await watch.read();
       rows.push({
-        name: `${name}, ${size.toLocaleString('en')} processes, CPU 4× throttled: ${taskWords(seen.longTasks)}`,
+        name: `${name}, ${size.toLocaleString('en')} processes, ${cpu}: ${taskWords(seen.longTasks)}`,
         size,
         ms,
         peakMB: seen.peakHeapMB,
-        target: '≤ 2 s, no long task over 200 ms'
+        ...(withTargets ? { target: '≤ 2 s, no long task over 200 ms' } : {})
       });
     };
+    /** Waits until the portfolio's read model is stored; returns how long that took. */
+    const readModelStored = async () => {
+      const t = Date.now();
+      while (!(await page.evaluate(storedReadModelExists))) {
+        if (Date.now() - t > patience)
+          throw new Error(`the read model was not stored within ${patience / 60_000} minutes`);
+        await page.waitForTimeout(250);
+      }
+      return Date.now() - t;
+    };
     // The merge starts a background refresh of the portfolio's stored read model; wait for it to be stored.
-    const t2 = Date.now();
-    while (!(await page.evaluate(storedReadModelExists))) {
-      if (Date.now() - t2 > 300_000) throw new Error('the read model was not stored within 5 minutes');
-      await page.waitForTimeout(250);
-    }
+    const stored = await readModelStored();
     rows.push({
       name: `  … the portfolio's read model built and stored in the background after the merge (page free meanwhile)`,
       size,
-      ms: Date.now() - t2
+      ms: stored
     });
     // Each page is opened from a blank one so that the clock starts with the navigation.
     await timedPage(
@@ -268,7 +283,7 @@ export async function companyScaleRows(browser: Browser, work: string): Promise<
         void page.goto(app.url);
         await page.waitForURL(app.url + '/');
       },
-      () => page.getByTestId('portfolio-table').locator('tbody tr').first().waitFor({ timeout: 120_000 })
+      () => page.getByTestId('portfolio-table').locator('tbody tr').first().waitFor({ timeout: patience })
     );
     await timedPage(
       'portfolio with no stored read model (first ranking on a device): opened → ranked table shown',
@@ -279,8 +294,11 @@ export async function companyScaleRows(browser: Browser, work: string): Promise<
         void page.goto(app.url);
         await page.waitForURL(app.url + '/');
       },
-      () => page.getByTestId('portfolio-table').locator('tbody tr').first().waitFor({ timeout: 120_000 })
+      () => page.getByTestId('portfolio-table').locator('tbody tr').first().waitFor({ timeout: patience })
     );
+    // The portfolio's worker stores the model it built after it answered (portfolio-worker-loop.ts): leaving the
+    // page before that (seconds at 20 000) leaves the review, too, to read every study.
+    await readModelStored();
     await timedPage(
       'quarterly review: opened → headline shown',
       async () => {
@@ -288,14 +306,15 @@ export async function companyScaleRows(browser: Browser, work: string): Promise<
         void page.goto(new URL('/review', app.url).href);
         await page.waitForURL(/\/review$/);
       },
-      () => page.getByTestId('headline').waitFor({ timeout: 120_000 })
+      () => page.getByTestId('headline').waitFor({ timeout: patience })
     );
     // The review's other sections and its charts are drawn after the headline, one per task: count the tasks
     // until the last chart is drawn, the first time the chart library is loaded included.
     {
       const t = Date.now();
       while (!(await page.evaluate(reviewFullyDrawn))) {
-        if (Date.now() - t > 120_000) throw new Error('the review was not fully drawn within 2 minutes');
+        if (Date.now() - t > patience)
+          throw new Error(`the review was not fully drawn within ${patience / 60_000} minutes`);
         await page.waitForTimeout(100);
       }
       const ms = Date.now() - t;
@@ -305,13 +324,13 @@ export async function companyScaleRows(browser: Browser, work: string): Promise<
         size,
         ms,
         peakMB: seen.peakHeapMB,
-        target: 'no long task over 200 ms'
+        ...(withTargets ? { target: 'no long task over 200 ms' } : {})
       });
     }
     const href = await (async () => {
       await page.goto(app.url);
       const link = page.getByTestId('portfolio-table').locator('tbody tr a').first();
-      await link.waitFor({ timeout: 120_000 });
+      await link.waitFor({ timeout: patience });
       return link.getAttribute('href');
     })();
     await timedPage(
@@ -321,7 +340,7 @@ export async function companyScaleRows(browser: Browser, work: string): Promise<
         void page.goto(new URL(href ?? '/', app.url).href);
         await page.waitForURL(/\/process\//);
       },
-      () => page.getByRole('heading', { level: 1 }).filter({ hasText: 'Line' }).waitFor({ timeout: 120_000 })
+      () => page.getByRole('heading', { level: 1 }).filter({ hasText: 'Line' }).waitFor({ timeout: patience })
     );
     await cdp.send('Emulation.setCPUThrottlingRate', { rate: 1 });
   } finally {
@@ -447,6 +466,9 @@ export async function runBrowserBench(): Promise<BenchRow[]> {
     });
     rows.push(...(await masterListRows(browser)));
     rows.push(...(await companyScaleRows(browser, work)));
+    // The company size of the targets, on a desktop's unthrottled CPU: some five minutes, most of it writing
+    // 720 000 studies to IndexedDB.
+    rows.push(...(await companyScaleRows(browser, work, 20_000, 1)));
     rows.push(await lighthouseRow());
   } finally {
     await browser.close();
