@@ -130,12 +130,21 @@ async function pipeBytes(
   return out;
 }
 
-/** The file's bytes: UTF-8 canonical JSON, gzip-compressed when asked. */
+/**
+ * The file's bytes: UTF-8 canonical JSON, gzip-compressed when asked. Throws ExchangeFileError, before anything
+ * is written, when the text is larger than a device reads (`maxBytes`, MAX_EXCHANGE_BYTES unless a test asks
+ * for less): a file no device can read would pass for a sent one.
+ */
 export async function encodeExchangeFile(
   changeSet: ChangeSet,
-  options: { gzip?: boolean } = {}
+  options: { gzip?: boolean; maxBytes?: number } = {}
 ): Promise<Uint8Array> {
   const bytes = await exchangeBytes(changeSet);
+  const limit = options.maxBytes ?? MAX_EXCHANGE_BYTES;
+  if (bytes.byteLength > limit)
+    throw new ExchangeFileError(
+      `This file would hold ${mb(bytes.byteLength)} of records, more than the ${mb(limit)} Capstan reads: nothing was written — export per site, or as changes since the last file, instead`
+    );
   return options.gzip ? pipeBytes(bytes, new CompressionStream('gzip'), Number.MAX_SAFE_INTEGER) : bytes;
 }
 

@@ -100,6 +100,22 @@ describe('exchange files between devices', () => {
     expect(await decodeExchangeFile(packed)).toEqual(changeSet);
   });
 
+  it('writes no file larger than a device reads, and says so', async () => {
+    const a = await device('a');
+    await a.loadDemo(demo);
+    const plain = await exportBytes(a);
+    const changeSet = await decodeExchangeFile(plain);
+    // The file's own size as the bound passes; one byte less refuses, compressed or not.
+    expect(await encodeExchangeFile(changeSet, { maxBytes: plain.byteLength })).toEqual(plain);
+    for (const gzip of [false, true]) {
+      const refused = encodeExchangeFile(changeSet, { gzip, maxBytes: plain.byteLength - 1 });
+      await expect(refused).rejects.toBeInstanceOf(ExchangeFileError);
+      await expect(refused).rejects.toThrow(
+        /more than the .* Capstan reads: nothing was written — export per site/
+      );
+    }
+  });
+
   it('plays a site and the manager: results go up, a target comes back, and a crossing edit is a conflict', async () => {
     const site = await device('site');
     const hq = await device('hq');
