@@ -1,3 +1,4 @@
+import { firstInOrder } from '../../domain/first-in-order';
 import type { EChartsCoreOption } from 'echarts/core';
 import type { ReviewFigures, ReviewProcessLine } from '../../domain/review-figures';
 
@@ -30,10 +31,12 @@ export function weakestJudged(
   lines: readonly ReviewProcessLine[],
   limit = MAX_PROCESS_BARS
 ): ReviewProcessLine[] {
-  return lines
-    .filter((l) => l.zLevel !== undefined && Number.isFinite(l.zLevel))
-    .sort((a, b) => (a.zGap ?? 0) - (b.zGap ?? 0) || a.processId.localeCompare(b.processId))
-    .slice(0, limit);
+  return firstInOrder(
+    lines,
+    limit,
+    (a, b) => (a.zGap ?? 0) - (b.zGap ?? 0) || a.processId.localeCompare(b.processId),
+    (l) => l.zLevel !== undefined && Number.isFinite(l.zLevel)
+  );
 }
 
 /**
@@ -124,12 +127,17 @@ export function costParetoOption(lines: readonly ReviewProcessLine[], currency: 
 }
 
 export function paretoRows(lines: readonly ReviewProcessLine[], currency: string, limit = MAX_PROCESS_BARS) {
-  const rows = lines
-    .filter((l) => l.currency === currency && (l.costPerYear ?? 0) > 0)
-    .sort((a, b) => (b.costPerYear ?? 0) - (a.costPerYear ?? 0) || a.processId.localeCompare(b.processId));
-  const total = rows.reduce((a, l) => a + (l.costPerYear ?? 0), 0);
+  const counted = (l: ReviewProcessLine) => l.currency === currency && (l.costPerYear ?? 0) > 0;
+  const rows = firstInOrder(
+    lines,
+    limit,
+    (a, b) => (b.costPerYear ?? 0) - (a.costPerYear ?? 0) || a.processId.localeCompare(b.processId),
+    counted
+  );
+  let total = 0;
+  for (const l of lines) if (counted(l)) total += l.costPerYear ?? 0;
   let running = 0;
-  return rows.slice(0, limit).map((l) => {
+  return rows.map((l) => {
     running += l.costPerYear ?? 0;
     return {
       process: `${l.process} · ${l.site}`,
@@ -142,9 +150,17 @@ export function paretoRows(lines: readonly ReviewProcessLine[], currency: string
 /** Each process's z-level last quarter against this quarter; above the diagonal improved. */
 export function movementOption(figures: ReviewFigures): EChartsCoreOption {
   const all = figures.movers;
-  const values = all.flatMap((m) => [m.zBefore, m.zAfter]).filter(Number.isFinite);
-  const lo = Math.floor(Math.min(0, ...values));
-  const hi = Math.ceil(Math.max(1, ...values));
+  // A loop, not Math.min(...values): two values per process as arguments overflow the stack at some 100 000.
+  let least = 0;
+  let most = 1;
+  for (const m of all)
+    for (const v of [m.zBefore, m.zAfter])
+      if (Number.isFinite(v)) {
+        if (v < least) least = v;
+        if (v > most) most = v;
+      }
+  const lo = Math.floor(least);
+  const hi = Math.ceil(most);
   const point = (m: ReviewFigures['movers'][number]) => ({
     value: [round(m.zBefore), round(m.zAfter)],
     name: m.process
