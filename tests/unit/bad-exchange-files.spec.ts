@@ -1,5 +1,6 @@
 import 'fake-indexeddb/auto';
 import { readFileSync } from 'node:fs';
+import { gzipSync } from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import demo from '../../seed-data/demo-portfolio.json';
 import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
@@ -67,6 +68,16 @@ describe('bad exchange files', () => {
     expect(message).toContain('The file is 600.0 MB; Capstan reads exchange files up to 512.0 MB');
     expect(await canonicalExport(device)).toBe(before);
   });
+
+  it('refuses a compressed file whose stated size lies, by the bytes it unpacks to', async () => {
+    // 600 MB of spaces whose gzip trailer says 0 bytes (RFC 1952 ISIZE): the early check passes it, the bound
+    // on what is unpacked refuses it.
+    const bomb = new Uint8Array(gzipSync(Buffer.alloc(600 * 1024 * 1024, 0x20), { level: 1 }));
+    bomb.fill(0, bomb.byteLength - 4);
+    const message = await offer(bomb);
+    expect(message).toContain('The compressed file unpacks to more than 512.0 MB');
+    expect(await canonicalExport(device)).toBe(before);
+  }, 60_000);
 
   it('leaves the prototype of plain objects untouched after the __proto__ files', () => {
     expect(({} as Record<string, unknown>).polluted).toBeUndefined();

@@ -100,6 +100,9 @@ export async function exchangeText(changeSet: ChangeSet): Promise<string> {
   return new TextDecoder().decode(await exchangeBytes(changeSet));
 }
 
+const unpacksTooLarge = (limit: number) =>
+  `The compressed file unpacks to more than ${mb(limit)}; Capstan reads exchange files up to that size`;
+
 async function pipeBytes(
   bytes: Uint8Array,
   transform: CompressionStream | DecompressionStream,
@@ -115,9 +118,7 @@ async function pipeBytes(
     total += value.byteLength;
     if (total > limit) {
       await reader.cancel();
-      throw new ExchangeFileError(
-        `The compressed file unpacks to more than ${mb(limit)}; Capstan reads exchange files up to that size`
-      );
+      throw new ExchangeFileError(unpacksTooLarge(limit));
     }
     chunks.push(value);
   }
@@ -191,6 +192,15 @@ export async function decodeExchangeFile(
   let bytes = input;
   if (bytes[0] === GZIP_MAGIC[0] && bytes[1] === GZIP_MAGIC[1]) {
     onStage('unpacking');
+    // A gzip file ends with its (last part's) unpacked size modulo 2³² (RFC 1952, ISIZE): never more than the
+    // whole, so a size over the bound refuses the file at once, without unpacking 512 MB first. The bound on
+    // the bytes unpacked below stays the guarantee (a size past 4 GB wraps round).
+    if (bytes.byteLength >= 18) {
+      const end = bytes.byteLength;
+      const unpacked =
+        (bytes[end - 4]! | (bytes[end - 3]! << 8) | (bytes[end - 2]! << 16) | (bytes[end - 1]! << 24)) >>> 0;
+      if (unpacked > MAX_EXCHANGE_BYTES) throw new ExchangeFileError(unpacksTooLarge(MAX_EXCHANGE_BYTES));
+    }
     try {
       bytes = await pipeBytes(bytes, new DecompressionStream('gzip'), MAX_EXCHANGE_BYTES);
     } catch (e) {
