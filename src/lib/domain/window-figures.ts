@@ -140,46 +140,30 @@ export function windowFiguresOfStudy(
 /** A count of defectives's window figures, as windowFiguresOf gives them from analyzeDefectives. */
 function defectivesWindowFigures(units: number, defectives: number): WindowFigures {
   const b = defectivesBounds(units, defectives, LEVEL);
-  const ppm = b.p * 1e6;
-  return {
+  return countWindowFigures({
     kind: 'defectives',
     n: units,
-    mean: undefined,
-    sdOverall: undefined,
-    sdWithin: undefined,
-    cpk: undefined,
-    ppk: undefined,
     p: b.p,
     dpu: undefined,
     dpmo: undefined,
-    ppmTotal: ppm,
+    ppmTotal: b.p * 1e6,
     yield: 1 - b.p,
     zLevel: b.zLevel,
     model: 'binomial',
-    stable: undefined,
-    bounds: {
-      cpkLower: undefined,
-      ppkLower: undefined,
-      zLevelLower: b.zLevelLower,
-      // Through ppm and back, as windowFiguresOf does with the full result's ppm interval.
-      fractionUpper: (b.pUpperBound * 1e6) / 1e6,
-      dpuUpper: undefined
-    }
-  };
+    zLevelLower: b.zLevelLower,
+    // Through ppm and back, as windowFiguresOf does with the full result's ppm interval.
+    fractionUpper: (b.pUpperBound * 1e6) / 1e6,
+    dpuUpper: undefined
+  });
 }
 
 /** A count of defects's window figures, as windowFiguresOf gives them from analyzeDefects. */
 function defectsWindowFigures(units: number, defects: number, opportunitiesPerUnit: number): WindowFigures {
   const b = defectsBounds(units, defects, opportunitiesPerUnit, LEVEL);
   const dpmo = b.dpo * 1e6;
-  return {
+  return countWindowFigures({
     kind: 'defects',
     n: units,
-    mean: undefined,
-    sdOverall: undefined,
-    sdWithin: undefined,
-    cpk: undefined,
-    ppk: undefined,
     p: undefined,
     dpu: b.dpu,
     dpmo,
@@ -187,14 +171,43 @@ function defectsWindowFigures(units: number, defects: number, opportunitiesPerUn
     yield: Math.exp(-b.dpu),
     zLevel: b.zLevel,
     model: 'poisson',
-    stable: undefined,
+    zLevelLower: b.zLevelLower,
     // The full result has no interval on the fraction out of specification for defects: the bound is on DPU.
+    fractionUpper: undefined,
+    dpuUpper: b.dpuUpper
+  });
+}
+
+type CountFigures = Pick<
+  WindowFigures,
+  'kind' | 'n' | 'p' | 'dpu' | 'dpmo' | 'ppmTotal' | 'yield' | 'zLevel' | 'model'
+> &
+  Pick<WindowFigures['bounds'], 'zLevelLower' | 'fractionUpper' | 'dpuUpper'>;
+
+/** A count's figures as one literal with every field (as windowFiguresOf), those of measured data absent. */
+function countWindowFigures(c: CountFigures): WindowFigures {
+  return {
+    kind: c.kind,
+    n: c.n,
+    mean: undefined,
+    sdOverall: undefined,
+    sdWithin: undefined,
+    cpk: undefined,
+    ppk: undefined,
+    p: c.p,
+    dpu: c.dpu,
+    dpmo: c.dpmo,
+    ppmTotal: c.ppmTotal,
+    yield: c.yield,
+    zLevel: c.zLevel,
+    model: c.model,
+    stable: undefined,
     bounds: {
       cpkLower: undefined,
       ppkLower: undefined,
-      zLevelLower: b.zLevelLower,
-      fractionUpper: undefined,
-      dpuUpper: b.dpuUpper
+      zLevelLower: c.zLevelLower,
+      fractionUpper: c.fractionUpper,
+      dpuUpper: c.dpuUpper
     }
   };
 }
