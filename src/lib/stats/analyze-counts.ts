@@ -86,7 +86,7 @@ export function analyzeDefectives(
 }
 
 /** The checks analyzeDefectives makes of its counts; RangeError with what is wrong. */
-export function checkDefectives(units: number, defectives: number): void {
+function checkDefectives(units: number, defectives: number): void {
   if (!(Number.isInteger(units) && units >= 1))
     throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
   if (!(Number.isInteger(defectives) && defectives >= 0))
@@ -100,7 +100,7 @@ export function checkDefectives(units: number, defectives: number): void {
  * z-level (at the bound when none was seen) and the z-level's lower bound. The one home of these rules, for the
  * full analysis and for a portfolio's window figures (domain/window-figures.ts).
  */
-export function defectivesFigures(
+function defectivesFigures(
   units: number,
   defectives: number,
   pUpperBound: number
@@ -193,7 +193,7 @@ export function analyzeDefects(
 }
 
 /** The checks analyzeDefects makes of its counts; RangeError with what is wrong. */
-export function checkDefects(units: number, defects: number, opportunitiesPerUnit: number): void {
+function checkDefects(units: number, defects: number, opportunitiesPerUnit: number): void {
   if (!(Number.isInteger(units) && units >= 1))
     throw new RangeError(`Units inspected must be a whole number ≥ 1, got ${units}`);
   if (!(Number.isInteger(defects) && defects >= 0))
@@ -213,7 +213,7 @@ export function checkDefects(units: number, defects: number, opportunitiesPerUni
  * defects per opportunity and its upper bound, the z-level (at the bound when none was seen) and its lower bound.
  * The one home of these rules, for the full analysis and for a portfolio's window figures.
  */
-export function defectsFigures(
+function defectsFigures(
   units: number,
   defects: number,
   opportunitiesPerUnit: number,
