@@ -123,6 +123,34 @@ test('an entry typed halfway survives the tab closing', async ({ page, context }
   ).toHaveValue('1,77');
 });
 
+test('an open entry panel turns to correcting when that month is saved in another tab', async ({
+  page,
+  context
+}) => {
+  await loadDemo(page);
+  await openLog(page, 'Harbour Foods Filling');
+  const name = /^(Log|Change) Bars broken at packing \(Oat bar baking — oven 1\)/;
+  const panel = page.getByTestId('entry-panel');
+  await page.getByRole('button', { name }).click();
+  await expect(panel.getByRole('heading', { name: /^Log Bars broken at packing/ })).toBeVisible();
+
+  const other = await context.newPage();
+  await other.goto(server.url);
+  await openLog(other, 'Harbour Foods Filling');
+  await other.getByRole('button', { name }).click();
+  const otherPanel = other.getByTestId('entry-panel');
+  await otherPanel.getByRole('textbox', { name: 'Units inspected', exact: true }).fill('1000');
+  await otherPanel.getByRole('textbox', { name: 'Defective units', exact: true }).fill('10');
+  await otherPanel.getByRole('button', { name: 'Save study' }).click();
+  await expect(other.getByTestId('saved-notice')).toContainText('(created)');
+
+  // The first tab's panel, untouched, now opens on the study as saved there (not a blank form that a save
+  // would set beside it).
+  await expect(panel.getByRole('heading', { name: /^Correct Bars broken at packing/ })).toBeVisible();
+  await expect(panel.getByRole('textbox', { name: 'Units inspected', exact: true })).toHaveValue('1000');
+  await expect(panel.getByRole('textbox', { name: 'Defective units', exact: true })).toHaveValue('10');
+});
+
 test('logging a month twice asks to replace or combine, and a replace can be undone', async ({ page }) => {
   await loadDemo(page);
   await openLog(page, 'Harbour Foods Filling');
