@@ -242,6 +242,9 @@ export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): St
       const p = planned.get(id);
       if (!p || p.kind !== parentKind || inFamily(parentKind, p.record)) continue;
       const rc = recordConflicts.get(id);
+      // A live parent without a delete-vs-edit conflict of its own is no family whatever lies under it: asked
+      // first, so that its descendants (a site's run to tens of thousands) are not gathered for nothing.
+      if (!(rc && isDeleteVsEdit(rc)) && isLive(p.record)) continue;
       const descendants = planned.descendantsOf(parentKind, id);
       const absorbed = descendants.flatMap((d) => {
         const c = recordConflicts.get(d.record.id);
@@ -250,7 +253,7 @@ export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): St
       const stake = descendants.filter(
         (d) => isLive(d.record) || absorbed.some((c) => c.key === d.record.id)
       );
-      if (!(rc && isDeleteVsEdit(rc)) && (isLive(p.record) || stake.length === 0)) continue;
+      if (!(rc && isDeleteVsEdit(rc)) && stake.length === 0) continue;
       const here = local.record(id);
       const there = plan.incoming.get(id)?.record;
       const nature: FamilyNature =

@@ -163,4 +163,69 @@ describe('a file of many months', () => {
     const clashes = plan.conflicts.filter((c) => c.type === 'same-month');
     expect(clashes).toHaveLength(characteristics * months);
   }, 60_000);
+
+  it('finds the parents of every study of a file naming more of them than one read asks for', async () => {
+    // 2 500 characteristics held here, a file of one study under each: their parents are read a part at a time
+    // (KEYS_PER_GET), and a part left out would leave its studies without a parent.
+    const office = {
+      deviceId: 'office-device',
+      now: () => new Date('2026-10-01T00:00:00Z'),
+      newId: () => crypto.randomUUID()
+    };
+    const site = stampNew({ name: 'Ostby Works', region: '', timeZone: 'UTC' }, office);
+    const process = stampNew(
+      {
+        siteId: site.id,
+        name: 'Press line',
+        owner: '',
+        contextId: 'vehicle-parts',
+        monthlyVolume: 10,
+        costPerDefective: 1,
+        currency: 'EUR'
+      },
+      office
+    );
+    const chars = Array.from({ length: 2500 }, (_, i) =>
+      stampNew(
+        {
+          processId: process.id,
+          name: `Bore ${i}`,
+          unit: 'mm',
+          dataKind: 'measured' as const,
+          riskClass: 'standard' as const,
+          lsl: 9,
+          usl: 11
+        },
+        office
+      )
+    );
+    const none = { contextProfiles: [], projects: [], reviews: [] };
+    const s = await device();
+    const source = { deviceId: 'office-device', name: 'office', at: '2026-10-01T00:00:00Z' };
+    const setup = { ...none, sites: [site], processes: [process], characteristics: chars, studies: [] };
+    await s.exchange.apply(await s.exchange.preview(setup), {}, source);
+    // One of the last characteristics was deleted here: a study logged under it there is a conflict, which the
+    // preview sees only if it read that parent.
+    const gone = chars[2400]!;
+    await s.characteristics.remove(gone.id);
+    const studies = chars.map((c) =>
+      stampNew(
+        {
+          characteristicId: c.id,
+          period: '2026-09',
+          enteredBy: 'office-device',
+          data: { kind: 'summary' as const, n: 30, mean: 10, sd: 0.2 }
+        },
+        office
+      )
+    );
+    const plan = await s.exchange.preview({
+      ...none,
+      sites: [],
+      processes: [],
+      characteristics: [],
+      studies
+    });
+    expect(plan.conflicts.map((c) => [c.key, c.nature])).toEqual([[gone.id, 'deleted-here']]);
+  }, 60_000);
 });
