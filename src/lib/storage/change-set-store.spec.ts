@@ -94,44 +94,52 @@ describe('change-set store', () => {
   });
 });
 
+/** A device's write context at a fixed time. */
+const at = (deviceId: string) => ({
+  deviceId,
+  now: () => new Date('2026-10-01T00:00:00Z'),
+  newId: () => crypto.randomUUID()
+});
+const office = at('office-device');
+
+/** One site with one process of `count` characteristics, as the office device created them. */
+function pressLine(count: number) {
+  const site = stampNew({ name: 'Ostby Works', region: '', timeZone: 'UTC' }, office);
+  const process = stampNew(
+    {
+      siteId: site.id,
+      name: 'Press line',
+      owner: '',
+      contextId: 'vehicle-parts',
+      monthlyVolume: 10,
+      costPerDefective: 1,
+      currency: 'EUR'
+    },
+    office
+  );
+  const chars = Array.from({ length: count }, (_, i) =>
+    stampNew(
+      {
+        processId: process.id,
+        name: `Bore ${i}`,
+        unit: 'mm',
+        dataKind: 'measured' as const,
+        riskClass: 'standard' as const,
+        lsl: 9,
+        usl: 11
+      },
+      office
+    )
+  );
+  return { site, process, chars };
+}
+
 describe('a file of many months', () => {
   it('finds every month it shares with this device, however many the file logs', async () => {
     // More months than one query of the snapshot reads (MONTH_KEYS_PER_QUERY): the last ones must clash too.
     const characteristics = 110;
     const months = 40;
-    const at = (deviceId: string) => ({
-      deviceId,
-      now: () => new Date('2026-10-01T00:00:00Z'),
-      newId: () => crypto.randomUUID()
-    });
-    const office = at('office-device');
-    const site = stampNew({ name: 'Ostby Works', region: '', timeZone: 'UTC' }, office);
-    const process = stampNew(
-      {
-        siteId: site.id,
-        name: 'Press line',
-        owner: '',
-        contextId: 'vehicle-parts',
-        monthlyVolume: 10,
-        costPerDefective: 1,
-        currency: 'EUR'
-      },
-      office
-    );
-    const chars = Array.from({ length: characteristics }, (_, i) =>
-      stampNew(
-        {
-          processId: process.id,
-          name: `Bore ${i}`,
-          unit: 'mm',
-          dataKind: 'measured' as const,
-          riskClass: 'standard' as const,
-          lsl: 9,
-          usl: 11
-        },
-        office
-      )
-    );
+    const { site, process, chars } = pressLine(characteristics);
     const studiesBy = (ctx: ReturnType<typeof at>) =>
       chars.flatMap((c) =>
         Array.from({ length: months }, (_, m) =>
@@ -166,39 +174,8 @@ describe('a file of many months', () => {
 
   it('finds the parents of every study of a file naming more of them than one read asks for', async () => {
     // 2 500 characteristics held here, a file of one study under each: their parents are read a part at a time
-    // (KEYS_PER_GET), and a part left out would leave its studies without a parent.
-    const office = {
-      deviceId: 'office-device',
-      now: () => new Date('2026-10-01T00:00:00Z'),
-      newId: () => crypto.randomUUID()
-    };
-    const site = stampNew({ name: 'Ostby Works', region: '', timeZone: 'UTC' }, office);
-    const process = stampNew(
-      {
-        siteId: site.id,
-        name: 'Press line',
-        owner: '',
-        contextId: 'vehicle-parts',
-        monthlyVolume: 10,
-        costPerDefective: 1,
-        currency: 'EUR'
-      },
-      office
-    );
-    const chars = Array.from({ length: 2500 }, (_, i) =>
-      stampNew(
-        {
-          processId: process.id,
-          name: `Bore ${i}`,
-          unit: 'mm',
-          dataKind: 'measured' as const,
-          riskClass: 'standard' as const,
-          lsl: 9,
-          usl: 11
-        },
-        office
-      )
-    );
+    // (KEYS_PER_GET), and one of the last, deleted here, must still be seen for the conflict its study makes.
+    const { site, process, chars } = pressLine(2500);
     const none = { contextProfiles: [], projects: [], reviews: [] };
     const s = await device();
     const source = { deviceId: 'office-device', name: 'office', at: '2026-10-01T00:00:00Z' };
