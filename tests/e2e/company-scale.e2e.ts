@@ -52,6 +52,10 @@ test('2 000 processes: received, ranked and reviewed without a long task on the 
   await page.getByTestId('exchange-file-input').setInputFiles(file);
   await expect(page.getByTestId('import-preview')).toBeVisible({ timeout: 120_000 });
   await page.getByTestId('confirm-merge').click();
+  // Seconds of writing: the status line says how far it has got.
+  await expect(page.getByRole('status').filter({ hasText: /of \S+ records written/ })).toBeVisible({
+    timeout: 60_000
+  });
   await expect(page.getByTestId('exchange-done')).toContainText('Merged', { timeout: 120_000 });
   const receiving = await longTasks();
   console.log(

@@ -206,3 +206,44 @@ describe('a file of many months', () => {
     expect(plan.conflicts.map((c) => [c.key, c.nature])).toEqual([[gone.id, 'deleted-here']]);
   }, 60_000);
 });
+
+describe('a long merge', () => {
+  it('reports the records written as it goes, up to all of them', async () => {
+    const { site, process, chars } = pressLine(600);
+    const studies = chars.map((c) =>
+      stampNew(
+        {
+          characteristicId: c.id,
+          period: '2026-09',
+          enteredBy: 'office-device',
+          data: { kind: 'summary' as const, n: 30, mean: 10, sd: 0.2 }
+        },
+        office
+      )
+    );
+    const s = await device();
+    const file = {
+      contextProfiles: [],
+      sites: [site],
+      processes: [process],
+      characteristics: chars,
+      studies,
+      projects: [],
+      reviews: []
+    };
+    const heard: [number, number][] = [];
+    const result = await s.exchange.apply(
+      await s.exchange.preview(file),
+      {},
+      { deviceId: 'office-device', name: 'office', at: '2026-10-01T00:00:00Z' },
+      (written, total) => heard.push([written, total])
+    );
+    // A part per table and WRITE_SLICE records: the site, the process, three parts of characteristics, three of
+    // studies; every report counts more than the one before, and the last counts every record written.
+    expect(result.written).toBe(1202);
+    expect(heard).toHaveLength(8);
+    expect(heard.every(([w], i) => i === 0 || w > heard[i - 1]![0])).toBe(true);
+    expect(heard.every(([, total]) => total === 1202)).toBe(true);
+    expect(heard.at(-1)).toEqual([1202, 1202]);
+  }, 60_000);
+});

@@ -329,7 +329,8 @@ export async function applyChangeSet(
   choices: MergeChoices,
   ctx: WriteContext,
   clock: HybridClock,
-  source: { deviceId: string; name: string; at: string }
+  source: { deviceId: string; name: string; at: string },
+  onWritten?: (written: number, total: number) => void
 ): Promise<ReceiveResult> {
   let writes: IndexedRecord[];
   try {
@@ -340,6 +341,7 @@ export async function applyChangeSet(
   }
   const tables = RECORD_KINDS.map((k) => tableOf(db, k));
   return db.transaction('rw', [...tables, db.deviceSettings, db.studyRevisions], async () => {
+    let written = 0;
     for (const kind of RECORD_KINDS) {
       const mine = writes.filter((w) => w.kind === kind);
       if (mine.length === 0) continue;
@@ -374,8 +376,12 @@ export async function applyChangeSet(
       });
       // In slices, each awaited: the transaction stays open while requests are pending, and between slices the
       // page gets its thread back (one bulkPut of 70 000 records was a single task of seconds).
-      for (let from = 0; from < mine.length; from += WRITE_SLICE)
-        await table.bulkPut(mine.slice(from, from + WRITE_SLICE).map((w) => w.record));
+      for (let from = 0; from < mine.length; from += WRITE_SLICE) {
+        const slice = mine.slice(from, from + WRITE_SLICE);
+        await table.bulkPut(slice.map((w) => w.record));
+        written += slice.length;
+        onWritten?.(written, writes.length);
+      }
       if (revisions.length > 0) await db.studyRevisions.bulkAdd(revisions);
     }
     clock.observe(plan.latestStamp);

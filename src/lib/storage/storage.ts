@@ -98,10 +98,12 @@ export interface CapstanStorage {
       peer?: { deviceId: string; name: string }
     ): Promise<void>;
     preview(records: RecordsByKind): Promise<ReceivePlan>;
+    /** `onWritten` hears how many of the merge's records are written so far, after each part (for a progress line). */
     apply(
       plan: ReceivePlan,
       choices: MergeChoices,
-      source: { deviceId: string; name: string; at: string }
+      source: { deviceId: string; name: string; at: string },
+      onWritten?: (written: number, total: number) => void
     ): Promise<ReceiveResult>;
     peers(): Promise<PeerRecord[]>;
     backupStatus(): Promise<BackupStatus>;
@@ -232,9 +234,9 @@ export async function openStorage(
       recordExport: async (at, collected, peer) =>
         (await changeSets()).recordExport(db, clock, at, collected, peer),
       preview: async (records) => (await changeSets()).previewChangeSet(db, records),
-      apply: async (plan, choices, source) => {
+      apply: async (plan, choices, source, onWritten) => {
         try {
-          return await (await changeSets()).applyChangeSet(db, plan, choices, ctx, clock, source);
+          return await (await changeSets()).applyChangeSet(db, plan, choices, ctx, clock, source, onWritten);
         } catch (error) {
           throw explainStorageError(error, 'The import');
         }
