@@ -1,6 +1,6 @@
 import 'fake-indexeddb/auto';
 import { afterEach, describe, expect, it } from 'vitest';
-import { stampNew } from '../domain/record-meta';
+import { editableOf, stampNew, stampUpdate } from '../domain/record-meta';
 import { openStorage, databaseOf, type CapstanStorage } from './storage';
 
 /** The change-set store directly: what each scope collects, and what preview and apply refuse. */
@@ -245,5 +245,35 @@ describe('a long merge', () => {
     expect(heard.every(([w], i) => i === 0 || w > heard[i - 1]![0])).toBe(true);
     expect(heard.every(([, total]) => total === 1202)).toBe(true);
     expect(heard.at(-1)).toEqual([1202, 1202]);
+  }, 60_000);
+
+  it('checks each record it updates in a large table against the preview before writing, a part or all', async () => {
+    // 100 of 600 characteristics renamed on another device: fewer writes than the table holds, each compared
+    // with this device's version as the preview saw it (a record missed there would refuse the merge).
+    const { site, process, chars } = pressLine(600);
+    const none = { contextProfiles: [], studies: [], projects: [], reviews: [] };
+    const s = await device();
+    const source = { deviceId: 'office-device', name: 'office', at: '2026-10-01T00:00:00Z' };
+    const setup = { ...none, sites: [site], processes: [process], characteristics: chars };
+    await s.exchange.apply(await s.exchange.preview(setup), {}, source);
+    const lead = { ...at('lead-device'), now: () => new Date('2026-10-02T00:00:00Z') };
+    const renamed = chars
+      .slice(0, 100)
+      .map((c) => stampUpdate(c, { ...editableOf(c), name: `${c.name} (renamed)` }, lead));
+    const file = { ...none, sites: [], processes: [], characteristics: renamed };
+    const result = await s.exchange.apply(await s.exchange.preview(file), {}, source);
+    expect(result.counts).toMatchObject({ updated: 100, conflict: 0 });
+    const held = await databaseOf(s).characteristics.get(renamed[99]!.id);
+    expect(held?.name).toBe('Bore 99 (renamed)');
+    // Then every one of them, as many writes as the table holds.
+    const later = { ...at('lead-device'), now: () => new Date('2026-10-03T00:00:00Z') };
+    const stored = await databaseOf(s).characteristics.toArray();
+    const all = stored.map((c) => stampUpdate(c, { ...editableOf(c), unit: 'in' }, later));
+    const again = await s.exchange.apply(
+      await s.exchange.preview({ ...none, sites: [], processes: [], characteristics: all }),
+      {},
+      source
+    );
+    expect(again.counts).toMatchObject({ updated: 600, conflict: 0 });
   }, 60_000);
 });
