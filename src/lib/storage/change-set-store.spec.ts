@@ -134,6 +134,34 @@ function pressLine(count: number) {
   return { site, process, chars };
 }
 
+/** A file of a press line's records and these studies. */
+function fileOf<S>(line: ReturnType<typeof pressLine>, studies: S[]) {
+  return {
+    contextProfiles: [],
+    sites: [line.site],
+    processes: [line.process],
+    characteristics: line.chars,
+    studies,
+    projects: [],
+    reviews: []
+  };
+}
+
+/** One study of September 2026 under each characteristic, as the office device logged them. */
+function septemberOf(chars: readonly { id: string }[]) {
+  return chars.map((c) =>
+    stampNew(
+      {
+        characteristicId: c.id,
+        period: '2026-09',
+        enteredBy: 'office-device',
+        data: { kind: 'summary' as const, n: 30, mean: 10, sd: 0.2 }
+      },
+      office
+    )
+  );
+}
+
 describe('a file of many months', () => {
   it('finds every month it shares with this device, however many the file logs', async () => {
     // More months than one query of the snapshot reads (MONTH_KEYS_PER_QUERY): the last ones must clash too.
@@ -154,15 +182,7 @@ describe('a file of many months', () => {
           )
         )
       );
-    const records = (studies: ReturnType<typeof studiesBy>) => ({
-      contextProfiles: [],
-      sites: [site],
-      processes: [process],
-      characteristics: chars,
-      studies,
-      projects: [],
-      reviews: []
-    });
+    const records = (studies: ReturnType<typeof studiesBy>) => fileOf({ site, process, chars }, studies);
     const s = await device();
     const source = { deviceId: 'office-device', name: 'office', at: '2026-10-01T00:00:00Z' };
     await s.exchange.apply(await s.exchange.preview(records(studiesBy(office))), {}, source);
@@ -185,17 +205,7 @@ describe('a file of many months', () => {
     // preview sees only if it read that parent.
     const gone = chars[2400]!;
     await s.characteristics.remove(gone.id);
-    const studies = chars.map((c) =>
-      stampNew(
-        {
-          characteristicId: c.id,
-          period: '2026-09',
-          enteredBy: 'office-device',
-          data: { kind: 'summary' as const, n: 30, mean: 10, sd: 0.2 }
-        },
-        office
-      )
-    );
+    const studies = septemberOf(chars);
     const plan = await s.exchange.preview({
       ...none,
       sites: [],
@@ -209,28 +219,9 @@ describe('a file of many months', () => {
 
 describe('a long merge', () => {
   it('reports the records written as it goes, up to all of them', async () => {
-    const { site, process, chars } = pressLine(600);
-    const studies = chars.map((c) =>
-      stampNew(
-        {
-          characteristicId: c.id,
-          period: '2026-09',
-          enteredBy: 'office-device',
-          data: { kind: 'summary' as const, n: 30, mean: 10, sd: 0.2 }
-        },
-        office
-      )
-    );
+    const line = pressLine(600);
     const s = await device();
-    const file = {
-      contextProfiles: [],
-      sites: [site],
-      processes: [process],
-      characteristics: chars,
-      studies,
-      projects: [],
-      reviews: []
-    };
+    const file = fileOf(line, septemberOf(line.chars));
     const heard: [number, number][] = [];
     const result = await s.exchange.apply(
       await s.exchange.preview(file),
