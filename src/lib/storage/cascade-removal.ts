@@ -1,5 +1,5 @@
 import type { Table } from 'dexie';
-import { CHILD_KINDS, PARENT_OF, type RecordKind } from '../domain/record-kinds';
+import { CHILD_KINDS, type RecordKind } from '../domain/record-kinds';
 import {
   isLive,
   stampDeleted,
@@ -9,6 +9,7 @@ import {
 } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
 import { RecordNotFoundError } from './record-repository';
+import { recordsUnder } from './records-under';
 
 /**
  * Deleting a record with everything under it (a site, a process or a characteristic), and undoing that. The
@@ -51,7 +52,7 @@ async function descendants(
     const next: { kind: RecordKind; ids: string[] }[] = [];
     for (const { kind: parentKind, ids } of frontier) {
       for (const childKind of CHILD_KINDS[parentKind] ?? []) {
-        const rows = await table(db, childKind).where(PARENT_OF[childKind]!.field).anyOf(ids).toArray();
+        const rows = await recordsUnder(db, childKind, ids).toArray();
         for (const r of rows) out.push({ kind: childKind, record: r });
         if (rows.length > 0) next.push({ kind: childKind, ids: rows.map((r) => r.id) });
       }

@@ -33,6 +33,7 @@ import type { Study } from '../domain/study';
 import type { CapstanDatabase, StudyRevision } from './database';
 import { LAST_EXPORT_KEY } from './backup-status';
 import { saveClock } from './device-identity';
+import { recordsUnder } from './records-under';
 import { runInSlices } from './sliced-run';
 import { pauseEvery, type Steps } from '../domain/work-steps';
 
@@ -98,10 +99,11 @@ export async function collectChanges(db: CapstanDatabase, scope: ExportScope): P
       records.sites = [site];
       records.processes = processes;
       records.characteristics = characteristics;
-      records.studies = await db.studies
-        .where('characteristicId')
-        .anyOf(characteristics.map((c) => c.id))
-        .toArray();
+      records.studies = (await recordsUnder(
+        db,
+        'studies',
+        characteristics.map((c) => c.id)
+      ).toArray()) as Study[];
       records.projects = await db.projects.where('processId').anyOf(processIds).toArray();
       // Targets travel with every site file: the site judges its processes against the same profiles.
       records.contextProfiles = await db.contextProfiles.toArray();
@@ -294,10 +296,11 @@ async function snapshotFor(
       const ids = frontier.filter((f) => f.kind === parentKind && !expanded.has(`${childKind}:${f.id}`));
       if (ids.length === 0) continue;
       for (const f of ids) expanded.add(`${childKind}:${f.id}`);
-      const rows = await tableOf(db, childKind)
-        .where(PARENT_OF[childKind]!.field)
-        .anyOf(ids.map((f) => f.id))
-        .toArray();
+      const rows = await recordsUnder(
+        db,
+        childKind,
+        ids.map((f) => f.id)
+      ).toArray();
       add(childKind, rows);
       if (CHILD_KINDS[childKind]) for (const r of rows) next.push({ kind: childKind, id: r.id });
     }

@@ -9,8 +9,11 @@ import {
   SCHEMA_V3,
   SCHEMA_V4,
   SCHEMA_V5,
-  SCHEMA_V6
+  SCHEMA_V6,
+  SCHEMA_V7,
+  SCHEMA_V8
 } from './schema-versions';
+import { recordsUnder } from './records-under';
 
 /**
  * Opens a database as schema v1 shipped it, fills it with v1-shaped records, then reopens it with the
@@ -281,6 +284,61 @@ describe('schema upgrade v6 → v7', () => {
         detectedAt: expect.any(String)
       }
     ]);
+    current.close();
+    await Dexie.delete(name);
+  });
+});
+
+describe('schema upgrade v8 → v9', () => {
+  it('drops two study indexes, keeps every study, and still finds the studies of each characteristic', async () => {
+    const name = 'capstan-migration-v9';
+    const v8 = new Dexie(name);
+    v8.version(1).stores(SCHEMA_V1);
+    v8.version(2).stores(SCHEMA_V2);
+    v8.version(3).stores(SCHEMA_V3);
+    v8.version(4).stores(SCHEMA_V4);
+    v8.version(5).stores(SCHEMA_V5);
+    v8.version(6).stores(SCHEMA_V6);
+    v8.version(7).stores(SCHEMA_V7);
+    v8.version(8).stores(SCHEMA_V8);
+    await v8.open();
+    // 'c1' is a prefix of 'c10': a range of the compound index's first part must not run from one into the other.
+    const study = (id: string, characteristicId: string, period: string, deletedAt?: string) => ({
+      id,
+      createdAt: '2026-03-04T00:00:00.000Z',
+      updatedAt: '2026-03-04T00:00:00.000Z',
+      rev: 1,
+      deviceId: 'dev',
+      vv: { dev: 1 },
+      clock: '1772582400000-0000-dev',
+      localSeq: 1,
+      characteristicId,
+      period,
+      data: { kind: 'summary', n: 30, mean: 10, sd: 1 },
+      enteredBy: 'dev',
+      ...(deletedAt ? { deletedAt } : {})
+    });
+    const rows = [
+      study('s1', 'c1', '2024-01'),
+      study('s2', 'c1', '2026-12', '2026-03-05T00:00:00.000Z'),
+      study('s3', 'c10', '2025-06'),
+      study('s4', 'c2', '2025-06'),
+      study('s5', 'c0', '2025-06')
+    ];
+    await v8.table('studies').bulkAdd(rows);
+    v8.close();
+    const current = new CapstanDatabase(name);
+    await current.open();
+    expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
+    const indexes = current.studies.schema.indexes.map((i) => i.name).sort();
+    expect(indexes).toEqual(['[characteristicId+period]', 'localSeq', 'period']);
+    for (const r of rows) expect(await current.studies.get(r.id)).toEqual(r);
+    const idsUnder = async (parents: string[]) =>
+      (await recordsUnder(current, 'studies', parents).toArray()).map((r) => r.id).sort();
+    expect(await idsUnder(['c1'])).toEqual(['s1', 's2']);
+    expect(await idsUnder(['c10', 'c2'])).toEqual(['s3', 's4']);
+    expect(await idsUnder(['c9'])).toEqual([]);
+    expect(await idsUnder([])).toEqual([]);
     current.close();
     await Dexie.delete(name);
   });

@@ -1,7 +1,7 @@
 /**
  * Runs inside headless Chromium (bundled by browser-bench.ts): writes and reads 100 000 studies through the
- * app's database class — its schema with five study indexes and the write-sequence middleware — and through a
- * bare Dexie table with three indexes, in the same chunks, in the same run.
+ * app's database class — its study schema (three indexes with the primary key, and the write sequence) and the
+ * write-sequence middleware — and through bare Dexie tables, in the same chunks, in the same run.
  */
 import { Dexie } from 'dexie';
 import { stampNew, type WriteContext } from '../../../src/lib/domain/record-meta';
@@ -10,6 +10,7 @@ import { HybridClock } from '../../../src/lib/domain/hybrid-clock';
 import { changeSetOf, decodeExchangeFile, encodeExchangeFile } from '../../../src/lib/exchange/exchange-file';
 import { applyChangeSet, collectChanges, previewChangeSet } from '../../../src/lib/storage/change-set-store';
 import { CapstanDatabase } from '../../../src/lib/storage/database';
+import { SCHEMA_V9 } from '../../../src/lib/storage/schema-versions';
 
 const COUNT = 100_000;
 const CHUNK = 5_000;
@@ -66,9 +67,7 @@ export async function runIndexedDbBench() {
   // set by hand): what remains between this and the app is the app's code (the middleware), not the schema.
   await Dexie.delete('bench-same-schema');
   const same = new Dexie('bench-same-schema');
-  same
-    .version(1)
-    .stores({ studies: 'id, characteristicId, period, updatedAt, [characteristicId+period], localSeq' });
+  same.version(1).stores({ studies: SCHEMA_V9.studies });
   await same.open();
   let seq = 0;
   const sameTimes = await timed(
