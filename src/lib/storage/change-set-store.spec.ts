@@ -238,6 +238,26 @@ describe('a long merge', () => {
     expect(heard.at(-1)).toEqual([1202, 1202]);
   }, 60_000);
 
+  it('writes nothing when a part fails after earlier parts were handed over', async () => {
+    // Two parts are in flight at a time: the failure of the last part (the 550th of 600 studies) must still undo
+    // every part before it, and the characteristics written before the studies.
+    const line = pressLine(600);
+    const s = await device();
+    const plan = await s.exchange.preview(fileOf(line, septemberOf(line.chars)));
+    const db = databaseOf(s);
+    let created = 0;
+    db.studies.hook('creating', () => {
+      created += 1;
+      if (created === 550) throw new Error('the disk is full');
+    });
+    await expect(
+      s.exchange.apply(plan, {}, { deviceId: 'office-device', name: 'office', at: '2026-10-01T00:00:00Z' })
+    ).rejects.toThrow();
+    expect(created).toBeGreaterThanOrEqual(550);
+    for (const table of [db.sites, db.processes, db.characteristics, db.studies])
+      expect(await table.count()).toBe(0);
+  }, 60_000);
+
   it('checks each record it updates in a large table against the preview before writing, a part or all', async () => {
     // 100 of 600 characteristics renamed on another device: fewer writes than the table holds, each compared
     // with this device's version as the preview saw it (a record missed there would refuse the merge).

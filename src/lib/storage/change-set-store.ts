@@ -357,6 +357,11 @@ export async function applyChangeSet(
   const tables = RECORD_KINDS.map((k) => tableOf(db, k));
   return db.transaction('rw', [...tables, db.deviceSettings, db.studyRevisions], async () => {
     let written = 0;
+    const settled = async (slice: { done: Promise<unknown>; count: number }) => {
+      await slice.done;
+      written += slice.count;
+      onWritten?.(written, writes.length);
+    };
     for (const kind of RECORD_KINDS) {
       const mine = writes.filter((w) => w.kind === kind);
       if (mine.length === 0) continue;
@@ -395,14 +400,21 @@ export async function applyChangeSet(
           });
         }
       });
-      // In slices, each awaited: the transaction stays open while requests are pending, and between slices the
-      // page gets its thread back (one bulkPut of 70 000 records was a single task of seconds).
+      // In slices: the transaction stays open while requests are pending, and between slices the page gets its
+      // thread back (one bulkPut of 70 000 records was a single task of seconds). Two slices in flight: the next
+      // is handed to IndexedDB before the last is awaited, so the page prepares one slice (serialising every
+      // record is the page's share of a write) while the database writes the other — awaited one at a time,
+      // each waited for the other and a 72 000-study merge was idle for 40 % of its time.
+      let inFlight: { done: Promise<unknown>; count: number } | undefined;
       for (let from = 0; from < mine.length; from += WRITE_SLICE) {
         const slice = mine.slice(from, from + WRITE_SLICE);
-        await table.bulkPut(slice.map((w) => w.record));
-        written += slice.length;
-        onWritten?.(written, writes.length);
+        const next = { done: table.bulkPut(slice.map((w) => w.record)), count: slice.length };
+        // Its failure is met when it is awaited (next round, or after the loop); until then it is not unhandled.
+        next.done.catch(() => undefined);
+        if (inFlight) await settled(inFlight);
+        inFlight = next;
       }
+      if (inFlight) await settled(inFlight);
       if (revisions.length > 0) await db.studyRevisions.bulkAdd(revisions);
     }
     clock.observe(plan.latestStamp);
