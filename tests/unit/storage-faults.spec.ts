@@ -107,7 +107,7 @@ describe('storage faults', () => {
   it('a database written by a newer app is refused, not changed', async () => {
     const name = `fault-newer-${Math.random()}`;
     const newer = new Dexie(name);
-    newer.version(9).stores({ sites: 'id', future: 'id' });
+    newer.version(CURRENT_SCHEMA_VERSION + 1).stores({ sites: 'id', future: 'id' });
     await newer.open();
     await newer.table('future').add({ id: 'kept' });
     newer.close();
@@ -116,7 +116,7 @@ describe('storage faults', () => {
     expect(error.kind).toBe('newer-version');
     expect(error.message).toContain('written by a newer version of Capstan');
     const again = new Dexie(name);
-    again.version(9).stores({ sites: 'id', future: 'id' });
+    again.version(CURRENT_SCHEMA_VERSION + 1).stores({ sites: 'id', future: 'id' });
     await again.open();
     expect(await again.table('future').get('kept')).toEqual({ id: 'kept' });
     again.close();
