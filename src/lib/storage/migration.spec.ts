@@ -15,6 +15,42 @@ import {
 } from './schema-versions';
 import { recordsUnder } from './records-under';
 
+/** A database as version `version` of the app shipped it: the schemas of that version and those before it. */
+function databaseAsShipped(name: string, version: number): Dexie {
+  const db = new Dexie(name);
+  [SCHEMA_V1, SCHEMA_V2, SCHEMA_V3, SCHEMA_V4, SCHEMA_V5, SCHEMA_V6, SCHEMA_V7, SCHEMA_V8]
+    .slice(0, version)
+    .forEach((schema, i) => db.version(i + 1).stores(schema));
+  return db;
+}
+
+/** A one-month summary study with the bookkeeping v5 and later store (written once, by `deviceId`). */
+function storedStudy(s: {
+  id: string;
+  characteristicId: string;
+  period: string;
+  deviceId?: string;
+  mean?: number;
+  deletedAt?: string | undefined;
+}) {
+  const deviceId = s.deviceId ?? 'dev';
+  return {
+    id: s.id,
+    createdAt: '2026-03-04T00:00:00.000Z',
+    updatedAt: '2026-03-04T00:00:00.000Z',
+    rev: 1,
+    deviceId,
+    vv: { [deviceId]: 1 },
+    clock: `1772582400000-0000-${deviceId}`,
+    localSeq: 1,
+    characteristicId: s.characteristicId,
+    period: s.period,
+    data: { kind: 'summary', n: 30, mean: s.mean ?? 10, sd: 1 },
+    enteredBy: deviceId,
+    ...(s.deletedAt ? { deletedAt: s.deletedAt } : {})
+  };
+}
+
 /**
  * Opens a database as schema v1 shipped it, fills it with v1-shaped records, then reopens it with the
  * current app and checks that every record survived and the v2 upgrade did its work.
@@ -242,29 +278,11 @@ describe('schema upgrade v5 → v6', () => {
 describe('schema upgrade v6 → v7', () => {
   it('turns two live studies of one month into a pending conflict and drops neither', async () => {
     const name = 'capstan-migration-v7';
-    const v6 = new Dexie(name);
-    v6.version(1).stores(SCHEMA_V1);
-    v6.version(2).stores(SCHEMA_V2);
-    v6.version(3).stores(SCHEMA_V3);
-    v6.version(4).stores(SCHEMA_V4);
-    v6.version(5).stores(SCHEMA_V5);
-    v6.version(6).stores(SCHEMA_V6);
+    const v6 = databaseAsShipped(name, 6);
     await v6.open();
-    const study = (id: string, deviceId: string, mean: number, deletedAt?: string) => ({
-      id,
-      createdAt: '2026-03-04T00:00:00.000Z',
-      updatedAt: '2026-03-04T00:00:00.000Z',
-      rev: 1,
-      deviceId,
-      vv: { [deviceId]: 1 },
-      clock: `1772582400000-0000-${deviceId}`,
-      localSeq: 1,
-      characteristicId: '11111111-1111-4111-8111-111111111111',
-      period: '2026-02',
-      data: { kind: 'summary', n: 30, mean, sd: 1 },
-      enteredBy: deviceId,
-      ...(deletedAt ? { deletedAt } : {})
-    });
+    const characteristicId = '11111111-1111-4111-8111-111111111111';
+    const study = (id: string, deviceId: string, mean: number, deletedAt?: string) =>
+      storedStudy({ id, characteristicId, period: '2026-02', deviceId, mean, deletedAt });
     const rows = [
       study('aaaaaaaa-0000-4000-8000-000000000001', 'site-lead', 10.1),
       study('aaaaaaaa-0000-4000-8000-000000000002', 'office', 10.3),
@@ -292,32 +310,11 @@ describe('schema upgrade v6 → v7', () => {
 describe('schema upgrade v8 → v9', () => {
   it('drops two study indexes, keeps every study, and still finds the studies of each characteristic', async () => {
     const name = 'capstan-migration-v9';
-    const v8 = new Dexie(name);
-    v8.version(1).stores(SCHEMA_V1);
-    v8.version(2).stores(SCHEMA_V2);
-    v8.version(3).stores(SCHEMA_V3);
-    v8.version(4).stores(SCHEMA_V4);
-    v8.version(5).stores(SCHEMA_V5);
-    v8.version(6).stores(SCHEMA_V6);
-    v8.version(7).stores(SCHEMA_V7);
-    v8.version(8).stores(SCHEMA_V8);
+    const v8 = databaseAsShipped(name, 8);
     await v8.open();
     // 'c1' is a prefix of 'c10': a range of the compound index's first part must not run from one into the other.
-    const study = (id: string, characteristicId: string, period: string, deletedAt?: string) => ({
-      id,
-      createdAt: '2026-03-04T00:00:00.000Z',
-      updatedAt: '2026-03-04T00:00:00.000Z',
-      rev: 1,
-      deviceId: 'dev',
-      vv: { dev: 1 },
-      clock: '1772582400000-0000-dev',
-      localSeq: 1,
-      characteristicId,
-      period,
-      data: { kind: 'summary', n: 30, mean: 10, sd: 1 },
-      enteredBy: 'dev',
-      ...(deletedAt ? { deletedAt } : {})
-    });
+    const study = (id: string, characteristicId: string, period: string, deletedAt?: string) =>
+      storedStudy({ id, characteristicId, period, deletedAt });
     const rows = [
       study('s1', 'c1', '2024-01'),
       study('s2', 'c1', '2026-12', '2026-03-05T00:00:00.000Z'),
