@@ -93,18 +93,18 @@ export async function collectChanges(db: CapstanDatabase, scope: ExportScope): P
     } else {
       const site = await db.sites.get(scope.siteId);
       if (!site) throw new Error(`Site ${scope.siteId} does not exist on this device`);
-      const processes = await db.processes.where('siteId').equals(site.id).toArray();
+      const processes = await recordsUnder(db, 'processes', [site.id]).toArray();
       const processIds = processes.map((p) => p.id);
-      const characteristics = await db.characteristics.where('processId').anyOf(processIds).toArray();
+      const characteristics = await recordsUnder(db, 'characteristics', processIds).toArray();
       records.sites = [site];
       records.processes = processes;
       records.characteristics = characteristics;
-      records.studies = (await recordsUnder(
+      records.studies = await recordsUnder(
         db,
         'studies',
         characteristics.map((c) => c.id)
-      ).toArray()) as Study[];
-      records.projects = await db.projects.where('processId').anyOf(processIds).toArray();
+      ).toArray();
+      records.projects = await recordsUnder(db, 'projects', processIds).toArray();
       // Targets travel with every site file: the site judges its processes against the same profiles.
       records.contextProfiles = await db.contextProfiles.toArray();
     }
@@ -403,8 +403,8 @@ export async function applyChangeSet(
       // In slices: the transaction stays open while requests are pending, and between slices the page gets its
       // thread back (one bulkPut of 70 000 records was a single task of seconds). Two slices in flight: the next
       // is handed to IndexedDB before the last is awaited, so the page prepares one slice (serialising every
-      // record is the page's share of a write) while the database writes the other — awaited one at a time,
-      // each waited for the other and a 72 000-study merge was idle for 40 % of its time.
+      // record is the page's share of a write) while the database writes the other. Awaited one at a time, each
+      // waited for the other: a 72 000-study merge was idle for 40 % of its time.
       let inFlight: { done: Promise<unknown>; count: number } | undefined;
       for (let from = 0; from < mine.length; from += WRITE_SLICE) {
         const slice = mine.slice(from, from + WRITE_SLICE);
