@@ -52,6 +52,8 @@ export interface MonthClash {
  * which later studies are read as changed. Device-local and derived: deleting it loses nothing.
  */
 export type StoredReadModel = Omit<MonthlyStatisticsSnapshot, 'format' | 'rowIds' | 'ids' | 'tombstones'> & {
+  /** The other records the portfolio reads, as of `since` (absent in models stored before they were kept). */
+  tables?: PortfolioTables;
   key: string;
   format: number;
   /** Studies with a `localSeq` above this were written after the model was read (storage/portfolio-reader.ts). */
@@ -61,6 +63,17 @@ export type StoredReadModel = Omit<MonthlyStatisticsSnapshot, 'format' | 'rowIds
   tombstones: string;
   savedAt: string;
 };
+
+/**
+ * Every row (tombstones included, in id order) of the tables the portfolio reads besides the studies, kept with
+ * its stored read model (storage/portfolio-reader.ts).
+ */
+export interface PortfolioTables {
+  sites: Site[];
+  processes: Process[];
+  characteristics: Characteristic[];
+  projects: ImprovementProject[];
+}
 
 export const DEFAULT_DATABASE_NAME = 'capstan';
 

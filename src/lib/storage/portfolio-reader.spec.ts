@@ -1,8 +1,11 @@
 import 'fake-indexeddb/auto';
+import fc from 'fast-check';
+import type { Table } from 'dexie';
 import { afterEach, describe, expect, it } from 'vitest';
 import demo from '../../../seed-data/demo-portfolio.json';
 import { BUILT_IN_PROFILES } from '../domain/context-profile';
 import { rankPortfolio, type PortfolioRecords } from '../domain/portfolio-ranking';
+import { editableOf, type RecordMeta } from '../domain/record-meta';
 import { loadDemoPortfolio } from './demo-portfolio-loader';
 import { loadPortfolioRecords } from './portfolio-overview';
 import { forgetReadModels, readPortfolio } from './portfolio-reader';
@@ -33,6 +36,11 @@ function figuresOf(records: PortfolioRecords) {
     trend: r.trend,
     characteristics: r.characteristics.map((c) => ({ status: c.status, result: c.result, months: c.months }))
   }));
+}
+
+/** The records besides the studies, live only: what a full read gives and what the reader keeps. */
+function tablesPart(r: Pick<PortfolioRecords, 'sites' | 'processes' | 'characteristics' | 'projects'>) {
+  return { sites: r.sites, processes: r.processes, characteristics: r.characteristics, projects: r.projects };
 }
 
 async function withDemo(): Promise<CapstanStorage> {
@@ -86,6 +94,69 @@ describe('portfolio reader', () => {
     expect(figuresOf(again.records)).toEqual(figuresOf(await loadPortfolioRecords(databaseOf(s))));
   });
 
+  it('keeps the other records with the stored model and reads only the rows written since', async () => {
+    const s = await withDemo();
+    const db = databaseOf(s);
+    const first = await readPortfolio(s.databaseName);
+    expect(first.tablesRead).toBe(4);
+    await first.persist();
+    forgetReadModels();
+    const second = await readPortfolio(s.databaseName);
+    expect(second.tablesRead).toBe(0);
+    expect(tablesPart(second.records)).toEqual(tablesPart(await loadPortfolioRecords(db)));
+    // An edit, a deletion (a tombstone) and a new record, written as the app writes them.
+    const line = second.records.processes[0]!;
+    await s.processes.update(line.id, { ...editableOf(line), name: 'Renamed line' }, line.rev);
+    const gone = second.records.projects[0]!;
+    await s.projects.remove(gone.id);
+    const site = await s.sites.create({ name: 'Works added later', region: '', timeZone: 'UTC' });
+    await second.persist();
+    forgetReadModels();
+    const third = await readPortfolio(s.databaseName);
+    expect(third.tablesRead).toBe(0);
+    const full = await loadPortfolioRecords(db);
+    expect(tablesPart(third.records)).toEqual(tablesPart(full));
+    expect(third.records.processes.find((p) => p.id === line.id)?.name).toBe('Renamed line');
+    expect(third.records.projects.some((p) => p.id === gone.id)).toBe(false);
+    expect(third.records.sites.some((x) => x.id === site.id)).toBe(true);
+    expect(figuresOf(third.records)).toEqual(figuresOf(full));
+    // Kept in memory, and unchanged: the same arrays again (the ranking's plan, made of them, is kept too).
+    const fourth = await readPortfolio(s.databaseName);
+    expect(fourth.source).toBe('memory');
+    expect(fourth.records.processes).toBe(third.records.processes);
+  });
+
+  it('reads a table in full again when it lost a row the sequence did not show', async () => {
+    const s = await withDemo();
+    const db = databaseOf(s);
+    await (await readPortfolio(s.databaseName)).persist();
+    forgetReadModels();
+    const victim = (await db.processes.toArray())[0]!;
+    await db.processes.delete(victim.id); // removed outright: no write the sequence can show
+    const after = await readPortfolio(s.databaseName);
+    expect(after.tablesRead).toBe(1);
+    expect(after.records.processes.some((p) => p.id === victim.id)).toBe(false);
+    expect(tablesPart(after.records)).toEqual(tablesPart(await loadPortfolioRecords(db)));
+  });
+
+  it('reads the tables once from a model stored without them, then keeps them with it', async () => {
+    const s = await withDemo();
+    const db = databaseOf(s);
+    await (await readPortfolio(s.databaseName)).persist();
+    forgetReadModels();
+    // As stored before the tables were kept with the model.
+    await db.readModels.toCollection().modify((m) => {
+      delete m.tables;
+    });
+    const older = await readPortfolio(s.databaseName);
+    expect(older.source).toBe('stored');
+    expect(older.tablesRead).toBe(4);
+    expect(tablesPart(older.records)).toEqual(tablesPart(await loadPortfolioRecords(db)));
+    await older.persist();
+    forgetReadModels();
+    expect((await readPortfolio(s.databaseName)).tablesRead).toBe(0);
+  });
+
   it('rebuilds when the studies table holds a row the sequence did not show', async () => {
     const s = await withDemo();
     await (await readPortfolio(s.databaseName)).persist();
@@ -129,4 +200,57 @@ describe('portfolio reader', () => {
     });
     expect((await readPortfolio(s.databaseName)).source).toBe('rebuilt');
   });
+
+  /**
+   * Invariant: whatever was written, removed, stored and forgotten in between, the reader's sites, processes,
+   * characteristics and projects are those of a full read of the tables (fast-check, random histories).
+   */
+  it('gives the records of a full read after any history of writes, removals, stores and new workers (property)', async () => {
+    const kinds = ['sites', 'processes', 'characteristics', 'projects'] as const;
+    const step = fc.oneof(
+      fc.record({
+        op: fc.constantFrom('edit', 'tombstone', 'add', 'remove'),
+        kind: fc.constantFrom(...kinds),
+        pick: fc.nat()
+      }),
+      fc.record({ op: fc.constantFrom('read', 'persist', 'forget') })
+    );
+    await fc.assert(
+      fc.asyncProperty(fc.array(step, { minLength: 1, maxLength: 12 }), async (steps) => {
+        const s = await withDemo();
+        const db = databaseOf(s);
+        let last: Awaited<ReturnType<typeof readPortfolio>> | undefined = await readPortfolio(s.databaseName);
+        const same = async () => {
+          last = await readPortfolio(s.databaseName);
+          expect(tablesPart(last.records)).toEqual(tablesPart(await loadPortfolioRecords(db)));
+        };
+        let added = 0;
+        for (const x of steps) {
+          if (x.op === 'read') await same();
+          else if (x.op === 'persist') await last?.persist();
+          else if (x.op === 'forget') {
+            forgetReadModels(); // a new worker: the last read's database is closed with the old one
+            last = undefined;
+          } else if ('kind' in x) {
+            const table = db[x.kind] as unknown as Table<RecordMeta & { name?: string }, string>;
+            const rows = await table.toArray();
+            const row = rows[x.pick % rows.length];
+            if (!row) continue;
+            if (x.op === 'edit')
+              await table.put({ ...row, rev: row.rev + 1, name: `${row.name ?? ''} (edited)` });
+            else if (x.op === 'tombstone')
+              await table.put({ ...row, rev: row.rev + 1, deletedAt: new Date().toISOString() });
+            else if (x.op === 'add') await table.put({ ...row, id: `added-${(added += 1)}` });
+            else await table.delete(row.id); // outright: the sequence cannot show it
+          }
+        }
+        await same();
+        forgetReadModels();
+        databaseOf(s).close();
+        await databaseOf(s).delete();
+        storage = undefined;
+      }),
+      { numRuns: 20 }
+    );
+  }, 60_000);
 });
