@@ -48,21 +48,34 @@ export interface MonthClash {
 
 /**
  * The portfolio's read model as stored (storage/portfolio-reader.ts): its snapshot with the id lists joined
- * into one text each (one string clones far faster than hundreds of thousands), and the write sequence from
- * which later studies are read as changed. Device-local and derived: deleting it loses nothing.
+ * into one text each (one string clones far faster than hundreds of thousands), a cell's numbers in three
+ * columns (see `numbers`), and the write sequence from which later studies are read as changed. Device-local
+ * and derived: deleting it loses nothing.
  */
-export type StoredReadModel = Omit<MonthlyStatisticsSnapshot, 'format' | 'rowIds' | 'ids' | 'tombstones'> & {
-  /** The other records the portfolio reads, as of `since` (absent in models stored before they were kept). */
-  tables?: PortfolioTables;
-  key: string;
-  format: number;
-  /** Studies with a `localSeq` above this were written after the model was read (storage/portfolio-reader.ts). */
-  since: number;
-  rowIds: string;
-  ids: string;
-  tombstones: string;
-  savedAt: string;
-};
+export type StoredReadModel = Pick<
+  MonthlyStatisticsSnapshot,
+  'firstMonth' | 'span' | 'kind' | 'tag' | 'heldIds'
+> &
+  /** Format 1's six columns of numbers (format 2 keeps `numbers` instead). */
+  Partial<Pick<MonthlyStatisticsSnapshot, 'n' | 'mean' | 'sd' | 'units' | 'count' | 'opportunities'>> & {
+    key: string;
+    /** 2: the numbers in `numbers`; 1 (still read): in the snapshot's six columns, `n` to `opportunities`. */
+    format: number;
+    /** Studies with a `localSeq` above this were written after the model was read (storage/portfolio-reader.ts). */
+    since: number;
+    rowIds: string;
+    /**
+     * Format 2: each cell's three numbers — n, mean and sd of a measured month, or units, count and opportunities
+     * of a counted one (a cell never holds both). Reading a stored value costs by the byte, and the model's six
+     * columns were two thirds of it.
+     */
+    numbers?: [Float64Array, Float64Array, Float64Array];
+    ids: string;
+    tombstones: string;
+    savedAt: string;
+    /** The other records the portfolio reads, as of `since` (absent in models stored before they were kept). */
+    tables?: PortfolioTables;
+  };
 
 /**
  * Every row (tombstones included, in id order) of the tables the portfolio reads besides the studies, kept with

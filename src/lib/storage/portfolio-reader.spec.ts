@@ -190,6 +190,30 @@ describe('portfolio reader', () => {
     }
   });
 
+  it("reads a model stored in the first format, with a cell's numbers in six columns", async () => {
+    const s = await withDemo();
+    const db = databaseOf(s);
+    const first = await readPortfolio(s.databaseName);
+    await first.persist();
+    const snap = first.records.statistics.snapshot();
+    await db.readModels.toCollection().modify((m) => {
+      delete m.numbers;
+      Object.assign(m, {
+        format: 1,
+        n: snap.n,
+        mean: snap.mean,
+        sd: snap.sd,
+        units: snap.units,
+        count: snap.count,
+        opportunities: snap.opportunities
+      });
+    });
+    forgetReadModels();
+    const older = await readPortfolio(s.databaseName);
+    expect(older.source).toBe('stored');
+    expect(figuresOf(older.records)).toEqual(figuresOf(await loadPortfolioRecords(db)));
+  });
+
   it('starts afresh from a stored model of another format', async () => {
     const s = await withDemo();
     await (await readPortfolio(s.databaseName)).persist();

@@ -1,5 +1,5 @@
 import type { Table } from 'dexie';
-import { MonthlyStatistics, type MonthlyStatisticsSnapshot } from '../domain/monthly-statistics';
+import { CELL, MonthlyStatistics, type MonthlyStatisticsSnapshot } from '../domain/monthly-statistics';
 import type { PortfolioRecords } from '../domain/portfolio-terms';
 import { isLive, type RecordMeta } from '../domain/record-meta';
 import type { Study } from '../domain/study';
@@ -28,7 +28,9 @@ import { CapstanDatabase, type PortfolioTables, type StoredReadModel } from './d
  * the rows kept (a row removed outright, which the sequence cannot show) is read again in full.
  */
 const READ_MODEL_KEY = 'monthly-statistics';
-const READ_MODEL_FORMAT = 1;
+const READ_MODEL_FORMAT = 2;
+/** Formats read: 1 kept a cell's numbers in six columns (see StoredReadModel). */
+const READ_MODEL_FORMATS_READ: readonly number[] = [1, 2];
 /**
  * Which studies count as "written since": those whose `localSeq` is above the time the last read began, less a
  * margin. A write the last read did not see belongs to a read-write transaction created after that read's
@@ -251,7 +253,7 @@ async function restoreModel(
   db: CapstanDatabase
 ): Promise<{ model: MonthlyStatistics; since: number; tables?: PortfolioTables } | undefined> {
   const stored = await db.readModels.get(READ_MODEL_KEY);
-  if (!stored || stored.format !== READ_MODEL_FORMAT) return undefined;
+  if (!stored || !READ_MODEL_FORMATS_READ.includes(stored.format)) return undefined;
   const snap = snapshotOf(stored);
   const wanted = snap.heldIds.flatMap(([, ids]) => ids);
   const held = await db.studies.bulkGet(wanted);
@@ -283,18 +285,77 @@ export function storedForm(
     span: snap.span,
     rowIds: snap.rowIds.join(SEPARATOR),
     kind: snap.kind,
-    n: snap.n,
-    mean: snap.mean,
-    sd: snap.sd,
-    units: snap.units,
-    count: snap.count,
-    opportunities: snap.opportunities,
+    numbers: numbersOf(snap),
     tag: snap.tag,
     ids: snap.ids.join(SEPARATOR),
     heldIds: snap.heldIds,
     tombstones: snap.tombstones.join(SEPARATOR),
     savedAt: new Date().toISOString()
   };
+}
+
+const isMeasured = (kind: number) => kind === CELL.raw || kind === CELL.summary;
+const isCounted = (kind: number) => kind === CELL.defectives || kind === CELL.defects;
+
+/** A cell's three numbers (StoredReadModel.numbers); an empty cell's are 0, as nothing reads them. */
+function numbersOf(snap: MonthlyStatisticsSnapshot): [Float64Array, Float64Array, Float64Array] {
+  const size = snap.kind.length;
+  const a = new Float64Array(size);
+  const b = new Float64Array(size);
+  const c = new Float64Array(size);
+  for (let cell = 0; cell < size; cell += 1) {
+    const kind = snap.kind[cell]!;
+    if (isMeasured(kind)) {
+      a[cell] = snap.n[cell]!;
+      b[cell] = snap.mean[cell]!;
+      c[cell] = snap.sd[cell]!;
+    } else if (isCounted(kind)) {
+      a[cell] = snap.units[cell]!;
+      b[cell] = snap.count[cell]!;
+      c[cell] = snap.opportunities[cell]!;
+    }
+  }
+  return [a, b, c];
+}
+
+/** The model's six columns from a stored model of either format. */
+function columnsOf(
+  stored: StoredReadModel
+): Pick<MonthlyStatisticsSnapshot, 'n' | 'mean' | 'sd' | 'units' | 'count' | 'opportunities'> {
+  const size = stored.kind.length;
+  if (!stored.numbers) {
+    const zeros = () => new Float64Array(size);
+    return {
+      n: stored.n ?? zeros(),
+      mean: stored.mean ?? zeros(),
+      sd: stored.sd ?? zeros(),
+      units: stored.units ?? zeros(),
+      count: stored.count ?? zeros(),
+      opportunities: stored.opportunities ?? zeros()
+    };
+  }
+  const [a, b, c] = stored.numbers;
+  const out = {
+    n: new Float64Array(size),
+    mean: new Float64Array(size),
+    sd: new Float64Array(size),
+    units: new Float64Array(size),
+    count: new Float64Array(size),
+    opportunities: new Float64Array(size)
+  };
+  for (let cell = 0; cell < size; cell += 1) {
+    const kind = stored.kind[cell]!;
+    if (isMeasured(kind)) {
+      out.n[cell] = a[cell]!;
+      out.mean[cell] = b[cell]!;
+      out.sd[cell] = c[cell]!;
+    } else if (isCounted(kind)) {
+      out.units[cell] = a[cell]!;
+      out.count[cell] = b[cell]!;
+      out.opportunities[cell] = c[cell]!;
+    }
+  }
+  return out;
 }
 
 export function snapshotOf(stored: StoredReadModel): MonthlyStatisticsSnapshot {
@@ -307,12 +368,7 @@ export function snapshotOf(stored: StoredReadModel): MonthlyStatisticsSnapshot {
     span: stored.span,
     rowIds: split(stored.rowIds),
     kind: stored.kind,
-    n: stored.n,
-    mean: stored.mean,
-    sd: stored.sd,
-    units: stored.units,
-    count: stored.count,
-    opportunities: stored.opportunities,
+    ...columnsOf(stored),
     tag: stored.tag,
     ids,
     heldIds: stored.heldIds,
