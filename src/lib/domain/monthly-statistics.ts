@@ -43,6 +43,69 @@ export interface MonthlyStatisticsSnapshot {
   tombstones: string[];
 }
 
+type NumberColumns = Pick<
+  MonthlyStatisticsSnapshot,
+  'n' | 'mean' | 'sd' | 'units' | 'count' | 'opportunities'
+>;
+
+const isMeasured = (kind: number) => kind === CELL.raw || kind === CELL.summary;
+const isCounted = (kind: number) => kind === CELL.defectives || kind === CELL.defects;
+
+/**
+ * Each cell's three numbers, for a compact stored form: n, mean and sd of a measured month, or units, count and
+ * opportunities of a counted one — a cell never holds both (see #fill). An empty cell's are 0: nothing reads them.
+ */
+export function cellNumbersOf(
+  snap: Pick<MonthlyStatisticsSnapshot, 'kind'> & NumberColumns
+): [Float64Array, Float64Array, Float64Array] {
+  const size = snap.kind.length;
+  const a = new Float64Array(size);
+  const b = new Float64Array(size);
+  const c = new Float64Array(size);
+  for (let cell = 0; cell < size; cell += 1) {
+    const kind = snap.kind[cell]!;
+    if (isMeasured(kind)) {
+      a[cell] = snap.n[cell]!;
+      b[cell] = snap.mean[cell]!;
+      c[cell] = snap.sd[cell]!;
+    } else if (isCounted(kind)) {
+      a[cell] = snap.units[cell]!;
+      b[cell] = snap.count[cell]!;
+      c[cell] = snap.opportunities[cell]!;
+    }
+  }
+  return [a, b, c];
+}
+
+/** The six columns back from cellNumbersOf's three. */
+export function columnsOfCellNumbers(
+  kind: Uint8Array,
+  [a, b, c]: readonly [Float64Array, Float64Array, Float64Array]
+): NumberColumns {
+  const size = kind.length;
+  const out: NumberColumns = {
+    n: new Float64Array(size),
+    mean: new Float64Array(size),
+    sd: new Float64Array(size),
+    units: new Float64Array(size),
+    count: new Float64Array(size),
+    opportunities: new Float64Array(size)
+  };
+  for (let cell = 0; cell < size; cell += 1) {
+    const k = kind[cell]!;
+    if (isMeasured(k)) {
+      out.n[cell] = a[cell]!;
+      out.mean[cell] = b[cell]!;
+      out.sd[cell] = c[cell]!;
+    } else if (isCounted(k)) {
+      out.units[cell] = a[cell]!;
+      out.count[cell] = b[cell]!;
+      out.opportunities[cell] = c[cell]!;
+    }
+  }
+  return out;
+}
+
 /**
  * The portfolio's read model: for each characteristic and month, the sufficient statistics of the study that
  * month shows, in typed arrays laid out row by row (one row per characteristic, one column per month):

@@ -1,5 +1,10 @@
 import type { Table } from 'dexie';
-import { CELL, MonthlyStatistics, type MonthlyStatisticsSnapshot } from '../domain/monthly-statistics';
+import {
+  cellNumbersOf,
+  columnsOfCellNumbers,
+  MonthlyStatistics,
+  type MonthlyStatisticsSnapshot
+} from '../domain/monthly-statistics';
 import type { PortfolioRecords } from '../domain/portfolio-terms';
 import { isLive, type RecordMeta } from '../domain/record-meta';
 import type { Study } from '../domain/study';
@@ -21,8 +26,8 @@ import { CapstanDatabase, type PortfolioTables, type StoredReadModel } from './d
  * - the model is stored again after it changed (`persist`, called once the answer is on its way).
  *
  * The sites, processes, characteristics and projects are kept with the model in the same way (PortfolioTables):
- * stored with it as one value, then brought up to date from the rows written since. IndexedDB charges by the
- * row read, not by the byte: in Chromium here a table of 2 000 processes took 50–120 ms to read, the four tables
+ * stored with it as one value, then brought up to date from the rows written since. IndexedDB charges for every
+ * row read far more than for its bytes: in Chromium here a table of 2 000 processes took 50–120 ms to read, the four tables
  * of a 2 000-process company some 200 ms — every visit of the portfolio and the review — where one stored value
  * holding 2 000 characteristics and 2 000 processes took 23–35 ms. A table whose row count then differs from
  * the rows kept (a row removed outright, which the sequence cannot show) is read again in full.
@@ -285,37 +290,13 @@ export function storedForm(
     span: snap.span,
     rowIds: snap.rowIds.join(SEPARATOR),
     kind: snap.kind,
-    numbers: numbersOf(snap),
+    numbers: cellNumbersOf(snap),
     tag: snap.tag,
     ids: snap.ids.join(SEPARATOR),
     heldIds: snap.heldIds,
     tombstones: snap.tombstones.join(SEPARATOR),
     savedAt: new Date().toISOString()
   };
-}
-
-const isMeasured = (kind: number) => kind === CELL.raw || kind === CELL.summary;
-const isCounted = (kind: number) => kind === CELL.defectives || kind === CELL.defects;
-
-/** A cell's three numbers (StoredReadModel.numbers); an empty cell's are 0, as nothing reads them. */
-function numbersOf(snap: MonthlyStatisticsSnapshot): [Float64Array, Float64Array, Float64Array] {
-  const size = snap.kind.length;
-  const a = new Float64Array(size);
-  const b = new Float64Array(size);
-  const c = new Float64Array(size);
-  for (let cell = 0; cell < size; cell += 1) {
-    const kind = snap.kind[cell]!;
-    if (isMeasured(kind)) {
-      a[cell] = snap.n[cell]!;
-      b[cell] = snap.mean[cell]!;
-      c[cell] = snap.sd[cell]!;
-    } else if (isCounted(kind)) {
-      a[cell] = snap.units[cell]!;
-      b[cell] = snap.count[cell]!;
-      c[cell] = snap.opportunities[cell]!;
-    }
-  }
-  return [a, b, c];
 }
 
 /** The model's six columns from a stored model of either format. */
@@ -334,28 +315,7 @@ function columnsOf(
       opportunities: stored.opportunities ?? zeros()
     };
   }
-  const [a, b, c] = stored.numbers;
-  const out = {
-    n: new Float64Array(size),
-    mean: new Float64Array(size),
-    sd: new Float64Array(size),
-    units: new Float64Array(size),
-    count: new Float64Array(size),
-    opportunities: new Float64Array(size)
-  };
-  for (let cell = 0; cell < size; cell += 1) {
-    const kind = stored.kind[cell]!;
-    if (isMeasured(kind)) {
-      out.n[cell] = a[cell]!;
-      out.mean[cell] = b[cell]!;
-      out.sd[cell] = c[cell]!;
-    } else if (isCounted(kind)) {
-      out.units[cell] = a[cell]!;
-      out.count[cell] = b[cell]!;
-      out.opportunities[cell] = c[cell]!;
-    }
-  }
-  return out;
+  return columnsOfCellNumbers(stored.kind, stored.numbers);
 }
 
 export function snapshotOf(stored: StoredReadModel): MonthlyStatisticsSnapshot {
