@@ -229,4 +229,34 @@ describe('monthly statistics read model', () => {
     expect(model.stamp[feb]).not.toBe(before[1]);
     expect(model.mean[feb]).toBe(3);
   });
+
+  it('restored without its ids, refuses every change until they are attached, then takes them as a full restore does', () => {
+    const studies = [
+      plainStudy('a', '2025-11', { kind: 'summary', n: 20, mean: 1, sd: 0.5 }),
+      plainStudy('b', '2026-01', { kind: 'defectives', units: 100, defectives: 2 }),
+      plainStudy('c', '2026-02', { kind: 'summary', n: 30, mean: 2, sd: 0.4 })
+    ];
+    const model = MonthlyStatistics.fromStudies(studies);
+    const { ids, ...withoutIds } = model.snapshot();
+    const lazy = MonthlyStatistics.fromSnapshot(withoutIds, new Map()).model;
+    expect(lazy.idsToAttach).toBe(true);
+    expect(lazy.known).toBe(3);
+    // Every figure a ranking reads is there; only the ids are not.
+    const figures = (m: MonthlyStatistics) =>
+      new Map([...cellsOf(m)].map(([k, v]) => [k, { ...(v as object), id: undefined }]));
+    expect(figures(lazy)).toEqual(figures(model));
+    const edit = plainStudy('c', '2026-02', { kind: 'summary', n: 30, mean: 3, sd: 0.4 });
+    expect(() => lazy.putAll([edit])).toThrow(/without its ids/);
+    expect(() => lazy.snapshot()).toThrow(/without its ids/);
+    expect(lazy.snapshotWithoutIds()).toEqual(withoutIds);
+    expect(() => lazy.attachIds(ids.slice(1))).toThrow(RangeError);
+    // Ids whose empty month is elsewhere than the model's (2025-12) are not this model's.
+    expect(() => lazy.attachIds([...ids.slice(1), ids[0]!])).toThrow(RangeError);
+    lazy.attachIds(ids);
+    expect(lazy.idsToAttach).toBe(false);
+    lazy.putAll([edit]);
+    model.putAll([edit]);
+    expect(cellsOf(lazy)).toEqual(cellsOf(model));
+    expect(lazy.snapshot()).toEqual(model.snapshot());
+  });
 });

@@ -129,6 +129,8 @@ export class MonthlyStatistics {
   #span = 0;
   #live = 0;
   #tombstones = new Set<string>();
+  /** Restored without `ids` (see idsToAttach). */
+  #idsToAttach = false;
   kind = new Uint8Array(0);
   n = new Float64Array(0);
   mean = new Float64Array(0);
@@ -186,7 +188,7 @@ export class MonthlyStatistics {
    * without values — the caller should rebuild when `missing` is not empty).
    */
   static fromSnapshot(
-    snap: MonthlyStatisticsSnapshot,
+    snap: Omit<MonthlyStatisticsSnapshot, 'ids'> & Partial<Pick<MonthlyStatisticsSnapshot, 'ids'>>,
     heldStudies: ReadonlyMap<string, Study>
   ): { model: MonthlyStatistics; missing: string[] } {
     const model = new MonthlyStatistics();
@@ -207,10 +209,16 @@ export class MonthlyStatistics {
     model.stamp = new Float64Array(size);
     model.ids = new Array<string | undefined>(size);
     model.held = new Array<Study | Study[] | undefined>(size);
+    // Without the ids (see attachIds), a cell shows a study exactly when its kind is not empty (#fill, #clear).
+    const ids = snap.ids;
+    if (!ids) {
+      if (snap.heldIds.some(([, held]) => held.length > 1))
+        throw new RangeError('A month that holds two studies needs the ids of the studies shown');
+      model.#idsToAttach = true;
+    }
     for (let cell = 0; cell < size; cell += 1) {
-      const id = snap.ids[cell];
-      if (!id) continue;
-      model.ids[cell] = id;
+      if (ids ? !ids[cell] : model.kind[cell] === CELL.empty) continue;
+      if (ids) model.ids[cell] = ids[cell];
       model.stamp[cell] = nextStamp++;
       model.#live += 1;
     }
@@ -228,13 +236,46 @@ export class MonthlyStatistics {
     return { model, missing };
   }
 
+  /**
+   * Whether the model was restored without the id of the study each cell shows (fromSnapshot without `ids`): a
+   * ranking reads no id, so a visit that finds nothing written since never needs them. attachIds gives them;
+   * until then the model refuses any change and its full snapshot.
+   */
+  get idsToAttach(): boolean {
+    return this.#idsToAttach;
+  }
+
+  /** The ids a restore left out (the snapshot's `ids`, as stored with it). Throws RangeError when they do not fit. */
+  attachIds(ids: readonly string[]): void {
+    if (!this.#idsToAttach) return;
+    const size = this.#rowIds.length * this.#span;
+    if (ids.length !== size)
+      throw new RangeError(`The stored ids name ${ids.length} cells; the model has ${size}`);
+    for (let cell = 0; cell < size; cell += 1)
+      if ((this.kind[cell] !== CELL.empty) !== (ids[cell] !== ''))
+        throw new RangeError(`The stored ids do not fit the model at cell ${cell}`);
+    for (let cell = 0; cell < size; cell += 1) if (ids[cell]) this.ids[cell] = ids[cell];
+    this.#idsToAttach = false;
+  }
+
+  #requireIds(): void {
+    if (this.#idsToAttach) throw new Error('The read model was restored without its ids: attach them first');
+  }
+
   /** The stored form (typed arrays copied, so later changes do not reach it). */
   snapshot(): MonthlyStatisticsSnapshot {
+    this.#requireIds();
+    const size = this.#rowIds.length * this.#span;
+    const ids: string[] = new Array<string>(size);
+    for (let cell = 0; cell < size; cell += 1) ids[cell] = this.ids[cell] ?? '';
+    return { ...this.snapshotWithoutIds(), ids };
+  }
+
+  /** The stored form without the ids (what a model restored without them can give as it is). */
+  snapshotWithoutIds(): Omit<MonthlyStatisticsSnapshot, 'ids'> {
     const size = this.#rowIds.length * this.#span;
     const heldIds: [number, string[]][] = [];
-    const ids: string[] = new Array<string>(size);
     for (let cell = 0; cell < size; cell += 1) {
-      ids[cell] = this.ids[cell] ?? '';
       const held = this.held[cell];
       if (held) heldIds.push([cell, Array.isArray(held) ? held.map((s) => s.id) : [held.id]]);
     }
@@ -251,7 +292,6 @@ export class MonthlyStatistics {
       count: this.count.slice(0, size),
       opportunities: this.opportunities.slice(0, size),
       tag: this.tag.slice(0, size),
-      ids,
       heldIds,
       tombstones: [...this.#tombstones]
     };
@@ -296,6 +336,8 @@ export class MonthlyStatistics {
     // A batch may hold several versions of one study (edited twice since the last read): the last one counts.
     // With `tagOf` (a version number the owner keeps, such as storage's write sequence), a study the model
     // shows already with the same tag is unchanged and skipped, so re-reading recent writes costs no figures.
+    if (batch.length === 0) return;
+    this.#requireIds();
     const latest = new Map<string, Study>();
     for (const s of batch) if (!tagOf || !this.#shows(s, tagOf(s))) latest.set(s.id, s);
     if (!latest.size) return;
@@ -318,6 +360,7 @@ export class MonthlyStatistics {
    */
   appendNew(studies: readonly Study[], tagOf?: (study: Study) => number): void {
     if (!studies.length) return;
+    this.#requireIds();
     this.version += 1;
     this.#tagOf = tagOf;
     for (const s of studies) this.#add(s);

@@ -59,7 +59,10 @@ export type StoredReadModel = Pick<
   /** Format 1's six columns of numbers (format 2 keeps `numbers` instead). */
   Partial<Pick<MonthlyStatisticsSnapshot, 'n' | 'mean' | 'sd' | 'units' | 'count' | 'opportunities'>> & {
     key: string;
-    /** 2: the numbers in `numbers`; 1 (still read): in the snapshot's six columns, `n` to `opportunities`. */
+    /**
+     * 3: the ids kept apart (StoredReadModelIds); 2: the numbers in `numbers`, the ids here; 1: the numbers in the
+     * snapshot's six columns, `n` to `opportunities`. All three are read.
+     */
     format: number;
     /** Studies with a `localSeq` above this were written after the model was read (storage/portfolio-reader.ts). */
     since: number;
@@ -70,12 +73,27 @@ export type StoredReadModel = Pick<
      * columns were two thirds of it.
      */
     numbers?: [Float64Array, Float64Array, Float64Array];
-    ids: string;
+    /** Formats 1 and 2: the id of the study each cell shows. Format 3 keeps them apart (StoredReadModelIds). */
+    ids?: string;
+    /** Format 3: the `generation` of the StoredReadModelIds stored with this model. */
+    idsGeneration?: string;
     tombstones: string;
     savedAt: string;
     /** The other records the portfolio reads, as of `since` (absent in models stored before they were kept). */
     tables?: PortfolioTables;
   };
+
+/**
+ * The ids of a stored read model (format 3), joined: a record of their own, read only when studies written
+ * since must be applied — a visit that finds none never reads them (26 MB at 20 000 characteristics × 40 months).
+ * `generation` (also in the key) pairs them with the model they belong to.
+ */
+export interface StoredReadModelIds {
+  key: string;
+  format: number;
+  generation: string;
+  ids: string;
+}
 
 /**
  * Every row (tombstones included, in id order) of the tables the portfolio reads besides the studies, kept with
@@ -107,7 +125,7 @@ export class CapstanDatabase extends Dexie {
   contextProfiles!: Table<ContextProfileRecord, string>;
   reviews!: Table<QuarterReviewRecord, string>;
   monthClashes!: Table<MonthClash, string>;
-  readModels!: Table<StoredReadModel, string>;
+  readModels!: Table<StoredReadModel | StoredReadModelIds, string>;
 
   /** This device's write sequence (see local-sequence.ts); resumes above the highest stored value on open. */
   readonly sequence = new LocalSequence();

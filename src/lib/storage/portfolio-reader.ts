@@ -8,7 +8,12 @@ import {
 import type { PortfolioRecords } from '../domain/portfolio-terms';
 import { isLive, type RecordMeta } from '../domain/record-meta';
 import type { Study } from '../domain/study';
-import { CapstanDatabase, type PortfolioTables, type StoredReadModel } from './database';
+import {
+  CapstanDatabase,
+  type PortfolioTables,
+  type StoredReadModel,
+  type StoredReadModelIds
+} from './database';
 
 /**
  * Read access to the portfolio for a background worker: the worker reads the records straight from IndexedDB,
@@ -33,9 +38,14 @@ import { CapstanDatabase, type PortfolioTables, type StoredReadModel } from './d
  * the rows kept (a row removed outright, which the sequence cannot show) is read again in full.
  */
 const READ_MODEL_KEY = 'monthly-statistics';
-const READ_MODEL_FORMAT = 2;
-/** Formats read: 1 kept a cell's numbers in six columns (see StoredReadModel). */
-const READ_MODEL_FORMATS_READ: readonly number[] = [1, 2];
+/**
+ * The key of a model's ids (StoredReadModelIds) is this and their generation, so that whether the ids of a
+ * generation are still stored is a question of keys alone (their value is 26 MB at company size).
+ */
+const READ_MODEL_IDS_PREFIX = 'monthly-statistics-ids:';
+const READ_MODEL_FORMAT = 3;
+/** Formats read: 1 kept a cell's numbers in six columns, 1 and 2 the ids with the model (see StoredReadModel). */
+const READ_MODEL_FORMATS_READ: readonly number[] = [1, 2, 3];
 /**
  * Which studies count as "written since": those whose `localSeq` is above the time the last read began, less a
  * margin. A write the last read did not see belongs to a read-write transaction created after that read's
@@ -61,6 +71,8 @@ interface Feed {
   since: number;
   /** Whether the model changed since it was last stored. */
   dirty: boolean;
+  /** The generation of the stored ids the model was restored without (StoredReadModelIds). */
+  idsGeneration?: string;
 }
 
 const feeds = new Map<string, Feed>();
@@ -83,6 +95,8 @@ export interface PortfolioRead {
   applied: number;
   /** How many of the four tables kept with the model were read in full (the others: only their rows written since). */
   tablesRead: number;
+  /** Whether the stored model's ids were read (only when studies written since had to be applied). */
+  idsRead: boolean;
   /** Stores the model if it changed; safe to skip (the next read rebuilds or catches up). */
   persist: () => Promise<void>;
 }
@@ -98,6 +112,7 @@ export async function readPortfolio(databaseName: string): Promise<PortfolioRead
       feed.model = restored.model;
       feed.since = restored.since;
       feed.tables = restored.tables;
+      feed.idsGeneration = restored.idsGeneration;
       source = 'stored';
     } else feed.tables = undefined;
   }
@@ -120,6 +135,19 @@ export async function readPortfolio(databaseName: string): Promise<PortfolioRead
   if (read.tables.changed) feed.dirty = true;
   feed.tables = read.tables.tables;
   let applied = 0;
+  let idsRead = false;
+  if (feed.model?.idsToAttach && read.changed?.length) {
+    // Studies to apply: the model needs the ids it was restored without. Gone or of another model (stored
+    // meanwhile by another worker): built again from the studies.
+    idsRead = true;
+    const ids = await storedIds(db, feed.idsGeneration);
+    try {
+      if (!ids) throw new RangeError('no ids stored with this model');
+      feed.model.attachIds(ids);
+    } catch {
+      feed.model = undefined;
+    }
+  }
   if (feed.model && read.changed) {
     const version = feed.model.version;
     feed.model.putAll(read.changed, seqOf);
@@ -144,10 +172,37 @@ export async function readPortfolio(databaseName: string): Promise<PortfolioRead
     source,
     applied,
     tablesRead: read.tables.readInFull,
+    idsRead,
     persist: async () => {
       if (!feed.dirty || feed.model !== model || feed.tables !== tables) return;
       feed.dirty = false;
-      await db.readModels.put(storedForm(model.snapshot(), feed.since, tables));
+      const since = feed.since;
+      if (model.idsToAttach) {
+        // Nothing in the model changed (applying a study attaches its ids): the ids stored stand, unless another
+        // worker stored a model of its own meanwhile.
+        const kept = feed.idsGeneration;
+        await db.transaction('rw', db.readModels, async () => {
+          if ((await db.readModels.where(':id').equals(`${READ_MODEL_IDS_PREFIX}${kept}`).count()) === 0)
+            return;
+          await db.readModels.put(storedForm(model.snapshotWithoutIds(), since, tables, kept));
+        });
+        return;
+      }
+      const { ids, ...rest } = model.snapshot();
+      const generation = crypto.randomUUID();
+      await db.transaction('rw', db.readModels, async () => {
+        await db.readModels.where(':id').startsWith(READ_MODEL_IDS_PREFIX).delete();
+        await db.readModels.bulkPut([
+          storedForm(rest, since, tables, generation),
+          {
+            key: `${READ_MODEL_IDS_PREFIX}${generation}`,
+            format: READ_MODEL_FORMAT,
+            generation,
+            ids: ids.join(SEPARATOR)
+          }
+        ]);
+      });
+      feed.idsGeneration = generation;
     }
   };
 }
@@ -254,35 +309,62 @@ function seqOf(s: Study): number {
   return seqOfRecord(s);
 }
 
+/** The ids stored with the model of this generation (split), or undefined when none are. */
+async function storedIds(db: CapstanDatabase, generation: string | undefined): Promise<string[] | undefined> {
+  if (generation === undefined) return undefined;
+  const stored = (await db.readModels.get(`${READ_MODEL_IDS_PREFIX}${generation}`)) as
+    StoredReadModelIds | undefined;
+  if (!stored || stored.generation !== generation) return undefined;
+  return stored.ids === '' ? [] : stored.ids.split(SEPARATOR);
+}
+
 async function restoreModel(
   db: CapstanDatabase
-): Promise<{ model: MonthlyStatistics; since: number; tables?: PortfolioTables } | undefined> {
-  const stored = await db.readModels.get(READ_MODEL_KEY);
+): Promise<
+  { model: MonthlyStatistics; since: number; tables?: PortfolioTables; idsGeneration?: string } | undefined
+> {
+  const stored = (await db.readModels.get(READ_MODEL_KEY)) as StoredReadModel | undefined;
   if (!stored || !READ_MODEL_FORMATS_READ.includes(stored.format)) return undefined;
   const snap = snapshotOf(stored);
+  // A month that holds two studies shows one of them by its id: such a model is restored with its ids.
+  if (!snap.ids && snap.heldIds.some(([, ids]) => ids.length > 1)) {
+    snap.ids = await storedIds(db, stored.idsGeneration);
+    if (!snap.ids) return undefined;
+  }
   const wanted = snap.heldIds.flatMap(([, ids]) => ids);
   const held = await db.studies.bulkGet(wanted);
   const byId = new Map<string, Study>();
   for (const s of held) if (s && isLive(s)) byId.set(s.id, s);
-  const { model, missing } = MonthlyStatistics.fromSnapshot(snap, byId);
+  let restored: ReturnType<typeof MonthlyStatistics.fromSnapshot>;
+  try {
+    restored = MonthlyStatistics.fromSnapshot(snap, byId);
+  } catch {
+    return undefined;
+  }
+  const { model, missing } = restored;
   // A held study gone or deleted without the sequence showing it: the stored model cannot be trusted.
   if (missing.length) return undefined;
   // A model stored before the tables were kept with it: they are read in full this once, then stored with it.
-  return stored.tables
-    ? { model, since: stored.since, tables: stored.tables }
-    : { model, since: stored.since };
+  return {
+    model,
+    since: stored.since,
+    ...(stored.tables ? { tables: stored.tables } : {}),
+    ...(stored.idsGeneration !== undefined ? { idsGeneration: stored.idsGeneration } : {})
+  };
 }
 
 const SEPARATOR = '\n';
 
 /** The snapshot as stored (exported for the benchmark, which restores it as a worker does). */
 export function storedForm(
-  snap: MonthlyStatisticsSnapshot,
+  snap: Omit<MonthlyStatisticsSnapshot, 'ids'>,
   since: number,
-  tables?: PortfolioTables
+  tables?: PortfolioTables,
+  idsGeneration?: string
 ): StoredReadModel {
   return {
     ...(tables ? { tables } : {}),
+    ...(idsGeneration !== undefined ? { idsGeneration } : {}),
     key: READ_MODEL_KEY,
     format: READ_MODEL_FORMAT,
     since,
@@ -292,7 +374,6 @@ export function storedForm(
     kind: snap.kind,
     numbers: cellNumbersOf(snap),
     tag: snap.tag,
-    ids: snap.ids.join(SEPARATOR),
     heldIds: snap.heldIds,
     tombstones: snap.tombstones.join(SEPARATOR),
     savedAt: new Date().toISOString()
@@ -318,10 +399,12 @@ function columnsOf(
   return columnsOfCellNumbers(stored.kind, stored.numbers);
 }
 
-export function snapshotOf(stored: StoredReadModel): MonthlyStatisticsSnapshot {
+/** The snapshot of a stored model; without `ids` when they are kept apart (format 3). */
+export function snapshotOf(
+  stored: StoredReadModel
+): Omit<MonthlyStatisticsSnapshot, 'ids'> & Partial<Pick<MonthlyStatisticsSnapshot, 'ids'>> {
   const split = (text: string) => (text === '' ? [] : text.split(SEPARATOR));
   const size = stored.kind.length;
-  const ids = stored.ids === '' && size === 0 ? [] : stored.ids.split(SEPARATOR);
   return {
     format: 1,
     firstMonth: stored.firstMonth,
@@ -330,7 +413,9 @@ export function snapshotOf(stored: StoredReadModel): MonthlyStatisticsSnapshot {
     kind: stored.kind,
     ...columnsOf(stored),
     tag: stored.tag,
-    ids,
+    ...(stored.ids !== undefined
+      ? { ids: stored.ids === '' && size === 0 ? [] : stored.ids.split(SEPARATOR) }
+      : {}),
     heldIds: stored.heldIds,
     tombstones: split(stored.tombstones)
   };
