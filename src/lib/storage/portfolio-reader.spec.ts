@@ -47,6 +47,30 @@ function tablesPart(r: Pick<PortfolioRecords, 'sites' | 'processes' | 'character
   return { sites: r.sites, processes: r.processes, characteristics: r.characteristics, projects: r.projects };
 }
 
+/** Replaces one summary study of 2026-10 as a person logging it again would (its sd made tiny). */
+async function replaceAStudy(s: CapstanStorage): Promise<void> {
+  const someStudy = (await loadPortfolioRecords(databaseOf(s))).studies.find(
+    (x) => x.data.kind === 'summary' && x.period === '2026-10'
+  )!;
+  await s.studies.logOne(
+    {
+      characteristicId: someStudy.characteristicId,
+      period: someStudy.period,
+      data: { kind: 'summary', n: 40, mean: (someStudy.data as { mean: number }).mean, sd: 1e-3 },
+      enteredBy: 'test'
+    },
+    'replace'
+  );
+}
+
+/** The demo with its read model stored, and no worker holding it: where a later visit starts. */
+async function withStoredModel() {
+  const s = await withDemo();
+  await (await readPortfolio(s.databaseName)).persist();
+  forgetReadModels();
+  return { s, db: databaseOf(s) };
+}
+
 async function withDemo(): Promise<CapstanStorage> {
   storage = await openStorage(`reader-${Math.random().toString(36).slice(2)}`);
   await loadDemoPortfolio(databaseOf(storage), demo);
@@ -74,18 +98,7 @@ describe('portfolio reader', () => {
     const figuresBefore = figuresOf(before.records);
     await before.persist();
     forgetReadModels();
-    const someStudy = (await loadPortfolioRecords(databaseOf(s))).studies.find(
-      (x) => x.data.kind === 'summary' && x.period === '2026-10'
-    )!;
-    await s.studies.logOne(
-      {
-        characteristicId: someStudy.characteristicId,
-        period: someStudy.period,
-        data: { kind: 'summary', n: 40, mean: (someStudy.data as { mean: number }).mean, sd: 1e-3 },
-        enteredBy: 'test'
-      },
-      'replace'
-    );
+    await replaceAStudy(s);
     const after = await readPortfolio(s.databaseName);
     expect(after.source).toBe('stored');
     expect(after.applied).toBeGreaterThanOrEqual(1);
@@ -131,10 +144,7 @@ describe('portfolio reader', () => {
   });
 
   it('reads a table in full again when it lost a row the sequence did not show', async () => {
-    const s = await withDemo();
-    const db = databaseOf(s);
-    await (await readPortfolio(s.databaseName)).persist();
-    forgetReadModels();
+    const { s, db } = await withStoredModel();
     const victim = (await db.processes.toArray())[0]!;
     await db.processes.delete(victim.id); // removed outright: no write the sequence can show
     const after = await readPortfolio(s.databaseName);
@@ -144,10 +154,7 @@ describe('portfolio reader', () => {
   });
 
   it('reads the tables once from a model stored without them, then keeps them with it', async () => {
-    const s = await withDemo();
-    const db = databaseOf(s);
-    await (await readPortfolio(s.databaseName)).persist();
-    forgetReadModels();
+    const { s, db } = await withStoredModel();
     // As stored before the tables were kept with the model.
     await db.readModels.toCollection().modify((m) => {
       delete (m as StoredReadModel).tables;
@@ -262,18 +269,7 @@ describe('portfolio reader', () => {
     expect(third.idsRead).toBe(false);
     expect(third.records.processes.find((p) => p.id === line.id)?.name).toBe('Renamed line');
     // A study replaced: its ids are read to apply it, and the figures are those of a full read.
-    const someStudy = (await loadPortfolioRecords(db)).studies.find(
-      (x) => x.data.kind === 'summary' && x.period === '2026-10'
-    )!;
-    await s.studies.logOne(
-      {
-        characteristicId: someStudy.characteristicId,
-        period: someStudy.period,
-        data: { kind: 'summary', n: 40, mean: (someStudy.data as { mean: number }).mean, sd: 1e-3 },
-        enteredBy: 'test'
-      },
-      'replace'
-    );
+    await replaceAStudy(s);
     await pause(300); // so that the visit after the next one does not read it again
     forgetReadModels();
     const fourth = await readPortfolio(s.databaseName);
@@ -289,10 +285,7 @@ describe('portfolio reader', () => {
   });
 
   it('builds the model again when its stored ids are gone and a study must be applied', async () => {
-    const s = await withDemo();
-    const db = databaseOf(s);
-    await (await readPortfolio(s.databaseName)).persist();
-    forgetReadModels();
+    const { s, db } = await withStoredModel();
     await db.readModels.where(':id').startsWith('monthly-statistics-ids:').delete();
     const study = (await db.studies.toArray()).find((x) => x.data.kind === 'summary')!;
     await db.studies.put({ ...study, rev: study.rev + 1, data: { kind: 'summary', n: 30, mean: 0, sd: 1 } });
