@@ -43,6 +43,10 @@ export interface MonthlyStatisticsSnapshot {
   tombstones: string[];
 }
 
+/** A snapshot that may leave the ids out (a model restored from it then waits for attachIds). */
+export type SnapshotMaybeWithoutIds = Omit<MonthlyStatisticsSnapshot, 'ids'> &
+  Partial<Pick<MonthlyStatisticsSnapshot, 'ids'>>;
+
 type NumberColumns = Pick<
   MonthlyStatisticsSnapshot,
   'n' | 'mean' | 'sd' | 'units' | 'count' | 'opportunities'
@@ -188,7 +192,7 @@ export class MonthlyStatistics {
    * without values — the caller should rebuild when `missing` is not empty).
    */
   static fromSnapshot(
-    snap: Omit<MonthlyStatisticsSnapshot, 'ids'> & Partial<Pick<MonthlyStatisticsSnapshot, 'ids'>>,
+    snap: SnapshotMaybeWithoutIds,
     heldStudies: ReadonlyMap<string, Study>
   ): { model: MonthlyStatistics; missing: string[] } {
     const model = new MonthlyStatistics();

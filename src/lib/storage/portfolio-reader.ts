@@ -3,7 +3,8 @@ import {
   cellNumbersOf,
   columnsOfCellNumbers,
   MonthlyStatistics,
-  type MonthlyStatisticsSnapshot
+  type MonthlyStatisticsSnapshot,
+  type SnapshotMaybeWithoutIds
 } from '../domain/monthly-statistics';
 import type { PortfolioRecords } from '../domain/portfolio-terms';
 import { isLive, type RecordMeta } from '../domain/record-meta';
@@ -400,9 +401,7 @@ function columnsOf(
 }
 
 /** The snapshot of a stored model; without `ids` when they are kept apart (format 3). */
-export function snapshotOf(
-  stored: StoredReadModel
-): Omit<MonthlyStatisticsSnapshot, 'ids'> & Partial<Pick<MonthlyStatisticsSnapshot, 'ids'>> {
+export function snapshotOf(stored: StoredReadModel): SnapshotMaybeWithoutIds {
   const split = (text: string) => (text === '' ? [] : text.split(SEPARATOR));
   const size = stored.kind.length;
   return {
