@@ -82,6 +82,9 @@ test('2 000 processes: received, ranked and reviewed without a long task on the 
   // The list arrives without trend lines: those of the rows in view are asked of the worker and drawn, at the
   // top and again after scrolling to the end.
   const drawnRows = page.getByTestId('portfolio-table').locator('tbody tr[data-row]');
+  // The rows in view come a few per task (busy meanwhile), then the margin around them: more than the first six.
+  await expect(page.getByTestId('portfolio-table')).toHaveAttribute('aria-busy', 'false');
+  expect(await drawnRows.count()).toBeGreaterThan(6);
   const direction = /^(improving|declining|steady|no trend yet)$/;
   await expect(drawnRows.first().locator('.trend .dir')).toHaveText(direction);
   // Scrolled to the end as a person does (again, once the rows' height is known), the last row is drawn and

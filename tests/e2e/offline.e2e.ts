@@ -12,6 +12,8 @@ test('after one visit the app loads and works with the server gone and the netwo
   await page.getByTestId('load-demo').click();
   const rows = page.getByTestId('portfolio-table').locator('tbody tr');
   await expect(rows).not.toHaveCount(0);
+  // A new list is drawn a few rows per task, busy until the last.
+  await expect(page.getByTestId('portfolio-table')).toHaveAttribute('aria-busy', 'false');
   const count = await rows.count();
   const firstProcess = page.getByTestId('portfolio-table').locator('tbody tr th a').first();
   const processHref = (await firstProcess.getAttribute('href')) as string;

@@ -34,6 +34,8 @@ test('the ranked portfolio follows a context target change, and a click leads to
   // Filters narrow the list and its CSV alike (one rule over the list's columns, page and worker).
   await page.getByLabel('Site').selectOption({ label: 'Eastgate Service Centre' });
   const siteRows = table.locator('tbody tr');
+  // The narrowed list is drawn a few rows per task, busy until the last.
+  await expect(table).toHaveAttribute('aria-busy', 'false');
   const shown = await siteRows.count();
   expect(shown).toBeGreaterThan(0);
   expect(shown).toBeLessThan(32);

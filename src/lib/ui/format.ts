@@ -38,6 +38,16 @@ export function formatLimit(value: number | undefined): string {
   return value === undefined ? '–' : formatAsEntered(value);
 }
 
+let dateTimeFormat: Intl.DateTimeFormat | undefined;
+
+/**
+ * A moment in the reader's locale, date and time. One formatter, made at first use: `toLocaleString` with options
+ * builds a new one per call, a sixth of the process page's first drawing (a time per study listed) at 2 000
+ * processes with the CPU throttled 4×.
+ */
 export function formatDateTime(iso: string): string {
-  return new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+  dateTimeFormat ??= new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+  const date = new Date(iso);
+  // As toLocaleString writes a date it cannot read ('Invalid Date'), where format would throw.
+  return Number.isNaN(date.getTime()) ? String(date) : dateTimeFormat.format(date);
 }
