@@ -7,7 +7,7 @@ import {
   type SnapshotMaybeWithoutIds
 } from '../domain/monthly-statistics';
 import type { PortfolioRecords } from '../domain/portfolio-terms';
-import { isLive, type RecordMeta } from '../domain/record-meta';
+import { compareById, isLive, type RecordMeta } from '../domain/record-meta';
 import type { Study } from '../domain/study';
 import {
   CapstanDatabase,
@@ -151,7 +151,7 @@ export async function readPortfolio(databaseName: string): Promise<PortfolioRead
   }
   if (feed.model && read.changed) {
     const version = feed.model.version;
-    feed.model.putAll(read.changed, seqOf);
+    feed.model.putAll(read.changed, seqOfRecord);
     if (feed.model.version !== version) {
       applied = read.changed.length;
       feed.dirty = true;
@@ -272,7 +272,7 @@ function withRowsWritten(kept: RecordMeta[], written: RecordMeta[]): RecordMeta[
   }
   if (!differs) return kept;
   // Ids compared as IndexedDB orders string keys (by UTF-16 code unit), as a full read returns them.
-  return [...byId.values()].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  return [...byId.values()].sort(compareById);
 }
 
 function seqOfRecord(r: RecordMeta): number {
@@ -296,18 +296,14 @@ async function rebuildModel(db: CapstanDatabase): Promise<{ model: MonthlyStatis
       const page = await next;
       if (!page.length) break;
       next = pageAfter(page[page.length - 1]!.id);
-      model.appendNew(page, seqOf);
+      model.appendNew(page, seqOfRecord);
     }
     if (!model.needsRebuild) return { model };
     // Two live studies in one month across pages (a clash from before one-study-per-month): weigh them with
     // every study at hand.
     const studies = await db.studies.toArray();
-    return { model: MonthlyStatistics.fromStudies(studies, seqOf) };
+    return { model: MonthlyStatistics.fromStudies(studies, seqOfRecord) };
   });
-}
-
-function seqOf(s: Study): number {
-  return seqOfRecord(s);
 }
 
 /** The ids stored with the model of this generation (split), or undefined when none are. */
