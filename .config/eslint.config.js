@@ -7,7 +7,8 @@ import svelteConfig from '../svelte.config.js';
 
 /**
  * Layer rules: dependencies point inwards (ui → exchange → storage → domain → stats; workers use domain and
- * stats, and reach storage only through storage/portfolio-reader (records read, read model kept); the command line uses stats, domain and exchange).
+ * stats, and reach storage only through storage/portfolio-reader (records read, read model kept) — the exchange
+ * worker also through the storage object, to merge a received file; the command line uses stats, domain and exchange).
  * Each layer lists what it must not import, as
  * gitignore-style patterns that match at any folder depth and through the `$lib` alias (the storage
  * pattern catches `../../storage/x` and `$lib/storage/x` alike). A violation is an error. tests/unit/layer-rules.spec.ts
@@ -153,6 +154,24 @@ export default ts.config(
       ...FRAMEWORKS
     ],
     'workers compute on stats, domain and exchange, and reach IndexedDB only through storage/portfolio-reader, which reads records and keeps the device-local read model derived from them; they never write a record (the page commits)'
+  ),
+  layer(
+    ['src/lib/workers/exchange-file.worker.ts'],
+    [
+      [
+        '**/storage/*',
+        '**/storage/**/*',
+        '$lib/storage/*',
+        '!**/storage/portfolio-reader',
+        '!**/storage/storage'
+      ],
+      ...any('ui'),
+      ...any('cli'),
+      '$lib/**',
+      'dexie',
+      ...FRAMEWORKS
+    ],
+    'the exchange worker writes records only as a received file is merged, through the storage object (storage.exchange, one transaction, on the person’s confirmation); other workers reach IndexedDB only through storage/portfolio-reader'
   ),
   layer(
     ['src/lib/ui/**', 'src/routes/**'],

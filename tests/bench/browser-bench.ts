@@ -231,14 +231,14 @@ export async function companyScaleRows(
     const merged = Date.now() - t1;
     const mergeSeen = await watch.read();
     rows.push({
-      name: `receive the ${size.toLocaleString('en')}-process file (${(size * 36).toLocaleString('en')} studies, ${(statSync(file).size / 1048576).toFixed(0)} MB), chosen → read and checked in the worker → preview shown; ${taskWords(seen.longTasks)}`,
+      name: `receive the ${size.toLocaleString('en')}-process file (${(size * 36).toLocaleString('en')} studies, ${(statSync(file).size / 1048576).toFixed(0)} MB), chosen → read, checked and compared with the device in the worker → preview shown; ${taskWords(seen.longTasks)}`,
       size,
       ms: previewed,
       peakMB: seen.peakHeapMB,
       ...(withTargets ? { target: 'with the merge ≤ 5 s' } : {})
     });
     rows.push({
-      name: `  … merged into the empty database (one transaction, written 250 records at a time); ${taskWords(mergeSeen.longTasks)}`,
+      name: `  … merged in the worker into the empty database (one transaction, written 250 records at a time); ${taskWords(mergeSeen.longTasks)}`,
       size,
       ms: merged,
       peakMB: mergeSeen.peakHeapMB

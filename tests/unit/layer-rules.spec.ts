@@ -75,6 +75,16 @@ const probes: [string, string, string][] = [
   ],
   ['worker → Dexie', 'src/lib/workers/probe.worker.ts', "import { Dexie } from 'dexie';"],
   [
+    'exchange worker → the database class',
+    'src/lib/workers/exchange-file.worker.ts',
+    "import { CapstanDatabase } from '../storage/database';"
+  ],
+  [
+    'exchange worker → a repository module',
+    'src/lib/workers/exchange-file.worker.ts',
+    "import { applyChangeSet } from '../storage/change-set-store';"
+  ],
+  [
     'worker → the database class',
     'src/lib/workers/probe.worker.ts',
     "import { CapstanDatabase } from '$lib/storage/database';"
@@ -100,6 +110,11 @@ describe('layer rules hold at any depth and through $lib', () => {
       'worker → the portfolio reader',
       'src/lib/workers/probe.worker.ts',
       "import { readPortfolio } from '../storage/portfolio-reader';"
+    ],
+    [
+      'exchange worker → the storage object (it merges a received file)',
+      'src/lib/workers/exchange-file.worker.ts',
+      "import { openStorage } from '../storage/storage';"
     ],
     [
       'command line → exchange',

@@ -3,6 +3,7 @@ import type { FolderFileSeen, FolderSyncState } from '../storage/folder-sync-sta
 import type { CapstanStorage } from '../storage/storage';
 import { decodeExchangeFile, encodeExchangeFile, type ChangeSet } from './exchange-file';
 import { buildExport } from './export-change-set';
+import { receiveChangeSet, type ReceiveSession } from './receive-session';
 import { deviceFileName, exchangeNamesIn, unfinishedNameOf } from './folder-names';
 
 /**
@@ -39,8 +40,11 @@ export interface FolderSyncOptions {
   storage: CapstanStorage;
   folder: SyncDirectory;
   appVersion: string;
-  /** Reads a file into a checked change set (the page passes its worker; tests the plain function). */
-  decode?: (file: Blob) => Promise<ChangeSet>;
+  /**
+   * Reads a file and compares it with this device (the page passes its worker, which also merges; without it,
+   * both run in the caller's thread).
+   */
+  receive?: (file: Blob) => Promise<ReceiveSession>;
   encode?: (changeSet: ChangeSet) => Promise<Uint8Array>;
   now?: () => Date;
   onStage?: (text: string) => void;
@@ -91,8 +95,10 @@ const noChange = (c: Record<MergeKind, number>) => c.new + c.updated + c.deleted
 export async function syncWithFolder(options: FolderSyncOptions): Promise<FolderSyncReport> {
   const { storage, folder } = options;
   const now = options.now ?? (() => new Date());
-  const decode =
-    options.decode ?? (async (file: Blob) => decodeExchangeFile(new Uint8Array(await file.arrayBuffer())));
+  const receive =
+    options.receive ??
+    (async (file: Blob) =>
+      receiveChangeSet(storage, await decodeExchangeFile(new Uint8Array(await file.arrayBuffer()))));
   const encode = options.encode ?? ((cs: ChangeSet) => encodeExchangeFile(cs, { gzip: true }));
   const stage = options.onStage ?? (() => undefined);
 
@@ -121,13 +127,15 @@ export async function syncWithFolder(options: FolderSyncOptions): Promise<Folder
       if (before.outcome === 'waiting') report.waiting.push(before);
       continue;
     }
-    stage(`Reading ${name}…`);
     let seen: FolderFileSeen;
     let read = false;
+    let session: ReceiveSession | undefined;
     try {
-      const changeSet = await decode(file);
+      stage(`Reading ${name} and comparing it with the records on this device…`);
+      session = await receive(file);
       read = true;
-      const header = changeSet.header;
+      const plan = session.preview;
+      const header = plan.header;
       const about = {
         name,
         fingerprint,
@@ -136,8 +144,6 @@ export async function syncWithFolder(options: FolderSyncOptions): Promise<Folder
         deviceName: header.exportedBy.deviceName,
         exportedAt: header.exportedAt
       };
-      stage(`Comparing ${name} with the records on this device…`);
-      const plan = await storage.exchange.preview(changeSet.records);
       if (plan.conflicts.length > 0) {
         seen = { ...about, outcome: 'waiting', counts: plan.counts, seenAtMark: mark };
         report.waiting.push(seen);
@@ -145,8 +151,7 @@ export async function syncWithFolder(options: FolderSyncOptions): Promise<Folder
         const at = now().toISOString();
         if (!noChange(plan.counts)) {
           stage(`Merging ${name}…`);
-          await storage.exchange.apply(
-            plan,
+          await session.merge(
             {},
             { deviceId: header.exportedBy.deviceId, name: header.exportedBy.deviceName, at }
           );
@@ -158,14 +163,17 @@ export async function syncWithFolder(options: FolderSyncOptions): Promise<Folder
       const message = error instanceof Error ? error.message : String(error);
       seen = {
         name,
-        // A damaged file is read again only once it changes; one that could not be merged (the data here
-        // changed meanwhile, storage was full) is tried again at the next sync.
+        // A damaged file (or one this device refuses to compare) is read again only once it changes; one that
+        // could not be merged (the data here changed meanwhile, storage was full) is tried again at the next sync.
         fingerprint: read ? '' : fingerprint,
         modifiedAt,
         outcome: 'skipped',
         problem: read ? `could not be merged: ${message}` : message
       };
       report.skipped.push(seen);
+    } finally {
+      // A file left waiting for a person, or with nothing to merge, lets go of its worker.
+      session?.close();
     }
     files[name] = seen;
   }

@@ -105,6 +105,11 @@ export interface CapstanStorage {
       source: { deviceId: string; name: string; at: string },
       onWritten?: (written: number, total: number) => void
     ): Promise<ReceiveResult>;
+    /**
+     * A merge written by another thread of this app (the exchange worker): this storage's clock and write
+     * sequence carry on above what that merge used, as they do after a merge of their own.
+     */
+    mergedElsewhere(marks: WriteMarks): void;
     peers(): Promise<PeerRecord[]>;
     backupStatus(): Promise<BackupStatus>;
     reminderDays(): Promise<number>;
@@ -136,6 +141,15 @@ export interface CapstanStorage {
 }
 
 const changeSets = () => import('./change-set-store');
+
+/**
+ * Where this device's write sequence and clock stand, as one thread tells another after writing: the storage of
+ * the other thread carries on above them.
+ */
+export interface WriteMarks {
+  writeMark: number;
+  latestStamp: string | undefined;
+}
 
 const databases = new WeakMap<CapstanStorage, CapstanDatabase>();
 
@@ -240,6 +254,10 @@ export async function openStorage(
         } catch (error) {
           throw explainStorageError(error, 'The import');
         }
+      },
+      mergedElsewhere: (marks) => {
+        clock.observe(marks.latestStamp);
+        db.sequence.startAbove(marks.writeMark);
       },
       peers: async () => (await changeSets()).listPeers(db),
       backupStatus: () => loadBackupStatus(db),

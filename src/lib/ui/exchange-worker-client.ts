@@ -1,15 +1,20 @@
-import { emptyRecords, type RecordKind } from '../domain/record-kinds';
-import type { RecordMeta } from '../domain/record-meta';
 import type { ChangeSet } from '../exchange/exchange-file';
-import type { ExchangeWorkerMessage, ExchangeWorkerRequest } from '../workers/exchange-file.worker';
+import type { ReceiveSession } from '../exchange/receive-session';
+import type { CapstanStorage } from '../storage/storage';
+import type {
+  ExchangeWorkerMessage,
+  ExchangeWorkerRequest,
+  ExchangeWorkerStage
+} from '../workers/exchange-file.worker';
 import { workerJob } from './worker-job';
 
 /** Words for the stages the exchange worker reports, for a status line. */
-export const STAGE_LABEL: Record<string, string> = {
+export const STAGE_LABEL: Record<ExchangeWorkerStage, string> = {
   reading: 'Reading the file…',
   unpacking: 'Unpacking…',
   parsing: 'Reading the records…',
   verifying: 'Checking the content hash and every record…',
+  comparing: 'Comparing with the records on this device…',
   writing: 'Writing the file…'
 };
 
@@ -24,7 +29,7 @@ function run<T>(
     request,
     (m) => {
       if (m.type === 'stage') {
-        onStage(STAGE_LABEL[m.stage] ?? m.stage);
+        onStage(STAGE_LABEL[m.stage]);
         return undefined;
       }
       if (m.type === 'refused') return { refused: m.message };
@@ -35,19 +40,104 @@ function run<T>(
   );
 }
 
-export function decodeInWorker(file: Blob, onStage: (label: string) => void) {
-  // The records arrive in parts (exchange-file.worker.ts), the header last.
-  const records = emptyRecords() as unknown as Record<RecordKind, RecordMeta[]>;
-  return run<ChangeSet>({ type: 'decode', file }, onStage, (m) => {
-    if (m.type === 'records') {
-      const list = records[m.kind];
-      for (const r of m.records) list.push(r);
-      return undefined;
-    }
-    return m.type === 'decoded'
-      ? { header: m.header, records: records as unknown as ChangeSet['records'] }
-      : undefined;
+/**
+ * Reads a received file in a fresh worker and compares it with this device (workers/exchange-file.worker.ts):
+ * `done` gives the session once the preview is ready, whose `merge` writes the file in the same worker. The page
+ * holds the preview only. `cancel` (while reading) and the session's `close` terminate the worker; nothing has
+ * been written then. After a merge the page's storage carries on above the worker's clock and write sequence.
+ */
+export function receiveInWorker(
+  storage: CapstanStorage,
+  file: Blob,
+  onStage: (label: string) => void
+): { done: Promise<ReceiveSession>; cancel: () => void } {
+  const worker = new Worker(new URL('../workers/exchange-file.worker.ts', import.meta.url), {
+    type: 'module'
   });
+  let waiting: { resolve: (m: ExchangeWorkerMessage) => void; reject: (e: Error) => void } | undefined;
+  let onWritten: ((written: number, total: number) => void) | undefined;
+  let ended = false;
+  let merging = false;
+  const end = () => {
+    ended = true;
+    worker.terminate();
+  };
+  /** The next answer (previewed, merged) or refusal. */
+  const answer = () =>
+    new Promise<ExchangeWorkerMessage>((resolve, reject) => {
+      if (ended) reject(new Error('This file was discarded: read it again to merge it'));
+      else waiting = { resolve, reject };
+    });
+  const settle = (outcome: ExchangeWorkerMessage | Error) => {
+    const w = waiting;
+    waiting = undefined;
+    if (outcome instanceof Error) w?.reject(outcome);
+    else w?.resolve(outcome);
+  };
+  worker.onmessage = (event: MessageEvent<ExchangeWorkerMessage>) => {
+    const m = event.data;
+    if (m.type === 'stage') onStage(STAGE_LABEL[m.stage]);
+    else if (m.type === 'written') onWritten?.(m.written, m.total);
+    // A refused merge leaves the worker with the file: the person can try again (storage full, say).
+    else if (m.type === 'refused') settle(new Error(m.message));
+    else settle(m);
+  };
+  worker.onerror = (event) => {
+    end();
+    settle(new Error(`The file could not be processed: ${event.message || 'the background reader failed'}`));
+  };
+  const previewed = answer();
+  worker.postMessage({
+    type: 'receive',
+    file,
+    databaseName: storage.databaseName,
+    latestStamp: storage.clock.latest
+  } satisfies ExchangeWorkerRequest);
+  const done = previewed.then(
+    (m): ReceiveSession => {
+      if (m.type !== 'previewed') throw new Error('The file could not be processed: unexpected answer');
+      return {
+        preview: m.preview,
+        merge: async (choices, source, written) => {
+          const merged = answer();
+          onWritten = written;
+          merging = true;
+          worker.postMessage({
+            type: 'merge',
+            // Plain copies: the page's choices may be reactive proxies, which cannot be posted.
+            choices: { rule: choices.rule, perConflict: { ...choices.perConflict } },
+            source: { ...source },
+            latestStamp: storage.clock.latest
+          } satisfies ExchangeWorkerRequest);
+          let m: ExchangeWorkerMessage;
+          try {
+            m = await merged;
+          } finally {
+            merging = false;
+          }
+          end();
+          if (m.type !== 'merged') throw new Error('The merge could not be finished: unexpected answer');
+          storage.exchange.mergedElsewhere(m.outcome.marks);
+          return m.outcome;
+        },
+        // Not while merging: terminated then, the worker would abort the merge the person confirmed.
+        close: () => {
+          if (!merging) end();
+        }
+      };
+    },
+    (error: unknown) => {
+      end();
+      throw error;
+    }
+  );
+  return {
+    done,
+    cancel: () => {
+      end();
+      settle(new Error('Cancelled: nothing was imported'));
+    }
+  };
 }
 
 export function encodeInWorker(changeSet: ChangeSet, gzip: boolean, onStage: (label: string) => void) {

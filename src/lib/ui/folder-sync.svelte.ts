@@ -1,7 +1,7 @@
 import type { FolderSyncReport, SyncDirectory } from '../exchange/folder-sync';
 import type { FolderSyncState } from '../storage/folder-sync-state';
 import type { CapstanStorage } from '../storage/storage';
-import { decodeInWorker, encodeInWorker } from './exchange-worker-client';
+import { encodeInWorker, receiveInWorker } from './exchange-worker-client';
 import { refreshReadModel } from './read-model-refresh';
 
 /**
@@ -138,7 +138,7 @@ export class FolderSyncController {
           storage: this.storage,
           folder,
           appVersion: __APP_VERSION__,
-          decode: (file) => decodeInWorker(file, () => undefined).done,
+          receive: (file) => receiveInWorker(this.storage, file, () => undefined).done,
           encode: (changeSet) => encodeInWorker(changeSet, true, () => undefined).done,
           onStage: (text) => (this.busy = text)
         });

@@ -2,7 +2,8 @@
  * One request run in a fresh worker: the way every heavy job of the pages runs (exchange files, measurement
  * files). `handle` reads each message and answers what it means — progress (nothing), a result, or a refusal —
  * and the job settles on the first result or refusal. `cancel` terminates the worker: nothing has been written
- * anywhere, since workers never write a record (only the ranking's derived read model, storage/portfolio-reader.ts).
+ * anywhere, since a job's worker never writes a record (the ranking's derived read model aside,
+ * storage/portfolio-reader.ts; a received file is merged by a conversation of its own, exchange-worker-client.ts).
  */
 export type WorkerStep<T> = { result: T } | { refused: string } | undefined;
 

@@ -1,9 +1,17 @@
 /// <reference lib="webworker" />
 /**
- * Reads, checks and writes exchange files off the page's thread, so that a file of 100 000 studies never
- * freezes it: parsing, hashing and schema validation run here, and the page only shows the stage reached.
- * Nothing here touches the database; cancelling terminates the worker and leaves nothing behind.
+ * Reads, checks, compares and merges exchange files off the page's thread, so that a company's file never
+ * freezes it: parsing, hashing and schema validation, the comparison with the records stored here and the
+ * merge's writes all run here, and the page only shows the stage reached, the preview and the progress. The
+ * file's records never reach the page: at company size (720 000 studies) they and the merge's plan took a
+ * gigabyte of its memory, and its garbage collection held it for seconds.
+ *
+ * A received file is one conversation: 'receive' reads and compares it (nothing written) and answers
+ * 'previewed'; 'merge' writes it with the person's choices in one transaction and answers 'merged'. The page
+ * terminates the worker when the file is discarded, cancelled or merged; terminated while merging, the
+ * transaction is aborted and nothing is written.
  */
+import type { MergeChoices } from '../domain/change-set-merge';
 import {
   decodeExchangeFile,
   encodeExchangeFile,
@@ -12,45 +20,76 @@ import {
   type ChangeSet,
   type DecodeStage
 } from '../exchange/exchange-file';
-import { RECORD_KINDS, type RecordKind } from '../domain/record-kinds';
-import type { RecordMeta } from '../domain/record-meta';
-
-/**
- * Records per message: the page copies each message in from this worker in one task, and 72 000 studies in one
- * message held it for 0.4 s (more on a slow device); a few thousand take a few tens of milliseconds.
- */
-const RECORDS_PER_MESSAGE = 4000;
+import {
+  receiveChangeSet,
+  type MergeOutcome,
+  type ReceivePreview,
+  type ReceiveSession
+} from '../exchange/receive-session';
+import { openStorage, type CapstanStorage } from '../storage/storage';
 
 export type ExchangeWorkerRequest =
-  { type: 'decode'; file: Blob } | { type: 'encode'; changeSet: ChangeSet; gzip: boolean };
+  | {
+      type: 'receive';
+      file: Blob;
+      databaseName: string;
+      /** The page's clock: what this worker writes is stamped after what the page has written. */
+      latestStamp: string | undefined;
+    }
+  | {
+      type: 'merge';
+      choices: MergeChoices;
+      source: { deviceId: string; name: string; at: string };
+      latestStamp: string | undefined;
+    }
+  | { type: 'encode'; changeSet: ChangeSet; gzip: boolean };
+
+export type ExchangeWorkerStage = DecodeStage | 'reading' | 'comparing' | 'writing';
 
 export type ExchangeWorkerMessage =
-  | { type: 'stage'; stage: DecodeStage | 'reading' | 'writing' }
-  /** Records of a decoded file, a part at a time (see RECORDS_PER_MESSAGE); then 'decoded' with its header. */
-  | { type: 'records'; kind: RecordKind; records: RecordMeta[] }
-  | { type: 'decoded'; header: ChangeSet['header'] }
+  | { type: 'stage'; stage: ExchangeWorkerStage }
+  | { type: 'previewed'; preview: ReceivePreview }
+  | { type: 'written'; written: number; total: number }
+  | { type: 'merged'; outcome: MergeOutcome }
   | { type: 'encoded'; bytes: Uint8Array }
   | { type: 'refused'; message: string };
 
 const post = (m: ExchangeWorkerMessage, transfer: Transferable[] = []) =>
   (self as unknown as DedicatedWorkerGlobalScope).postMessage(m, transfer);
 
+/** The file received and compared, waiting for the person's decision. */
+let received: { storage: CapstanStorage; session: ReceiveSession } | undefined;
+
+async function receive(file: Blob, databaseName: string, latestStamp: string | undefined): Promise<void> {
+  const tooBig = sizeProblem(file.size);
+  if (tooBig) throw new ExchangeFileError(tooBig);
+  post({ type: 'stage', stage: 'reading' });
+  const bytes = new Uint8Array(await file.arrayBuffer());
+  const changeSet = await decodeExchangeFile(bytes, (stage) => post({ type: 'stage', stage }));
+  post({ type: 'stage', stage: 'comparing' });
+  const storage = await openStorage(databaseName);
+  storage.clock.observe(latestStamp);
+  received = { storage, session: await receiveChangeSet(storage, changeSet) };
+  post({ type: 'previewed', preview: received.session.preview });
+}
+
+async function merge(request: Extract<ExchangeWorkerRequest, { type: 'merge' }>): Promise<void> {
+  if (!received) throw new Error('No file has been read: read it again to merge it');
+  received.storage.clock.observe(request.latestStamp);
+  const outcome = await received.session.merge(request.choices, request.source, (written, total) =>
+    post({ type: 'written', written, total })
+  );
+  received.storage.close();
+  received = undefined;
+  post({ type: 'merged', outcome });
+}
+
 self.onmessage = async (event: MessageEvent<ExchangeWorkerRequest>) => {
   const request = event.data;
   try {
-    if (request.type === 'decode') {
-      const tooBig = sizeProblem(request.file.size);
-      if (tooBig) throw new ExchangeFileError(tooBig);
-      post({ type: 'stage', stage: 'reading' });
-      const bytes = new Uint8Array(await request.file.arrayBuffer());
-      const { header, records } = await decodeExchangeFile(bytes, (stage) => post({ type: 'stage', stage }));
-      for (const kind of RECORD_KINDS) {
-        const all = records[kind] as RecordMeta[];
-        for (let i = 0; i < all.length; i += RECORDS_PER_MESSAGE)
-          post({ type: 'records', kind, records: all.slice(i, i + RECORDS_PER_MESSAGE) });
-      }
-      post({ type: 'decoded', header });
-    } else {
+    if (request.type === 'receive') await receive(request.file, request.databaseName, request.latestStamp);
+    else if (request.type === 'merge') await merge(request);
+    else {
       post({ type: 'stage', stage: 'writing' });
       const bytes = await encodeExchangeFile(request.changeSet, { gzip: request.gzip });
       post({ type: 'encoded', bytes }, [bytes.buffer]);
