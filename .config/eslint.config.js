@@ -71,6 +71,24 @@ export default ts.config(
     }
   },
   {
+    // Dexie keeps a transaction's zone across native awaits only when its scope function is async: a plain arrow
+    // returning an async helper's promise lost it in Chromium once the helper had awaited a few reads, and the
+    // reads after ran outside the transaction (a received file already held here was refused: "Transaction
+    // committed too early"). fake-indexeddb does not show it, so the rule is held here.
+    files: ['src/**/*.ts', 'tests/**/*.ts'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        {
+          selector:
+            "CallExpression[callee.property.name='transaction'] > :matches(ArrowFunctionExpression, FunctionExpression)[async=false]",
+          message:
+            'A Dexie transaction scope must be an async function: a plain one loses the transaction across native awaits (see .config/eslint.config.js)'
+        }
+      ]
+    }
+  },
+  {
     files: ['**/*.svelte', '**/*.svelte.ts'],
     languageOptions: {
       parserOptions: {

@@ -7,12 +7,20 @@
 import { BUILT_IN_PROFILES } from '../../src/lib/domain/context-profile';
 import { PROJECT_PHASES } from '../../src/lib/domain/improvement-project';
 import { addMonths } from '../../src/lib/domain/period';
-import { stampNew, type WriteContext } from '../../src/lib/domain/record-meta';
+import { editableOf, stampNew, stampUpdate, type WriteContext } from '../../src/lib/domain/record-meta';
 import { changeSetOf, encodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 
 export const COMPANY_LAST_PERIOD = '2026-10';
 
-export async function companyPortfolioFile(processCount: number, months = 36): Promise<Uint8Array> {
+/**
+ * `revised`: every study as edited once more on the exporting device (a new version of the same record, its
+ * version vector one further), as a site's file arrives after its lead corrected each month.
+ */
+export async function companyPortfolioFile(
+  processCount: number,
+  months = 36,
+  options: { revised?: boolean } = {}
+): Promise<Uint8Array> {
   let n = 0;
   const ctx: WriteContext = {
     deviceId: 'bench-device',
@@ -52,7 +60,7 @@ export async function companyPortfolioFile(processCount: number, months = 36): P
     )
   );
   const first = addMonths(COMPANY_LAST_PERIOD, -(months - 1));
-  const studies = characteristics.flatMap((c, i) =>
+  const firstStudies = characteristics.flatMap((c, i) =>
     Array.from({ length: months }, (_, m) =>
       stampNew(
         {
@@ -68,6 +76,11 @@ export async function companyPortfolioFile(processCount: number, months = 36): P
       )
     )
   );
+  const studies = options.revised
+    ? firstStudies.map((study) =>
+        stampUpdate(study, { ...editableOf(study), enteredBy: 'bench, revised' }, ctx)
+      )
+    : firstStudies;
   const projects = processes
     .filter((_, i) => i % 10 === 0)
     .map((p, i) =>

@@ -125,3 +125,25 @@ describe('layer rules hold at any depth and through $lib', () => {
     expect(await layerErrors(filePath, `${code}\nexport const probe = 1;\n`)).toEqual([]);
   });
 });
+
+describe('a Dexie transaction scope is an async function', () => {
+  const errorsOf = async (code: string) => {
+    const [result] = await eslint.lintText(code, { filePath: 'src/lib/storage/probe.ts' });
+    return (result?.messages ?? []).filter((m) => m.ruleId === 'no-restricted-syntax');
+  };
+  it('refuses a plain arrow or function as the scope', async () => {
+    expect(
+      await errorsOf('export const p = (db: any) => db.transaction("r", db.t, () => db.t.get(1));\n')
+    ).toHaveLength(1);
+    expect(
+      await errorsOf('export const p = (db: any) => db.transaction("r", db.t, function () { return 1; });\n')
+    ).toHaveLength(1);
+  });
+  it('allows an async scope', async () => {
+    expect(
+      await errorsOf(
+        'export const p = (db: any) => db.transaction("r", db.t, async (tx: any) => tx.t.get(1));\n'
+      )
+    ).toEqual([]);
+  });
+});

@@ -317,7 +317,10 @@ export async function previewChangeSet(db: CapstanDatabase, records: RecordsByKi
   const tables = RECORD_KINDS.map((k) => tableOf(db, k));
   // Gathered before the read transaction: it may pause only while a request of its own is pending.
   const fileIds = await runInSlices(idsOfSteps(records));
-  const snapshot = await db.transaction('r', tables, () => snapshotFor(db, records, fileIds));
+  // An async scope, as every transaction's: Dexie keeps a transaction's zone across native awaits only from an
+  // async scope function; this one, a plain arrow returning snapshotFor's promise, lost it after the first reads
+  // of a file already held here, which then ran outside the transaction and refused the import in Chromium.
+  const snapshot = await db.transaction('r', tables, async () => snapshotFor(db, records, fileIds));
   // Planned after the read, in slices, so that a company's file never holds the page for long. A record that
   // changes here meanwhile is caught when the merge is written (applyChangeSet compares it with the snapshot).
   try {
