@@ -163,34 +163,47 @@ function septemberOf(chars: readonly { id: string }[]) {
 }
 
 describe('a file of many months', () => {
-  it('finds every month it shares with this device, however many the file logs', async () => {
-    // More months than one query of the snapshot reads (MONTH_KEYS_PER_QUERY): the last ones must clash too.
-    const characteristics = 110;
-    const months = 40;
-    const { site, process, chars } = pressLine(characteristics);
-    const studiesBy = (ctx: ReturnType<typeof at>) =>
-      chars.flatMap((c) =>
-        Array.from({ length: months }, (_, m) =>
-          stampNew(
-            {
-              characteristicId: c.id,
-              period: `${2020 + Math.floor(m / 12)}-${String((m % 12) + 1).padStart(2, '0')}`,
-              enteredBy: ctx.deviceId,
-              data: { kind: 'summary' as const, n: 30, mean: 10, sd: 0.2 }
-            },
-            ctx
+  // More months than one query of the snapshot reads (MONTH_KEYS_PER_QUERY): the last ones must clash too. Two
+  // ways of reading: a file that logs most of the studies held here has the table read whole (a device's file
+  // received again); one logging fewer — here the device also holds 40 earlier months — asks month by month.
+  it.each([
+    ['the table read whole', 0],
+    ['asked month by month', 40]
+  ])(
+    'finds every month it shares with this device, however many the file logs (%s)',
+    async (_way, earlier) => {
+      const characteristics = 110;
+      const months = 40;
+      const { site, process, chars } = pressLine(characteristics);
+      const studiesBy = (ctx: ReturnType<typeof at>, first = 0, count = months) =>
+        chars.flatMap((c) =>
+          Array.from({ length: count }, (_, k) => first + k).map((m) =>
+            stampNew(
+              {
+                characteristicId: c.id,
+                period: `${2020 + Math.floor(m / 12)}-${String((m % 12) + 1).padStart(2, '0')}`,
+                enteredBy: ctx.deviceId,
+                data: { kind: 'summary' as const, n: 30, mean: 10, sd: 0.2 }
+              },
+              ctx
+            )
           )
-        )
-      );
-    const records = (studies: ReturnType<typeof studiesBy>) => fileOf({ site, process, chars }, studies);
-    const s = await device();
-    const source = { deviceId: 'office-device', name: 'office', at: '2026-10-01T00:00:00Z' };
-    await s.exchange.apply(await s.exchange.preview(records(studiesBy(office))), {}, source);
-    // The same months logged on another device: every one of them is a month with two studies.
-    const plan = await s.exchange.preview(records(studiesBy(at('lead-device'))));
-    const clashes = plan.conflicts.filter((c) => c.type === 'same-month');
-    expect(clashes).toHaveLength(characteristics * months);
-  }, 60_000);
+        );
+      const records = (studies: ReturnType<typeof studiesBy>) => fileOf({ site, process, chars }, studies);
+      const s = await device();
+      const source = { deviceId: 'office-device', name: 'office', at: '2026-10-01T00:00:00Z' };
+      const held = studiesBy(office, 0, earlier + months);
+      await s.exchange.apply(await s.exchange.preview(records(held)), {}, source);
+      // The same months logged on another device: every one of them is a month with two studies.
+      const plan = await s.exchange.preview(records(studiesBy(at('lead-device'), earlier)));
+      const clashes = plan.conflicts.filter((c) => c.type === 'same-month');
+      expect(clashes).toHaveLength(characteristics * months);
+      // And the file of this device's own studies is all unchanged, whichever way it is read.
+      const again = await s.exchange.preview(records(held.slice(0, characteristics * months)));
+      expect(again.counts).toMatchObject({ new: 0, updated: 0, conflict: 0 });
+    },
+    120_000
+  );
 
   it('finds the parents of every study of a file naming more of them than one read asks for', async () => {
     // 2 500 characteristics held here, a file of one study under each: their parents are read a part at a time
