@@ -41,6 +41,19 @@ const layer = (files, forbidden, why, names = []) => ({
 const any = (folder) => [`**/${folder}`, `**/${folder}/**`, `$lib/${folder}`, `$lib/${folder}/**`];
 const DATABASE = ['**/storage/database', '**/storage/schema-versions', '**/storage/local-sequence'];
 
+/**
+ * What a worker must not import: storage but the modules named (files under storage, not the folder itself:
+ * gitignore cannot re-include a file of an excluded folder), UI, the command line, Dexie and the frameworks.
+ */
+const workerForbidden = (storageModules) => [
+  ['**/storage/*', '**/storage/**/*', '$lib/storage/*', ...storageModules.map((m) => `!**/storage/${m}`)],
+  ...any('ui'),
+  ...any('cli'),
+  '$lib/**',
+  'dexie',
+  ...FRAMEWORKS
+];
+
 /** The browser-side frameworks: only UI code and pages may import them. */
 const FRAMEWORKS = ['svelte', 'svelte/*', 'echarts', 'echarts/*', '$app/*'];
 
@@ -162,33 +175,12 @@ export default ts.config(
   ),
   layer(
     ['src/lib/workers/**'],
-    [
-      // Files under storage, not the folder itself: gitignore cannot re-include a file of an excluded folder.
-      ['**/storage/*', '**/storage/**/*', '$lib/storage/*', '!**/storage/portfolio-reader'],
-      ...any('ui'),
-      ...any('cli'),
-      '$lib/**',
-      'dexie',
-      ...FRAMEWORKS
-    ],
+    workerForbidden(['portfolio-reader']),
     'workers compute on stats, domain and exchange, and reach IndexedDB only through storage/portfolio-reader, which reads records and keeps the device-local read model derived from them; they never write a record (the page commits)'
   ),
   layer(
     ['src/lib/workers/exchange-file.worker.ts'],
-    [
-      [
-        '**/storage/*',
-        '**/storage/**/*',
-        '$lib/storage/*',
-        '!**/storage/portfolio-reader',
-        '!**/storage/storage'
-      ],
-      ...any('ui'),
-      ...any('cli'),
-      '$lib/**',
-      'dexie',
-      ...FRAMEWORKS
-    ],
+    workerForbidden(['portfolio-reader', 'storage']),
     'the exchange worker writes records only as a received file is merged, through the storage object (storage.exchange, one transaction, on the person’s confirmation); other workers reach IndexedDB only through storage/portfolio-reader'
   ),
   layer(

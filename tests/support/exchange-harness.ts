@@ -1,3 +1,4 @@
+import { afterEach } from 'vitest';
 import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 import { prepareExport } from '../../src/lib/exchange/export-change-set';
 import type { ExportScope } from '../../src/lib/storage/change-set-store';
@@ -14,6 +15,19 @@ export async function openDevice(label: string): Promise<CapstanStorage> {
 export async function closeDevice(s: CapstanStorage): Promise<void> {
   databaseOf(s).close();
   await databaseOf(s).delete();
+}
+
+/** A test file's devices: `device(label)` opens one, and each is closed and deleted after every test. */
+export function testDevices(): (label: string) => Promise<CapstanStorage> {
+  const open: CapstanStorage[] = [];
+  afterEach(async () => {
+    while (open.length) await closeDevice(open.pop()!);
+  });
+  return async (label) => {
+    const s = await openDevice(label);
+    open.push(s);
+    return s;
+  };
 }
 
 /** The fixed identity used when a test compares two exports byte for byte. */
@@ -53,4 +67,28 @@ export async function receiveBytes(
     at: '2026-12-01T00:00:00.000Z'
   });
   return { plan, result, changeSet };
+}
+
+/** A site with one process and one measured characteristic (Seal force, 10–20 N), as a site lead sets them up. */
+export async function sealingLine(s: CapstanStorage) {
+  const plant = await s.sites.create({ name: 'Plant North', region: '', timeZone: 'UTC' });
+  const process = await s.processes.create({
+    siteId: plant.id,
+    name: 'Sealing',
+    owner: 'R. Imre',
+    contextId: 'general-manufacturing',
+    monthlyVolume: 1000,
+    costPerDefective: 5,
+    currency: 'EUR'
+  });
+  const ch = await s.characteristics.create({
+    processId: process.id,
+    name: 'Seal force',
+    unit: 'N',
+    dataKind: 'measured',
+    lsl: 10,
+    usl: 20,
+    riskClass: 'standard'
+  });
+  return { plant, process, ch };
 }

@@ -3,24 +3,15 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import demo from '../../../seed-data/demo-portfolio.json';
 import {
   canonicalExport,
-  closeDevice,
   exportBytes,
   receiveBytes,
-  openDevice
+  sealingLine,
+  testDevices
 } from '../../../tests/support/exchange-harness';
-import type { CapstanStorage } from '../storage/storage';
 import { decodeExchangeFile, encodeExchangeFile, ExchangeFileError } from './exchange-file';
 
-const open: CapstanStorage[] = [];
-async function device(label: string) {
-  const s = await openDevice(label);
-  open.push(s);
-  return s;
-}
-afterEach(async () => {
-  vi.restoreAllMocks();
-  while (open.length) await closeDevice(open.pop()!);
-});
+const device = testDevices();
+afterEach(() => vi.restoreAllMocks());
 
 describe('exchange files between devices', () => {
   it('round-trips the demo portfolio: export, import into an empty database, export again gives the same bytes', async () => {
@@ -119,25 +110,7 @@ describe('exchange files between devices', () => {
   it('plays a site and the manager: results go up, a target comes back, and a crossing edit is a conflict', async () => {
     const site = await device('site');
     const hq = await device('hq');
-    const plant = await site.sites.create({ name: 'Plant North', region: '', timeZone: 'UTC' });
-    const process = await site.processes.create({
-      siteId: plant.id,
-      name: 'Sealing',
-      owner: 'R. Imre',
-      contextId: 'general-manufacturing',
-      monthlyVolume: 1000,
-      costPerDefective: 5,
-      currency: 'EUR'
-    });
-    const ch = await site.characteristics.create({
-      processId: process.id,
-      name: 'Seal force',
-      unit: 'N',
-      dataKind: 'measured',
-      lsl: 10,
-      usl: 20,
-      riskClass: 'standard'
-    });
+    const { plant, ch } = await sealingLine(site);
     await site.studies.logOne(
       {
         characteristicId: ch.id,

@@ -1,49 +1,23 @@
 import 'fake-indexeddb/auto';
-import { afterEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import {
   canonicalExport,
-  closeDevice,
   exportBytes,
-  openDevice
+  sealingLine,
+  testDevices
 } from '../../../tests/support/exchange-harness';
 import { editableOf } from '../domain/record-meta';
-import { openStorage, type CapstanStorage } from '../storage/storage';
+import { openStorage } from '../storage/storage';
 import { decodeExchangeFile } from './exchange-file';
 import { mergeChoicesOf, receiveChangeSet } from './receive-session';
 
-const open: CapstanStorage[] = [];
-async function device(label: string) {
-  const s = await openDevice(label);
-  open.push(s);
-  return s;
-}
-afterEach(async () => {
-  while (open.length) await closeDevice(open.pop()!);
-});
+const device = testDevices();
 
 /** A site device and the office with one characteristic both hold, then both rename it: one conflict. */
 async function crossingEdit() {
   const site = await device('site');
   const office = await device('office');
-  const plant = await site.sites.create({ name: 'Plant North', region: '', timeZone: 'UTC' });
-  const process = await site.processes.create({
-    siteId: plant.id,
-    name: 'Sealing',
-    owner: '',
-    contextId: 'general-manufacturing',
-    monthlyVolume: 1000,
-    costPerDefective: 5,
-    currency: 'EUR'
-  });
-  const ch = await site.characteristics.create({
-    processId: process.id,
-    name: 'Seal force',
-    unit: 'N',
-    dataKind: 'measured',
-    lsl: 10,
-    usl: 20,
-    riskClass: 'standard'
-  });
+  const { ch } = await sealingLine(site);
   const first = await receiveChangeSet(office, await decodeExchangeFile(await exportBytes(site)));
   await first.merge({}, { deviceId: site.deviceId, name: 'site', at: '2026-12-01T00:00:00Z' });
   await office.characteristics.update(ch.id, { ...editableOf(ch), name: 'Seal force (office)' });
