@@ -9,7 +9,7 @@ import {
 import { editableOf } from '../domain/record-meta';
 import { openStorage } from '../storage/storage';
 import { decodeExchangeFile } from './exchange-file';
-import { mergeChoicesOf, receiveChangeSet } from './receive-session';
+import { receiveChangeSet } from './receive-session';
 
 const device = testDevices();
 
@@ -45,11 +45,14 @@ describe('receiving a file as one session: compared, then merged on confirmation
     ).rejects.toThrow(/not settled/);
     expect(await canonicalExport(office)).toBe(before);
     const key = preview.conflicts[0]!.key;
-    const outcome = await session.merge(mergeChoicesOf({ [key]: 'incoming' }, ''), {
-      deviceId: site.deviceId,
-      name: 'site',
-      at: '2026-12-02T00:00:00Z'
-    });
+    const outcome = await session.merge(
+      { perConflict: { [key]: 'incoming' } },
+      {
+        deviceId: site.deviceId,
+        name: 'site',
+        at: '2026-12-02T00:00:00Z'
+      }
+    );
     expect(outcome.counts.conflict).toBe(1);
     expect(outcome.marks.writeMark).toBe(office.syncFolder.writeMark());
     expect(outcome.marks.latestStamp).toBe(office.clock.latest);

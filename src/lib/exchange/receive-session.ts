@@ -1,4 +1,4 @@
-import type { ConflictChoice, MergeChoices, MergeConflict } from '../domain/change-set-merge';
+import type { MergeChoices, MergeConflict } from '../domain/change-set-merge';
 import { summariseConflict, type ConflictSummary } from '../domain/conflict-summary';
 import type { RecordKind } from '../domain/record-kinds';
 import type { MergeKind } from '../domain/record-merge';
@@ -93,12 +93,4 @@ export async function receiveChangeSet(
       closed = true;
     }
   };
-}
-
-/** The choices a person made, as the merge reads them (an empty rule: every conflict picked one by one). */
-export function mergeChoicesOf(
-  picks: Record<string, ConflictChoice>,
-  rule: MergeChoices['rule'] | ''
-): MergeChoices {
-  return { perConflict: { ...picks }, rule: rule === '' ? undefined : rule };
 }
