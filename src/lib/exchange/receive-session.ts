@@ -30,7 +30,7 @@ export type MergeOutcome = ReceiveResult & { marks: WriteMarks };
 
 /**
  * A received change set, compared with this device and waiting for the person's decision. The same steps
- * whether they run in a worker (the app) or in the caller's thread (the tests, the command line's tools).
+ * whether they run in a worker (the app) or in the caller's thread (tests, folder sync given no worker).
  */
 export interface ReceiveSession {
   preview: ReceivePreview;
