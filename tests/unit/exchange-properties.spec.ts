@@ -22,6 +22,7 @@ import {
   encodeExchangeFile,
   exchangeText
 } from '../../src/lib/exchange/exchange-file';
+import { RECORD_TABLES } from '../../src/lib/storage/record-tables';
 import { databaseOf, type CapstanStorage } from '../../src/lib/storage/storage';
 import { closeDevice, openDevice } from '../support/exchange-harness';
 
@@ -277,9 +278,9 @@ describe('sync through the database (properties)', { timeout: 120_000 }, () => {
     for (const s of devices)
       await databaseOf(s).transaction(
         'rw',
-        RECORD_KINDS.map((k) => databaseOf(s).table(k)),
+        RECORD_TABLES.map((t) => databaseOf(s).table(t)),
         async () => {
-          for (const k of RECORD_KINDS) await databaseOf(s).table(k).clear();
+          for (const t of RECORD_TABLES) await databaseOf(s).table(t).clear();
         }
       );
   }

@@ -10,7 +10,8 @@ import { liveMonthClashes } from '../../src/lib/domain/study-month';
 import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 import { prepareExport } from '../../src/lib/exchange/export-change-set';
 import type { SiteRemoval } from '../../src/lib/storage/site-repository';
-import type { CapstanStorage } from '../../src/lib/storage/storage';
+import { databaseOf, type CapstanStorage } from '../../src/lib/storage/storage';
+import { shelfProblems } from '../../src/lib/storage/study-shelf';
 import { canonicalExport, closeDevice, openDevice } from '../support/exchange-harness';
 
 /**
@@ -28,7 +29,9 @@ import { canonicalExport, closeDevice, openDevice } from '../support/exchange-ha
  * 3. no live record sits under a deleted or missing parent;
  * 4. no number anywhere is NaN or Infinity;
  * 5. every device's export passes the reader's checks (what `check` runs);
- * 6. nothing entered is lost unless it was deleted on purpose or a conflict about it (or a parent) was shown.
+ * 6. nothing entered is lost unless it was deleted on purpose or a conflict about it (or a parent) was shown;
+ * 7. every study is stored once, on the shelf of its characteristic, which counts it and carries its write
+ *    sequence (storage/study-shelf.ts shelfProblems).
  */
 const HISTORIES = Number(process.env.CAPSTAN_HISTORIES ?? 500);
 const MONTHS = ['2026-08', '2026-09', '2026-10'];
@@ -248,7 +251,7 @@ describe('random multi-device histories', { timeout: 900_000 }, () => {
             } else if (op.op === 'deleteStudy') {
               const study = await s.studies.findForMonth(chars[op.ch]!.id, MONTHS[op.month]!);
               if (!study) continue;
-              await s.studies.remove(study.id);
+              await s.studies.remove(study.id, study.characteristicId);
               deletedOnPurpose.add(study.id);
             }
           } catch (error) {
@@ -303,6 +306,9 @@ describe('random multi-device histories', { timeout: 900_000 }, () => {
           const file = await prepareExport(devices[d]!, { kind: 'everything' }, ident(d));
           await expect(decodeExchangeFile(file.bytes)).resolves.toBeDefined();
         }
+        // 7. Every study stored once, on its characteristic's shelf.
+        for (const s of devices)
+          expect(shelfProblems(await databaseOf(s).studyShelves.toArray())).toEqual([]);
         // 6. Nothing entered is lost without a deliberate delete or a conflict shown about it or a parent.
         for (const id of entered.keys()) {
           if (live(id)) continue;

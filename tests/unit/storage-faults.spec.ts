@@ -61,7 +61,7 @@ describe('storage faults', () => {
     await target.sites.create({ name: 'Plant kept', region: '', timeZone: 'UTC' });
     const before = await canonicalExport(target);
     // Sites and processes would be written first; the disk fills up at the studies.
-    databaseOf(target).use(fullDisk('studies'));
+    databaseOf(target).use(fullDisk('studyShelves'));
     databaseOf(target).close();
     await databaseOf(target).open();
     const changeSet = await decodeExchangeFile(file);
@@ -84,7 +84,7 @@ describe('storage faults', () => {
     await s.loadDemo(demo);
     const characteristic = demo.records.characteristics[0]!;
     const before = await canonicalExport(s);
-    databaseOf(s).use(fullDisk('studies'));
+    databaseOf(s).use(fullDisk('studyShelves'));
     databaseOf(s).close();
     await databaseOf(s).open();
     const error = await s.studies

@@ -39,7 +39,7 @@ export interface MonthlyStatisticsSnapshot {
   ids: string[];
   /** Cells whose studies the model keeps (raw values, or two live studies in one month), with their ids. */
   heldIds: [cell: number, ids: string[]][];
-  /** Ids of deleted studies seen (tombstones): with the live ones, every row of the studies table. */
+  /** Ids of deleted studies seen (tombstones): with the live ones, every study stored. */
   tombstones: string[];
 }
 
@@ -309,7 +309,7 @@ export class MonthlyStatistics {
     return this.#span;
   }
 
-  /** Studies the model knows of, live and deleted: what a full read of the studies table would count. */
+  /** Studies the model knows of, live and deleted: what a count of every stored study gives. */
   get known(): number {
     return this.#live + this.#tombstones.size;
   }

@@ -11,6 +11,11 @@ export function studyMonthKey(study: Pick<Study, 'characteristicId' | 'period'>)
   return `${study.characteristicId}|${study.period}`;
 }
 
+/** The characteristic a studyMonthKey names. */
+export function characteristicOfMonthKey(key: string): string {
+  return key.slice(0, key.lastIndexOf('|'));
+}
+
 /** Groups of two or more live studies that share a characteristic and month, each group in id order. */
 export function liveMonthClashes<T extends Study>(studies: Iterable<T>): T[][] {
   const byKey = new Map<string, T[]>();

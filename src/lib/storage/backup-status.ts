@@ -1,7 +1,7 @@
 import { RECORD_KINDS } from '../domain/record-kinds';
-import type { RecordMeta } from '../domain/record-meta';
-import type { Table } from 'dexie';
 import type { CapstanDatabase } from './database';
+import { plainTableOf } from './records-of-kind';
+import { unsentStudies } from './study-shelves';
 
 /** Device setting holding when this device last exported and the write sequence it had reached. */
 export const LAST_EXPORT_KEY = 'lastExport';
@@ -11,6 +11,12 @@ export interface BackupStatus {
   lastExportAt?: string;
   /** Records written (typed or imported) on this device after its last export. */
   unexported: number;
+  /**
+   * `unexported` counts every study of the characteristics written since (a company's file merged here writes
+   * thousands; storage/study-shelves.ts unsentStudies), so it may count more than were written, and the oldest
+   * is the earliest of those characteristics' latest writes.
+   */
+  upperBound: boolean;
   /** Write time (from the sequence) of the oldest of them. */
   oldestUnexportedAt?: string;
 }
@@ -21,16 +27,25 @@ export async function loadBackupStatus(db: CapstanDatabase): Promise<BackupStatu
   const after = row?.highWater ?? 0;
   let unexported = 0;
   let oldest: number | undefined;
+  let upperBound = false;
+  const counted = (count: number, first: number | undefined) => {
+    unexported += count;
+    if (first !== undefined && (oldest === undefined || first < oldest)) oldest = first;
+  };
   for (const kind of RECORD_KINDS) {
-    const range = (db.table(kind) as unknown as Table<RecordMeta, string>).where('localSeq').above(after);
-    unexported += await range.count();
-    const first = await range.first();
-    if (first?.localSeq !== undefined && (oldest === undefined || first.localSeq < oldest))
-      oldest = first.localSeq;
+    if (kind === 'studies') {
+      const studies = await unsentStudies(db, after);
+      counted(studies.count, studies.oldest);
+      upperBound = studies.upperBound;
+      continue;
+    }
+    const range = plainTableOf(db, kind).where('localSeq').above(after);
+    counted(await range.count(), (await range.first())?.localSeq);
   }
   return {
     lastExportAt: row?.at,
     unexported,
+    upperBound,
     oldestUnexportedAt:
       oldest === undefined ? undefined : new Date(Math.min(oldest, Date.now())).toISOString()
   };

@@ -9,6 +9,7 @@ import {
 } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
 import { RecordNotFoundError } from './record-repository';
+import { putOfKind, plainTableOf, tablesOfKinds } from './records-of-kind';
 import { recordsUnder } from './records-under';
 
 /**
@@ -33,11 +34,10 @@ const LABEL: Record<ParentKind, string> = {
   characteristics: 'Characteristic'
 };
 
-const table = (db: CapstanDatabase, kind: RecordKind) =>
-  db.table(kind) as unknown as Table<RecordMeta, string>;
+const table = (db: CapstanDatabase, kind: ParentKind) => plainTableOf(db, kind);
 
 export function cascadeTables(db: CapstanDatabase): Table[] {
-  return (['sites', 'processes', 'characteristics', 'studies', 'projects'] as const).map((k) => db.table(k));
+  return tablesOfKinds(db, ['sites', 'processes', 'characteristics', 'studies', 'projects']);
 }
 
 /** Every record under a parent (live or not), parents before children. Runs inside the caller's transaction. */
@@ -52,7 +52,7 @@ async function descendants(
     const next: { kind: RecordKind; ids: string[] }[] = [];
     for (const { kind: parentKind, ids } of frontier) {
       for (const childKind of CHILD_KINDS[parentKind] ?? []) {
-        const rows = await recordsUnder(db, childKind, ids).toArray();
+        const rows = await recordsUnder(db, childKind, ids);
         for (const r of rows) out.push({ kind: childKind, record: r });
         if (rows.length > 0) next.push({ kind: childKind, ids: rows.map((r) => r.id) });
       }
@@ -101,7 +101,7 @@ export async function removeWithContents(
       list.push(stampDeleted(d.record, fixed));
       writes.set(d.kind, list);
     }
-    for (const [k, rows] of writes) await table(db, k).bulkPut(rows);
+    for (const [k, rows] of writes) await putOfKind(db, k, rows);
     await table(db, kind).put(tombstone);
     return { kind, record: tombstone, deletedAt: tombstone.deletedAt!, counts };
   });
@@ -120,6 +120,6 @@ export async function undoRemoval(db: CapstanDatabase, ctx: WriteContext, remova
       list.push(stampRestored(d.record, ctx));
       writes.set(d.kind, list);
     }
-    for (const [k, rows] of writes) await table(db, k).bulkPut(rows);
+    for (const [k, rows] of writes) await putOfKind(db, k, rows);
   });
 }

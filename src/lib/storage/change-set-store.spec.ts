@@ -163,12 +163,11 @@ function septemberOf(chars: readonly { id: string }[]) {
 }
 
 describe('a file of many months', () => {
-  // More months than one query of the snapshot reads (MONTH_KEYS_PER_QUERY): the last ones must clash too. Two
-  // ways of reading: a file that logs most of the studies held here has the table read whole (a device's file
-  // received again); one logging fewer — here the device also holds 40 earlier months — asks month by month.
+  // 4 400 months in one file, every one of them shared with this device: the file logging all the studies held
+  // here (a device's file received again), or fewer of them (the device also holds 40 earlier months).
   it.each([
-    ['the table read whole', 0],
-    ['asked month by month', 40]
+    ['every study held here', 0],
+    ['half of the studies held here', 40]
   ])(
     'finds every month it shares with this device, however many the file logs (%s)',
     async (_way, earlier) => {
@@ -198,7 +197,7 @@ describe('a file of many months', () => {
       const plan = await s.exchange.preview(records(studiesBy(at('lead-device'), earlier)));
       const clashes = plan.conflicts.filter((c) => c.type === 'same-month');
       expect(clashes).toHaveLength(characteristics * months);
-      // And the file of this device's own studies is all unchanged, whichever way it is read.
+      // And the file of this device's own studies is all unchanged.
       const again = await s.exchange.preview(records(held.slice(0, characteristics * months)));
       expect(again.counts).toMatchObject({ new: 0, updated: 0, conflict: 0 });
     },
@@ -259,7 +258,7 @@ describe('a long merge', () => {
     const plan = await s.exchange.preview(fileOf(line, septemberOf(line.chars)));
     const db = databaseOf(s);
     let created = 0;
-    db.studies.hook('creating', () => {
+    db.studyShelves.hook('creating', () => {
       created += 1;
       if (created === 550) throw new Error('the disk is full');
     });
@@ -267,7 +266,7 @@ describe('a long merge', () => {
       s.exchange.apply(plan, {}, { deviceId: 'office-device', name: 'office', at: '2026-10-01T00:00:00Z' })
     ).rejects.toThrow();
     expect(created).toBeGreaterThanOrEqual(550);
-    for (const table of [db.sites, db.processes, db.characteristics, db.studies])
+    for (const table of [db.sites, db.processes, db.characteristics, db.studyShelves])
       expect(await table.count()).toBe(0);
   }, 60_000);
 

@@ -34,7 +34,10 @@ import { studyMonthKey } from '../domain/study-month';
 import type { CapstanDatabase, StudyRevision } from './database';
 import { LAST_EXPORT_KEY } from './backup-status';
 import { saveClock } from './device-identity';
+import { partsOf, writePipelined } from './pipelined-write';
+import { allOfKind, changedSince, plainTableOf, tablesOfKinds } from './records-of-kind';
 import { recordsUnder } from './records-under';
+import { putStudies, studiesAmong, studiesUnder } from './study-shelves';
 import { runInSlices } from './sliced-run';
 import { pauseEvery, type Steps } from '../domain/work-steps';
 
@@ -68,7 +71,6 @@ const CHECKPOINT_MARGIN_MS = 60_000;
 const PEER_PREFIX = 'peer:';
 
 type AnyTable = Table<RecordMeta, string>;
-const tableOf = (db: CapstanDatabase, kind: RecordKind) => db.table(kind) as unknown as AnyTable;
 
 export interface CollectedChanges {
   records: RecordsByKind;
@@ -80,32 +82,29 @@ export interface CollectedChanges {
 
 /** Reads what a scope covers, tombstones included, each kind in id order (canonical: same data, same bytes). */
 export async function collectChanges(db: CapstanDatabase, scope: ExportScope): Promise<CollectedChanges> {
-  const tables = RECORD_KINDS.map((k) => tableOf(db, k));
+  const tables = tablesOfKinds(db, RECORD_KINDS);
   return db.transaction('r', [...tables, db.deviceSettings], async () => {
     const records = emptyRecords() as unknown as Record<RecordKind, RecordMeta[]>;
     let since: number | undefined;
     if (scope.kind === 'everything' || scope.kind === 'changes') {
       if (scope.kind === 'changes') since = (await loadPeer(db, scope.peerId))?.sentThrough;
-      for (const kind of RECORD_KINDS) {
-        const t = tableOf(db, kind);
-        records[kind] =
-          since === undefined ? await t.toArray() : await t.where('localSeq').above(since).toArray();
-      }
+      for (const kind of RECORD_KINDS)
+        records[kind] = since === undefined ? await allOfKind(db, kind) : await changedSince(db, kind, since);
     } else {
       const site = await db.sites.get(scope.siteId);
       if (!site) throw new Error(`Site ${scope.siteId} does not exist on this device`);
-      const processes = await recordsUnder(db, 'processes', [site.id]).toArray();
+      const processes = await recordsUnder(db, 'processes', [site.id]);
       const processIds = processes.map((p) => p.id);
-      const characteristics = await recordsUnder(db, 'characteristics', processIds).toArray();
+      const characteristics = await recordsUnder(db, 'characteristics', processIds);
       records.sites = [site];
       records.processes = processes;
       records.characteristics = characteristics;
-      records.studies = await recordsUnder(
+      records.studies = (await recordsUnder(
         db,
         'studies',
         characteristics.map((c) => c.id)
-      ).toArray();
-      records.projects = await recordsUnder(db, 'projects', processIds).toArray();
+      )) as Study[];
+      records.projects = (await recordsUnder(db, 'projects', processIds)) as RecordsByKind['projects'];
       // Targets travel with every site file: the site judges its processes against the same profiles.
       records.contextProfiles = await db.contextProfiles.toArray();
     }
@@ -180,7 +179,7 @@ const PARENT_KINDS: RecordKind[] = ['sites', 'processes', 'characteristics'];
 const WRITE_SLICE = 250;
 
 /**
- * The records of one table whose ids are among `ids`. A whole file's ids looked up one by one in every table
+ * The records of one table whose ids are among `ids` (studies: studiesAmong, study-shelves.ts). A whole file's ids looked up one by one in every table
  * cost half a million reads for a company's portfolio (tens of seconds); instead the table's keys are read in
  * one request and only those among `ids` fetched. Given a set (the preview: every id of the file, tested in each
  * of seven tables), the table's keys are tested against it — the file's 760 000 ids tested against each table held
@@ -189,12 +188,12 @@ const WRITE_SLICE = 250;
  */
 async function storedAmong(
   db: CapstanDatabase,
-  kind: RecordKind,
+  kind: Exclude<RecordKind, 'studies'>,
   ids: ReadonlySet<string> | readonly string[]
 ): Promise<RecordMeta[]> {
   const count = 'size' in ids ? ids.size : ids.length;
   if (count === 0) return [];
-  const table = tableOf(db, kind);
+  const table = plainTableOf(db, kind);
   let present: string[];
   if (count < 64) present = [...ids];
   else {
@@ -246,9 +245,6 @@ async function getInParts(table: AnyTable, keys: readonly string[]): Promise<(Re
   return out;
 }
 
-/** Month keys per query of snapshotFor: a few milliseconds of sorting each. */
-const MONTH_KEYS_PER_QUERY = 4000;
-
 /**
  * Reads the part of this device's records a merge of `records` touches: the local version of every record in
  * the change set, the ancestors of each, the studies of every month the change set logs, and every descendant
@@ -265,19 +261,16 @@ async function snapshotFor(
   const add = (kind: RecordKind, rows: (RecordMeta | undefined)[]) => {
     for (const r of rows) if (r) index.set(kind, r);
   };
-  // A file that logs more studies than half of those this device holds (a device's whole file received again, as
-  // folder sync does) has the studies table read once, in one request, for both of the lookups below: asked key by key and
-  // month by month, a 2 000-process file already held here took 7–9 s to compare.
-  const heldStudies = await db.studies.count();
-  const allStudies =
-    heldStudies >= 64 && records.studies.length * 2 > heldStudies ? await db.studies.toArray() : undefined;
+  // The studies of every characteristic the file logs, read once for both of the lookups below: the local
+  // version of each of the file's studies, and the studies of each month it logs. A study is found by its
+  // characteristic (study-shelves.ts): an id the file names as a study on another characteristic than here is
+  // not found (a study never moves; the app cannot write one that does).
+  const shelved = await studiesUnder(db, [...new Set(records.studies.map((s) => s.characteristicId))]);
   // Ids the file names, and ids used as another kind here (refused by the plan).
   for (const kind of RECORD_KINDS)
     add(
       kind,
-      kind === 'studies' && allStudies
-        ? allStudies.filter((r) => fileIds.has(r.id))
-        : await storedAmong(db, kind, fileIds)
+      kind === 'studies' ? shelved.filter((r) => fileIds.has(r.id)) : await storedAmong(db, kind, fileIds)
     );
   // Ancestors of everything in the file, up to the site.
   for (const kind of ['studies', 'projects', 'characteristics', 'processes'] as RecordKind[]) {
@@ -288,25 +281,17 @@ async function snapshotFor(
       if (k === kind) wanted.add(parentIdOf(kind, record)!);
     // An id the file names and no table here holds (storedAmong asked every table) is not asked for again.
     const missing = [...wanted].filter((id) => !have(id) && !fileIds.has(id));
-    add(parent.kind, await getInParts(tableOf(db, parent.kind), missing));
+    add(
+      parent.kind,
+      await getInParts(plainTableOf(db, parent.kind as Exclude<RecordKind, 'studies'>), missing)
+    );
   }
   // Studies of every month the file logs.
-  if (allStudies) {
-    const months = new Set(records.studies.map(studyMonthKey));
-    add(
-      'studies',
-      allStudies.filter((r) => !have(r.id) && months.has(studyMonthKey(r)))
-    );
-  } else {
-    // A part of the file at a time: Dexie sorts the keys of a query before it reads, and the 72 000 month keys of a
-    // company's file sorted at once held the page for a tenth of a second.
-    for (let i = 0; i < records.studies.length; i += MONTH_KEYS_PER_QUERY) {
-      const months = records.studies
-        .slice(i, i + MONTH_KEYS_PER_QUERY)
-        .map((s) => [s.characteristicId, s.period]);
-      add('studies', await db.studies.where('[characteristicId+period]').anyOf(months).toArray());
-    }
-  }
+  const months = new Set(records.studies.map(studyMonthKey));
+  add(
+    'studies',
+    shelved.filter((r) => !have(r.id) && months.has(studyMonthKey(r)))
+  );
   // Families: descendants of every parent deleted on either side.
   const incomingById = new Map<string, RecordMeta>();
   for (const kind of PARENT_KINDS) for (const r of records[kind] as RecordMeta[]) incomingById.set(r.id, r);
@@ -329,7 +314,7 @@ async function snapshotFor(
         db,
         childKind,
         ids.map((f) => f.id)
-      ).toArray();
+      );
       add(childKind, rows);
       if (CHILD_KINDS[childKind]) for (const r of rows) next.push({ kind: childKind, id: r.id });
     }
@@ -343,7 +328,7 @@ async function snapshotFor(
  * an id that this device holds as a different kind of record.
  */
 export async function previewChangeSet(db: CapstanDatabase, records: RecordsByKind): Promise<ReceivePlan> {
-  const tables = RECORD_KINDS.map((k) => tableOf(db, k));
+  const tables = tablesOfKinds(db, RECORD_KINDS);
   // Gathered before the read transaction: it may pause only while a request of its own is pending.
   const fileIds = await runInSlices(idsOfSteps(records));
   // An async scope, as every transaction's: Dexie keeps a transaction's zone across native awaits only from an
@@ -386,31 +371,29 @@ export async function applyChangeSet(
     if (error instanceof MergeRefused) throw new ChangeSetRefused(error.message);
     throw error;
   }
-  const tables = RECORD_KINDS.map((k) => tableOf(db, k));
+  const tables = tablesOfKinds(db, RECORD_KINDS);
   return db.transaction('rw', [...tables, db.deviceSettings, db.studyRevisions], async () => {
     let written = 0;
-    const settled = async (slice: { done: Promise<unknown>; count: number }) => {
-      await slice.done;
-      written += slice.count;
+    const progress = (count: number) => {
+      written += count;
       onWritten?.(written, writes.length);
     };
     for (const kind of RECORD_KINDS) {
       const mine = writes.filter((w) => w.kind === kind);
       if (mine.length === 0) continue;
-      const table = tableOf(db, kind);
-      const stored = new Map(
-        (
-          await storedAmong(
-            db,
-            kind,
-            mine.map((w) => w.record.id)
-          )
-        ).map((r) => [r.id, r])
-      );
-      const now = mine.map((w) => stored.get(w.record.id));
+      const ids = mine.map((w) => w.record.id);
+      const held =
+        kind === 'studies'
+          ? await studiesAmong(
+              db,
+              [...new Set(mine.map((w) => (w.record as Study).characteristicId))],
+              new Set(ids)
+            )
+          : await storedAmong(db, kind, ids);
+      const stored = new Map(held.map((r) => [r.id, r]));
       const revisions: StudyRevision[] = [];
-      mine.forEach((w, i) => {
-        const current = now[i];
+      for (const w of mine) {
+        const current = stored.get(w.record.id);
         const expected = plan.snapshot.record(w.record.id);
         const same =
           current === undefined
@@ -431,22 +414,13 @@ export async function applyChangeSet(
             study: current as Study
           });
         }
-      });
-      // In slices: the transaction stays open while requests are pending, and between slices the page gets its
-      // thread back (one bulkPut of 70 000 records was a single task of seconds). Two slices in flight: the next
-      // is handed to IndexedDB before the last is awaited, so the page prepares one slice (serialising every
-      // record is the page's share of a write) while the database writes the other. Awaited one at a time, each
-      // waited for the other: a 72 000-study merge was idle for 40 % of its time.
-      let inFlight: { done: Promise<unknown>; count: number } | undefined;
-      for (let from = 0; from < mine.length; from += WRITE_SLICE) {
-        const slice = mine.slice(from, from + WRITE_SLICE);
-        const next = { done: table.bulkPut(slice.map((w) => w.record)), count: slice.length };
-        // Its failure is met when it is awaited (next round, or after the loop); until then it is not unhandled.
-        next.done.catch(() => undefined);
-        if (inFlight) await settled(inFlight);
-        inFlight = next;
       }
-      if (inFlight) await settled(inFlight);
+      const records = mine.map((w) => w.record);
+      if (kind === 'studies') await putStudies(db, records as Study[], progress);
+      else {
+        const table = plainTableOf(db, kind);
+        await writePipelined(partsOf(records, WRITE_SLICE), (rows) => table.bulkPut(rows), progress);
+      }
       if (revisions.length > 0) await db.studyRevisions.bulkAdd(revisions);
     }
     clock.observe(plan.latestStamp);

@@ -7,9 +7,10 @@ import type { Process } from '../domain/process';
 import type { QuarterReviewRecord } from '../domain/quarter-review-record';
 import type { Site } from '../domain/site';
 import type { Study } from '../domain/study';
-import { RECORD_KINDS } from '../domain/record-kinds';
 import { LocalSequence, localSequenceMiddleware } from './local-sequence';
+import { RECORD_TABLES } from './record-tables';
 import { declareSchemaVersions } from './schema-versions';
+import type { StudyShelf } from './study-shelf';
 
 /** Settings that belong to this device only and never travel in an export. */
 export interface DeviceSetting {
@@ -117,7 +118,8 @@ export class CapstanDatabase extends Dexie {
   sites!: Table<Site, string>;
   processes!: Table<Process, string>;
   characteristics!: Table<Characteristic, string>;
-  studies!: Table<Study, string>;
+  /** Studies, one record per characteristic (study-shelf.ts); read and written through study-shelves.ts. */
+  studyShelves!: Table<StudyShelf, string>;
   projects!: Table<ImprovementProject, string>;
   deviceSettings!: Table<DeviceSetting, string>;
   entryDrafts!: Table<EntryDraft, string>;
@@ -135,14 +137,10 @@ export class CapstanDatabase extends Dexie {
     declareSchemaVersions(this);
     this.use(localSequenceMiddleware(this.sequence));
     this.on('ready', async () => {
-      for (const kind of RECORD_KINDS) {
-        const last = (await this.table(kind).orderBy('localSeq').last()) as { localSeq?: number } | undefined;
-        this.sequence.startAbove(last?.localSeq ?? 0);
+      for (const name of RECORD_TABLES) {
+        const last = (await this.table(name).orderBy('localSeq').lastKey()) as number | undefined;
+        this.sequence.startAbove(last ?? 0);
       }
     });
   }
 }
-
-/** Names of the tables that hold synchronised records (not device settings). */
-export const RECORD_TABLES = ['sites', 'processes', 'characteristics', 'studies', 'projects'] as const;
-export type RecordTableName = (typeof RECORD_TABLES)[number];

@@ -6,6 +6,7 @@ import { DEMO_SITE_IDS } from '../domain/demo-portfolio';
 import { isDemoPresent, isPortfolioEmpty, loadDemoPortfolio } from './demo-portfolio-loader';
 import { listProcessOverviews, summariseDatabase } from './portfolio-overview';
 import { openStorage, databaseOf } from './storage';
+import { allStudies } from './study-shelves';
 
 describe('demo portfolio loading', () => {
   it('loads every record into an empty database and refuses a second load', async () => {
@@ -55,7 +56,7 @@ describe('demo portfolio loading', () => {
     expect((await storage.sites.list()).map((s) => s.name)).toEqual(['Own Plant']);
     expect((await storage.processes.list()).map((p) => p.id)).toEqual([process.id]);
     // No orphan: every demo study is a tombstone now.
-    const live = (await databaseOf(storage).studies.toArray()).filter((s) => !s.deletedAt);
+    const live = (await allStudies(databaseOf(storage))).filter((s) => !s.deletedAt);
     expect(live).toHaveLength(0);
     // Once removed, it stays removed here (same ids; a reload would undo the removal on this device only).
     await expect(storage.loadDemo(demo)).rejects.toThrow(/was removed/);

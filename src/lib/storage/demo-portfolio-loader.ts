@@ -3,6 +3,7 @@ import type { RecordKind } from '../domain/record-kinds';
 import { isLive, type WriteContext } from '../domain/record-meta';
 import { cascadeTables, removeWithContents } from './cascade-removal';
 import type { CapstanDatabase } from './database';
+import { putStudies } from './study-shelves';
 
 export interface DemoLoadResult {
   sites: number;
@@ -14,11 +15,11 @@ export interface DemoLoadResult {
 
 /** True when the database holds no live record in any synchronised table. */
 export async function isPortfolioEmpty(db: CapstanDatabase): Promise<boolean> {
-  for (const table of [db.sites, db.processes, db.characteristics, db.studies, db.projects]) {
+  for (const table of [db.sites, db.processes, db.characteristics, db.projects]) {
     const anyLive = await (table as typeof db.sites).filter(isLive).first();
     if (anyLive) return false;
   }
-  return true;
+  return !(await db.studyShelves.filter((shelf) => shelf.studies.some(isLive)).first());
 }
 
 /** True when a demo site is live here (loaded on this device or received in a file). */
@@ -43,7 +44,7 @@ export async function loadDemoPortfolio(
   const r = demo.records;
   await db.transaction(
     'rw',
-    [db.sites, db.processes, db.characteristics, db.studies, db.projects],
+    [db.sites, db.processes, db.characteristics, db.studyShelves, db.projects],
     async () => {
       const held = (await db.sites.bulkGet([...DEMO_SITE_IDS])).filter((s) => s !== undefined);
       if (held.some(isLive)) throw new Error('The demo portfolio is already loaded on this device');
@@ -54,7 +55,7 @@ export async function loadDemoPortfolio(
       await db.sites.bulkPut(r.sites);
       await db.processes.bulkPut(r.processes);
       await db.characteristics.bulkPut(r.characteristics);
-      await db.studies.bulkPut(r.studies);
+      await putStudies(db, r.studies);
       await db.projects.bulkPut(r.projects);
     }
   );

@@ -1,5 +1,6 @@
 import type { DBCore, DBCoreMutateRequest, Middleware } from 'dexie';
-import { RECORD_KINDS } from '../domain/record-kinds';
+import { RECORD_TABLES } from './record-tables';
+import { shelfOf, type StudyShelf } from './study-shelf';
 
 /**
  * This device's write sequence. Every add or put of a synchronised record — typed here, imported from a
@@ -27,9 +28,13 @@ export class LocalSequence {
   }
 }
 
-const SEQUENCED = new Set<string>(RECORD_KINDS);
+const SEQUENCED = new Set<string>(RECORD_TABLES);
 
-/** Dexie middleware that stamps `localSeq` on every add and put of a synchronised table. */
+/**
+ * Dexie middleware that stamps `localSeq` on every add and put of a synchronised table. On a study shelf it stamps
+ * the studies that have none (those written now: the shelf's writer leaves it off them, study-shelves.ts) and
+ * gives the shelf the highest of its studies'.
+ */
 export function localSequenceMiddleware(sequence: LocalSequence): Middleware<DBCore> {
   return {
     stack: 'dbcore',
@@ -45,7 +50,10 @@ export function localSequenceMiddleware(sequence: LocalSequence): Middleware<DBC
             mutate(req: DBCoreMutateRequest) {
               if (req.type !== 'add' && req.type !== 'put') return table.mutate(req);
               const seq = sequence.next();
-              const values = req.values.map((v: object) => ({ ...v, localSeq: seq }));
+              const values =
+                name === 'studyShelves'
+                  ? req.values.map((v: StudyShelf) => shelfOf(v.characteristicId, v.studies, seq))
+                  : req.values.map((v: object) => ({ ...v, localSeq: seq }));
               return table.mutate({ ...req, values });
             }
           };

@@ -11,14 +11,16 @@ import {
   SCHEMA_V5,
   SCHEMA_V6,
   SCHEMA_V7,
-  SCHEMA_V8
+  SCHEMA_V8,
+  SCHEMA_V9
 } from './schema-versions';
 import { recordsUnder } from './records-under';
+import { allStudies, countStudies, findStudy, studiesOf } from './study-shelves';
 
 /** A database as version `version` of the app shipped it: the schemas of that version and those before it. */
 function databaseAsShipped(name: string, version: number): Dexie {
   const db = new Dexie(name);
-  [SCHEMA_V1, SCHEMA_V2, SCHEMA_V3, SCHEMA_V4, SCHEMA_V5, SCHEMA_V6, SCHEMA_V7, SCHEMA_V8]
+  [SCHEMA_V1, SCHEMA_V2, SCHEMA_V3, SCHEMA_V4, SCHEMA_V5, SCHEMA_V6, SCHEMA_V7, SCHEMA_V8, SCHEMA_V9]
     .slice(0, version)
     .forEach((schema, i) => db.version(i + 1).stores(schema));
   return db;
@@ -130,13 +132,10 @@ describe('schema upgrade v1 → v2', () => {
     expect(await current.processes.toArray()).toMatchObject([process]);
     const upgraded = await current.characteristics.orderBy('id').toArray();
     expect(upgraded).toMatchObject(characteristics.map((c) => ({ ...c, riskClass: 'standard' })));
-    expect(await current.studies.count()).toBe(31);
-    expect(await current.studies.get(tombstone.id)).toMatchObject(tombstone);
-    // The new compound index answers.
-    const march = await current.studies
-      .where('[characteristicId+period]')
-      .equals([characteristics[0]!.id, '2024-03'])
-      .toArray();
+    expect(await countStudies(current)).toBe(31);
+    expect(await findStudy(current, tombstone.id)).toMatchObject(tombstone);
+    // A characteristic's month is found (by v2's compound index then, on its shelf since v10).
+    const march = (await studiesOf(current, characteristics[0]!.id)).filter((s) => s.period === '2024-03');
     expect(march.map((s) => s.id).sort()).toEqual([studies[2]!.id, studies[14]!.id, studies[26]!.id].sort());
     expect((await current.deviceSettings.get('deviceId'))?.value).toBe('dev-v1');
     current.close();
@@ -167,7 +166,7 @@ describe('schema upgrade v2 → v3', () => {
     const current = new CapstanDatabase(name);
     await current.open();
     expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
-    expect(await current.studies.toArray()).toMatchObject([study]);
+    expect(await allStudies(current)).toMatchObject([study]);
     expect(await current.entryDrafts.count()).toBe(0);
     await current.studyRevisions.add({
       id: 'r1',
@@ -293,8 +292,8 @@ describe('schema upgrade v6 → v7', () => {
     const current = new CapstanDatabase(name);
     await current.open();
     expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
-    expect(await current.studies.count()).toBe(3);
-    for (const r of rows) expect(await current.studies.get(r.id)).toEqual(r);
+    expect(await countStudies(current)).toBe(3);
+    for (const r of rows) expect(await findStudy(current, r.id)).toEqual(r);
     expect(await current.monthClashes.toArray()).toEqual([
       {
         key: '11111111-1111-4111-8111-111111111111|2026-02',
@@ -307,8 +306,8 @@ describe('schema upgrade v6 → v7', () => {
   });
 });
 
-describe('schema upgrade v8 → v9', () => {
-  it('drops two study indexes, keeps every study, and still finds the studies of each characteristic', async () => {
+describe('schema upgrade v8 → v9 (and on to shelves)', () => {
+  it('keeps every study, and still finds the studies of each characteristic', async () => {
     const name = 'capstan-migration-v9';
     const v8 = databaseAsShipped(name, 8);
     await v8.open();
@@ -327,15 +326,55 @@ describe('schema upgrade v8 → v9', () => {
     const current = new CapstanDatabase(name);
     await current.open();
     expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
-    const indexes = current.studies.schema.indexes.map((i) => i.name).sort();
-    expect(indexes).toEqual(['[characteristicId+period]', 'localSeq', 'period']);
-    for (const r of rows) expect(await current.studies.get(r.id)).toEqual(r);
+    for (const r of rows) expect(await findStudy(current, r.id)).toEqual(r);
     const idsUnder = async (parents: string[]) =>
-      (await recordsUnder(current, 'studies', parents).toArray()).map((r) => r.id).sort();
+      (await recordsUnder(current, 'studies', parents)).map((r) => r.id).sort();
     expect(await idsUnder(['c1'])).toEqual(['s1', 's2']);
     expect(await idsUnder(['c10', 'c2'])).toEqual(['s3', 's4']);
     expect(await idsUnder(['c9'])).toEqual([]);
     expect(await idsUnder([])).toEqual([]);
+    current.close();
+    await Dexie.delete(name);
+  });
+});
+
+describe('schema upgrade v9 → v10 and v11 (studies onto shelves)', () => {
+  it('puts every study on the shelf of its characteristic as it was, drops the studies table and the stored read model', async () => {
+    const name = 'capstan-migration-v10';
+    const v9 = databaseAsShipped(name, 9);
+    await v9.open();
+    const study = (
+      id: string,
+      characteristicId: string,
+      period: string,
+      localSeq: number,
+      deletedAt?: string
+    ) => ({
+      ...storedStudy({ id, characteristicId, period, deletedAt }),
+      localSeq
+    });
+    const rows = [
+      study('s3', 'c1', '2026-02', 30),
+      study('s1', 'c1', '2026-01', 50),
+      study('s2', 'c1', '2026-01', 20, '2026-03-05T00:00:00.000Z'),
+      study('s4', 'c2', '2025-06', 40)
+    ];
+    await v9.table('studies').bulkAdd(rows);
+    await v9.table('readModels').put({ key: 'monthly-statistics', format: 3 });
+    v9.close();
+    const current = new CapstanDatabase(name);
+    await current.open();
+    expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
+    expect(current.tables.map((t) => t.name)).not.toContain('studies');
+    const shelves = await current.studyShelves.toArray();
+    // Each shelf in month order then by id, with its size and the highest write sequence of its studies.
+    expect(shelves).toEqual([
+      { characteristicId: 'c1', studies: [rows[1], rows[2], rows[0]], localSeq: 50, size: 3 },
+      { characteristicId: 'c2', studies: [rows[3]], localSeq: 40, size: 1 }
+    ]);
+    expect(await current.readModels.count()).toBe(0);
+    // The write sequence goes on above the highest value a study carried.
+    expect(current.sequence.latest).toBeGreaterThanOrEqual(50);
     current.close();
     await Dexie.delete(name);
   });

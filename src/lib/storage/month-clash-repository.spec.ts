@@ -2,6 +2,7 @@ import 'fake-indexeddb/auto';
 import { afterEach, describe, expect, it } from 'vitest';
 import { stampNew } from '../domain/record-meta';
 import { openStorage, type CapstanStorage, databaseOf } from './storage';
+import { findStudy, putStudies } from './study-shelves';
 
 let storage: CapstanStorage | undefined;
 afterEach(async () => {
@@ -57,7 +58,7 @@ async function withPendingMonth() {
     },
     ctx('office')
   );
-  await databaseOf(storage).studies.bulkAdd([a, b]);
+  await putStudies(databaseOf(storage), [a, b]);
   await databaseOf(storage).monthClashes.add({
     key: `${ch.id}|2026-02`,
     studyIds: [a.id, b.id].sort(),
@@ -82,7 +83,7 @@ describe('months logged twice before v7', () => {
     await s.monthClashes.settle((await s.monthClashes.list())[0]!.key, { keep: b.id });
     expect(await s.studies.get(b.id)).toBeDefined();
     expect(await s.studies.get(a.id)).toBeUndefined();
-    expect((await databaseOf(s).studies.get(a.id))!.deletedAt).toBeDefined();
+    expect((await findStudy(databaseOf(s), a.id))!.deletedAt).toBeDefined();
     expect(await s.monthClashes.list()).toHaveLength(0);
   });
 

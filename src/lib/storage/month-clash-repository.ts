@@ -3,7 +3,9 @@ import { combineStudyData } from '../domain/combine-study-data';
 import type { Process } from '../domain/process';
 import { isLive, stampDeleted, stampUpdate, type Editable, type WriteContext } from '../domain/record-meta';
 import type { Study } from '../domain/study';
-import type { CapstanDatabase } from './database';
+import { characteristicOfMonthKey } from '../domain/study-month';
+import type { CapstanDatabase, MonthClash } from './database';
+import { putStudies, studiesOf } from './study-shelves';
 
 /** A pending month with two or more live studies (from before schema v7), with what a person needs to choose. */
 export interface PendingMonth {
@@ -22,6 +24,12 @@ export type MonthSettlement = { keep: string } | { combine: true };
  * lowest id (so two devices that combine the same pair agree). A month already settled elsewhere (a file
  * brought the deletion) drops out by itself.
  */
+/** The live studies among a clash's, found on the shelf of the characteristic its key names. */
+async function liveStudiesOf(d: CapstanDatabase, row: MonthClash): Promise<Study[]> {
+  const ids = new Set(row.studyIds);
+  return (await studiesOf(d, characteristicOfMonthKey(row.key))).filter((s) => ids.has(s.id) && isLive(s));
+}
+
 export class MonthClashRepository {
   constructor(
     private readonly db: CapstanDatabase,
@@ -31,12 +39,10 @@ export class MonthClashRepository {
   async list(): Promise<PendingMonth[]> {
     const d = this.db;
     // Read-only (it runs inside live queries): rows already settled elsewhere are skipped, and removed by `settle`.
-    return d.transaction('r', [d.monthClashes, d.studies, d.characteristics, d.processes], async () => {
+    return d.transaction('r', [d.monthClashes, d.studyShelves, d.characteristics, d.processes], async () => {
       const out: PendingMonth[] = [];
       for (const row of await d.monthClashes.toArray()) {
-        const studies = (await d.studies.bulkGet(row.studyIds)).filter(
-          (s): s is Study => s !== undefined && isLive(s)
-        );
+        const studies = await liveStudiesOf(d, row);
         if (studies.length < 2) continue;
         const characteristic = await d.characteristics.get(studies[0]!.characteristicId);
         const process = characteristic ? await d.processes.get(characteristic.processId) : undefined;
@@ -54,12 +60,10 @@ export class MonthClashRepository {
 
   async settle(key: string, choice: MonthSettlement): Promise<void> {
     const d = this.db;
-    await d.transaction('rw', [d.monthClashes, d.studies, d.studyRevisions], async () => {
+    await d.transaction('rw', [d.monthClashes, d.studyShelves, d.studyRevisions], async () => {
       const row = await d.monthClashes.get(key);
       if (!row) return;
-      const studies = (await d.studies.bulkGet(row.studyIds))
-        .filter((s): s is Study => s !== undefined && isLive(s))
-        .sort((a, b) => (a.id < b.id ? -1 : 1));
+      const studies = (await liveStudiesOf(d, row)).sort((a, b) => (a.id < b.id ? -1 : 1));
       if (studies.length >= 2) {
         const keeper = 'keep' in choice ? studies.find((s) => s.id === choice.keep) : studies[0];
         if (!keeper)
@@ -86,7 +90,7 @@ export class MonthClashRepository {
             study: keeper
           });
         }
-        await d.studies.bulkPut(writes);
+        await putStudies(d, writes);
       }
       await d.monthClashes.delete(key);
     });

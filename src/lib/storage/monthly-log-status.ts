@@ -3,6 +3,7 @@ import type { Process } from '../domain/process';
 import { isLive } from '../domain/record-meta';
 import type { Study } from '../domain/study';
 import type { CapstanDatabase } from './database';
+import { studiesUnder } from './study-shelves';
 
 /** One characteristic's state for one month at one site. */
 export interface LogStatusRow {
@@ -31,7 +32,12 @@ export async function loadMonthlyLogStatus(
       .anyOf(processes.map((p) => p.id))
       .toArray()
   ).filter(isLive);
-  const studies = (await db.studies.where('period').equals(period).toArray()).filter(isLive);
+  const studies = (
+    await studiesUnder(
+      db,
+      characteristics.map((c) => c.id)
+    )
+  ).filter((s) => s.period === period && isLive(s));
   const studyByCharacteristic = new Map(studies.map((s) => [s.characteristicId, s]));
   const processById = new Map(processes.map((p) => [p.id, p]));
   const rows: LogStatusRow[] = characteristics.map((characteristic) => ({

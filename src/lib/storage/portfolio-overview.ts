@@ -2,10 +2,12 @@ import { onePerMonth } from '../domain/study-month';
 import type { Characteristic } from '../domain/characteristic';
 import type { ImprovementProject } from '../domain/improvement-project';
 import type { Process } from '../domain/process';
-import { isLive } from '../domain/record-meta';
+import { isLive, type RecordMeta } from '../domain/record-meta';
+import type { Table } from 'dexie';
 import type { Site } from '../domain/site';
 import type { Study } from '../domain/study';
 import type { CapstanDatabase } from './database';
+import { allStudies, countStudies, eachStudy, studiesOf } from './study-shelves';
 
 /** One process as the portfolio lists it before capability figures exist for it. */
 export interface ProcessOverview {
@@ -29,7 +31,7 @@ export interface StudyIndexEntry {
 
 async function liveStudyIndex(db: CapstanDatabase): Promise<StudyIndexEntry[]> {
   const out: StudyIndexEntry[] = [];
-  await db.studies.each((s) => {
+  await eachStudy(db, (s) => {
     if (isLive(s))
       out.push({ id: s.id, characteristicId: s.characteristicId, period: s.period, kind: s.data.kind });
   });
@@ -103,12 +105,7 @@ export async function loadProcessDetail(
   const withStudies = await Promise.all(
     characteristics.map(async (characteristic) => ({
       characteristic,
-      studies: onePerMonth(
-        await db.studies
-          .where('[characteristicId+period]')
-          .between([characteristic.id, ''], [characteristic.id, '\uffff'])
-          .toArray()
-      )
+      studies: onePerMonth(await studiesOf(db, characteristic.id))
     }))
   );
   const projects = (await db.projects.where('processId').equals(processId).toArray()).filter(isLive);
@@ -124,18 +121,22 @@ export interface DatabaseSummary {
 export async function summariseDatabase(db: CapstanDatabase): Promise<DatabaseSummary> {
   const tables: DatabaseSummary['tables'] = [];
   const devices = new Map<string, { records: number; lastWrite: string }>();
-  const named = [
-    ['Sites', db.sites],
-    ['Processes', db.processes],
-    ['Characteristics', db.characteristics],
-    ['Studies', db.studies],
-    ['Improvement projects', db.projects],
-    ['Context targets (edited)', db.contextProfiles]
-  ] as const;
-  for (const [name, table] of named) {
+  const eachOf =
+    (table: Table<RecordMeta, string>) =>
+    (visit: (r: RecordMeta) => void): Promise<void> =>
+      table.each(visit);
+  const named: [string, (visit: (r: RecordMeta) => void) => Promise<void>][] = [
+    ['Sites', eachOf(db.sites)],
+    ['Processes', eachOf(db.processes)],
+    ['Characteristics', eachOf(db.characteristics)],
+    ['Studies', (visit) => eachStudy(db, visit)],
+    ['Improvement projects', eachOf(db.projects)],
+    ['Context targets (edited)', eachOf(db.contextProfiles)]
+  ];
+  for (const [name, each] of named) {
     let live = 0;
     let tombstones = 0;
-    await (table as typeof db.sites).each((r) => {
+    await each((r) => {
       if (isLive(r)) live += 1;
       else tombstones += 1;
       const d = devices.get(r.deviceId) ?? { records: 0, lastWrite: '' };
@@ -159,7 +160,7 @@ export async function loadPortfolioRecords(db: CapstanDatabase) {
     db.sites.toArray(),
     db.processes.toArray(),
     db.characteristics.toArray(),
-    db.studies.toArray(),
+    allStudies(db),
     db.projects.toArray()
   ]);
   return {
@@ -181,9 +182,13 @@ export async function portfolioChangeMark(
   db: CapstanDatabase
 ): Promise<{ mark: string; storedSites: number; storedProcesses: number }> {
   const parts = await Promise.all(
-    [db.sites, db.processes, db.characteristics, db.studies, db.projects].map(async (table) => {
-      const t = table as typeof db.sites;
-      const [last, count] = await Promise.all([t.orderBy('localSeq').lastKey(), t.count()]);
+    [db.sites, db.processes, db.characteristics, db.studyShelves, db.projects].map(async (table) => {
+      const t = table as unknown as typeof db.sites;
+      // Studies are counted by the shelves' sizes: a study removed from its shelf changes no shelf count.
+      const [last, count] = await Promise.all([
+        t.orderBy('localSeq').lastKey(),
+        table === db.studyShelves ? countStudies(db) : t.count()
+      ]);
       return { last: String(last ?? 0), count };
     })
   );

@@ -10,7 +10,8 @@ import type { Study } from '../domain/study';
 import { loadDemoPortfolio } from './demo-portfolio-loader';
 import { loadPortfolioRecords } from './portfolio-overview';
 import { forgetReadModels, readPortfolio } from './portfolio-reader';
-import type { StoredReadModel } from './database';
+import type { CapstanDatabase, StoredReadModel } from './database';
+import { allStudies, putStudies } from './study-shelves';
 import { databaseOf, openStorage, type CapstanStorage } from './storage';
 
 /**
@@ -27,6 +28,29 @@ afterEach(async () => {
   }
   storage = undefined;
 });
+
+/** Takes a study off its shelf without a write the sequence shows (as no code of the app does). */
+async function removeOutright(db: CapstanDatabase, study: Study): Promise<void> {
+  const shelf = (await db.studyShelves.get(study.characteristicId))!;
+  await db.studyShelves.put({ ...shelf, studies: shelf.studies.filter((x) => x.id !== study.id) });
+}
+
+/** A kind's records read, written and removed outright, studies through their shelves. */
+function tableForTest(
+  db: CapstanDatabase,
+  kind: 'sites' | 'processes' | 'characteristics' | 'studies' | 'projects'
+) {
+  if (kind !== 'studies') return db[kind] as unknown as Table<RecordMeta & { name?: string }, string>;
+  return {
+    toArray: async () => allStudies(db) as Promise<(RecordMeta & { name?: string })[]>,
+    put: async (row: RecordMeta) => putStudies(db, [row as Study]),
+    delete: async (id: string) =>
+      removeOutright(
+        db,
+        (await allStudies(db)).find((x) => x.id === id)!
+      )
+  };
+}
 
 /** The ranking's figures, comparable across record sets (rows are new objects each time). */
 function figuresOf(records: PortfolioRecords) {
@@ -168,13 +192,13 @@ describe('portfolio reader', () => {
     expect((await readPortfolio(s.databaseName)).tablesRead).toBe(0);
   });
 
-  it('rebuilds when the studies table holds a row the sequence did not show', async () => {
+  it('rebuilds when the shelves hold fewer studies than the sequence showed (one taken off outright)', async () => {
     const s = await withDemo();
     await (await readPortfolio(s.databaseName)).persist();
     forgetReadModels();
     const db = databaseOf(s);
-    const victim = (await db.studies.toArray())[0]!;
-    await db.studies.delete(victim.id); // not a tombstone: no write the sequence can show
+    const victim = (await allStudies(db))[0]!;
+    await removeOutright(db, victim); // not a tombstone: no write the sequence can show
     const after = await readPortfolio(s.databaseName);
     expect(after.source).toBe('rebuilt');
     expect(figuresOf(after.records)).toEqual(figuresOf(await loadPortfolioRecords(db)));
@@ -184,16 +208,16 @@ describe('portfolio reader', () => {
     const s = await withDemo();
     await (await readPortfolio(s.databaseName)).persist();
     const db = databaseOf(s);
-    const shown = (await db.studies.toArray()).find(
-      (x) => x.period === '2026-10' && x.data.kind === 'summary'
-    )!;
+    const shown = (await allStudies(db)).find((x) => x.period === '2026-10' && x.data.kind === 'summary')!;
     const clock = `${String(Date.parse('2026-11-01T00:00:00Z')).padStart(13, '0')}-0000-${shown.deviceId}`;
-    await db.studies.put({
-      ...shown,
-      id: `${shown.id}-twin`,
-      clock,
-      data: { kind: 'summary', n: 40, mean: 0, sd: 1 }
-    });
+    await putStudies(db, [
+      {
+        ...shown,
+        id: `${shown.id}-twin`,
+        clock,
+        data: { kind: 'summary', n: 40, mean: 0, sd: 1 }
+      }
+    ]);
     await pause(300); // past the margin: the twin is read once, not again by the last visit below
     for (const fresh of [false, true]) {
       if (fresh) forgetReadModels();
@@ -287,8 +311,10 @@ describe('portfolio reader', () => {
   it('builds the model again when its stored ids are gone and a study must be applied', async () => {
     const { s, db } = await withStoredModel();
     await db.readModels.where(':id').startsWith('monthly-statistics-ids:').delete();
-    const study = (await db.studies.toArray()).find((x) => x.data.kind === 'summary')!;
-    await db.studies.put({ ...study, rev: study.rev + 1, data: { kind: 'summary', n: 30, mean: 0, sd: 1 } });
+    const study = (await allStudies(db)).find((x) => x.data.kind === 'summary')!;
+    await putStudies(db, [
+      { ...study, rev: study.rev + 1, data: { kind: 'summary', n: 30, mean: 0, sd: 1 } }
+    ]);
     const after = await readPortfolio(s.databaseName);
     expect(after.idsRead).toBe(true);
     expect(after.source).toBe('rebuilt');
@@ -340,7 +366,7 @@ describe('portfolio reader', () => {
             forgetReadModels(); // a new worker: the last read's database is closed with the old one
             last = undefined;
           } else if ('kind' in x) {
-            const table = db[x.kind] as unknown as Table<RecordMeta & { name?: string }, string>;
+            const table = tableForTest(db, x.kind);
             const rows = await table.toArray();
             const row = rows[x.pick % rows.length];
             if (!row) continue;

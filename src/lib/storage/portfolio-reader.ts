@@ -15,6 +15,7 @@ import {
   type StoredReadModel,
   type StoredReadModelIds
 } from './database';
+import { allStudies, countStudies, studiesAmong, studiesChangedSince, studiesInParts } from './study-shelves';
 
 /**
  * Read access to the portfolio for a background worker: the worker reads the records straight from IndexedDB,
@@ -27,8 +28,8 @@ import {
  * - on the first request, the stored model is read (one row) with the few studies it holds (raw values);
  * - then, and on every later request, only the studies written since the last read began (their `localSeq`,
  *   see SEQ_MARGIN_MS) are read and applied;
- * - the model is rebuilt from every study when there is none, when it asks for it, or when the studies table
- *   holds another number of rows than the model knows of (a row the sequence did not show);
+ * - the model is rebuilt from every study when there is none, when it asks for it, or when the shelves hold
+ *   another number of studies than the model knows of (a study the sequence did not show);
  * - the model is stored again after it changed (`persist`, called once the answer is on its way).
  *
  * The sites, processes, characteristics and projects are kept with the model in the same way (PortfolioTables):
@@ -125,11 +126,11 @@ export async function readPortfolio(databaseName: string): Promise<PortfolioRead
   }
   const read = await db.transaction(
     'r',
-    [db.sites, db.processes, db.characteristics, db.studies, db.projects],
+    [db.sites, db.processes, db.characteristics, db.studyShelves, db.projects],
     async () => {
       const tables = await tablesSince(db, feed.model ? feed.tables : undefined, feed.since);
-      const changed = feed.model ? await db.studies.where('localSeq').above(feed.since).toArray() : undefined;
-      const rows = await db.studies.count();
+      const changed = feed.model ? await studiesChangedSince(db, feed.since) : undefined;
+      const rows = await countStudies(db);
       return { tables, changed, rows };
     }
   );
@@ -279,30 +280,18 @@ function seqOfRecord(r: RecordMeta): number {
   return (r as RecordMeta & { localSeq?: number }).localSeq ?? 0;
 }
 
-/** Studies read per request when rebuilding: the worker never holds every study at once. */
-const REBUILD_PAGE = 20_000;
+/** Shelves read per request when rebuilding (some 20 000 studies): the worker never holds every study at once. */
+const REBUILD_SHELVES = 500;
 
-/** The model built from every study, read a page at a time by id in one transaction. */
+/** The model built from every study, read some shelves at a time in one transaction. */
 async function rebuildModel(db: CapstanDatabase): Promise<{ model: MonthlyStatistics }> {
-  return db.transaction('r', db.studies, async () => {
+  return db.transaction('r', db.studyShelves, async () => {
     const model = new MonthlyStatistics();
-    const pageAfter = (after: string | undefined) =>
-      (after === undefined ? db.studies.orderBy(':id') : db.studies.where(':id').above(after))
-        .limit(REBUILD_PAGE)
-        .toArray();
-    // The next page is asked for before this one is added: the database reads it meanwhile.
-    let next = pageAfter(undefined);
-    for (;;) {
-      const page = await next;
-      if (!page.length) break;
-      next = pageAfter(page[page.length - 1]!.id);
-      model.appendNew(page, seqOfRecord);
-    }
+    await studiesInParts(db, REBUILD_SHELVES, (studies) => model.appendNew(studies, seqOfRecord));
     if (!model.needsRebuild) return { model };
-    // Two live studies in one month across pages (a clash from before one-study-per-month): weigh them with
-    // every study at hand.
-    const studies = await db.studies.toArray();
-    return { model: MonthlyStatistics.fromStudies(studies, seqOfRecord) };
+    // Two live studies in one month (a clash from before one-study-per-month): weigh them with every study at
+    // hand.
+    return { model: MonthlyStatistics.fromStudies(await allStudies(db), seqOfRecord) };
   });
 }
 
@@ -328,10 +317,11 @@ async function restoreModel(
     snap.ids = await storedIds(db, stored.idsGeneration);
     if (!snap.ids) return undefined;
   }
-  const wanted = snap.heldIds.flatMap(([, ids]) => ids);
-  const held = await db.studies.bulkGet(wanted);
+  // A held study is on the shelf of its cell's row (its characteristic).
+  const wanted = new Set(snap.heldIds.flatMap(([, ids]) => ids));
+  const rowsHeld = new Set(snap.heldIds.map(([cell]) => snap.rowIds[Math.floor(cell / snap.span)]!));
   const byId = new Map<string, Study>();
-  for (const s of held) if (s && isLive(s)) byId.set(s.id, s);
+  for (const s of await studiesAmong(db, [...rowsHeld], wanted)) if (isLive(s)) byId.set(s.id, s);
   let restored: ReturnType<typeof MonthlyStatistics.fromSnapshot>;
   try {
     restored = MonthlyStatistics.fromSnapshot(snap, byId);

@@ -1,29 +1,24 @@
-import { Dexie, type Collection } from 'dexie';
 import { PARENT_OF, type RecordKind } from '../domain/record-kinds';
 import type { RecordMeta } from '../domain/record-meta';
 import type { CapstanDatabase } from './database';
+import { studiesUnder } from './study-shelves';
 
 /**
  * Every record of a kind (live or not) whose parent is one of `parentIds`: the one query by parent, so that the
- * index it uses is chosen in one place. Studies have no index of their characteristic alone (schema v9): the
- * compound `[characteristicId+period]` index answers it, each characteristic a range of its first part, from its
- * lowest month to its highest. Runs inside the caller's transaction, if any.
+ * way each kind is found is chosen in one place. Studies are the shelves of their characteristics
+ * (study-shelves.ts); the others are found by their parent's index. Runs inside the caller's transaction, if any.
  */
-export function recordsUnder(
+export async function recordsUnder(
   db: CapstanDatabase,
   kind: RecordKind,
   parentIds: readonly string[]
-): Collection<RecordMeta, string> {
+): Promise<RecordMeta[]> {
   const parent = PARENT_OF[kind];
   if (!parent) throw new Error(`${kind} records have no parent`);
-  const table = db.table<RecordMeta, string>(kind);
-  if (kind === 'studies')
-    return table.where('[characteristicId+period]').inAnyRange(
-      parentIds.map((id) => [
-        [id, Dexie.minKey],
-        [id, Dexie.maxKey]
-      ]),
-      { includeUppers: true }
-    );
-  return table.where(parent.field).anyOf([...parentIds]);
+  if (kind === 'studies') return studiesUnder(db, parentIds);
+  return db
+    .table<RecordMeta, string>(kind)
+    .where(parent.field)
+    .anyOf([...parentIds])
+    .toArray();
 }

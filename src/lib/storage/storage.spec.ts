@@ -2,6 +2,7 @@ import 'fake-indexeddb/auto';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { ValidationError } from '../domain/validation-error';
 import { openStorage, type CapstanStorage, databaseOf } from './storage';
+import { allStudies, findStudy } from './study-shelves';
 
 let storage: CapstanStorage;
 let dbName: string;
@@ -25,7 +26,7 @@ async function everything(s: CapstanStorage) {
     sites: await d.sites.toArray(),
     processes: await d.processes.toArray(),
     characteristics: await d.characteristics.toArray(),
-    studies: await d.studies.toArray(),
+    studies: await allStudies(d),
     projects: await d.projects.toArray()
   };
 }
@@ -202,7 +203,7 @@ describe('repositories', () => {
       });
       await storage.studies.remove(alone.id);
       const removal = await storage.sites.removeWithContents(site.id);
-      expect(removal.deletedAt).not.toBe((await databaseOf(storage).studies.get(alone.id))!.deletedAt);
+      expect(removal.deletedAt).not.toBe((await findStudy(databaseOf(storage), alone.id))!.deletedAt);
       await storage.sites.undoRemoval(removal);
       expect(await storage.studies.get(alone.id)).toBeUndefined();
     } finally {

@@ -3,6 +3,7 @@ import { combineStudyData } from '../domain/combine-study-data';
 import { futurePeriodProblem } from '../domain/period';
 import {
   isLive,
+  stampDeleted,
   stampNew,
   stampRestored,
   stampUpdate,
@@ -12,8 +13,9 @@ import {
 import { assertStudyFitsCharacteristic, type Study, type StudyFields } from '../domain/study';
 import { ValidationError } from '../domain/validation-error';
 import type { CapstanDatabase, StudyRevision } from './database';
-import { RecordNotFoundError, RecordRepository, requireLive, withoutFields } from './record-repository';
+import { RecordNotFoundError, requireLive, withoutFields } from './record-repository';
 import { lazyValidation } from './record-validation';
+import { eachStudy, findStudy, putStudies, studiesOf } from './study-shelves';
 
 const studyValidation = lazyValidation(async () => {
   const { parseStudyFields, studyFieldsSchema } = await import('../domain/study-schema');
@@ -63,43 +65,77 @@ function editable(fields: StudyFields): Editable<Study> {
 /**
  * Studies. One live study per characteristic and month: a second one for the same month is refused here,
  * because replacing or combining is a decision the person logging must make, never a silent overwrite.
+ * Studies are kept on their characteristic's shelf (study-shelves.ts): a study is found by its characteristic,
+ * and the methods that take a study's id take its characteristic's as well where the caller knows it.
  */
-export class StudyRepository extends RecordRepository<Study> {
-  constructor(db: CapstanDatabase, ctx: WriteContext) {
-    super(db, ctx, {
-      kind: 'Study',
-      table: (d) => d.studies,
-      validation: studyValidation,
-      relatedTables: (d) => [d.characteristics, d.processes, d.sites],
-      checkInTransaction: async (d, fields, existingId) => {
-        const characteristic = await characteristicFor(d, fields);
-        const sameMonth = await d.studies
-          .where('[characteristicId+period]')
-          .equals([fields.characteristicId, fields.period])
-          .filter((study) => isLive(study) && study.id !== existingId)
-          .first();
-        if (sameMonth) {
-          throw new ValidationError('Study', [
-            {
-              field: 'period',
-              message: `'${characteristic.name}' already has a study for ${fields.period}; replace or combine that one instead`
-            }
-          ]);
-        }
-      }
-    });
-  }
+export class StudyRepository {
+  constructor(
+    private readonly db: CapstanDatabase,
+    private readonly ctx: WriteContext
+  ) {}
 
   private async liveForMonth(
     characteristicId: string,
     period: string,
     exceptId?: string
   ): Promise<Study | undefined> {
-    return this.db.studies
-      .where('[characteristicId+period]')
-      .equals([characteristicId, period])
-      .filter((s) => isLive(s) && s.id !== exceptId)
-      .first();
+    return (await studiesOf(this.db, characteristicId)).find(
+      (s) => s.period === period && isLive(s) && s.id !== exceptId
+    );
+  }
+
+  /** Live studies (tombstones left out), a shelf at a time. */
+  async list(): Promise<Study[]> {
+    const out: Study[] = [];
+    await eachStudy(this.db, (s) => {
+      if (isLive(s)) out.push(s);
+    });
+    return out;
+  }
+
+  /** How many live studies there are, a shelf at a time (no long task). */
+  async countLive(): Promise<number> {
+    let n = 0;
+    await eachStudy(this.db, (s) => {
+      if (isLive(s)) n += 1;
+    });
+    return n;
+  }
+
+  /** A live study, or undefined (see findStudy: give its characteristic where it is known). */
+  async get(id: string, characteristicId?: string): Promise<Study | undefined> {
+    const study = await findStudy(this.db, id, characteristicId);
+    return study && isLive(study) ? study : undefined;
+  }
+
+  /** Logs one new study; a month that already has one is refused (logOne with 'new'). */
+  async create(input: unknown): Promise<Study> {
+    return (await this.logOne(input, 'new')).study;
+  }
+
+  /** Leaves a tombstone; returns it so that the caller can offer an undo. */
+  async remove(id: string, characteristicId?: string): Promise<Study> {
+    const d = this.db;
+    return d.transaction('rw', d.studyShelves, async () => {
+      const previous = await findStudy(d, id, characteristicId);
+      if (!previous || !isLive(previous)) throw new RecordNotFoundError('Study', id);
+      const tombstone = stampDeleted(previous, this.ctx);
+      await putStudies(d, [tombstone]);
+      return tombstone;
+    });
+  }
+
+  /** Undoes a deletion as a new revision (refused when the month has a live study again meanwhile). */
+  async restore(id: string, characteristicId?: string): Promise<Study> {
+    const d = this.db;
+    return d.transaction('rw', d.studyShelves, async () => {
+      const previous = await findStudy(d, id, characteristicId);
+      if (!previous) throw new RecordNotFoundError('Study', id);
+      if (isLive(previous)) return previous;
+      const restored = stampRestored(previous, this.ctx);
+      await putStudies(d, [restored]);
+      return restored;
+    });
   }
 
   /** The live study of one characteristic and month, if any. */
@@ -131,7 +167,7 @@ export class StudyRepository extends RecordRepository<Study> {
     const d = this.db;
     return d.transaction(
       'rw',
-      [d.studies, d.characteristics, d.processes, d.sites, d.studyRevisions],
+      [d.studyShelves, d.characteristics, d.processes, d.sites, d.studyRevisions],
       async () => {
         const outcomes: LogOutcome[] = [];
         for (const fields of parsed) {
@@ -139,7 +175,7 @@ export class StudyRepository extends RecordRepository<Study> {
           const existing = await this.liveForMonth(fields.characteristicId, fields.period);
           if (!existing) {
             const study = stampNew(editable(fields), this.ctx) as Study;
-            await d.studies.add(study);
+            await putStudies(d, [study]);
             outcomes.push({ study, action: 'created' });
             continue;
           }
@@ -155,7 +191,7 @@ export class StudyRepository extends RecordRepository<Study> {
           const next = parse({ ...editable(fields), data });
           await this.keepRevision(existing, mode === 'combine' ? 'combined' : 'replaced');
           const study = stampUpdate(withoutFields(existing, studyFields), editable(next), this.ctx);
-          await d.studies.put(study);
+          await putStudies(d, [study]);
           outcomes.push({ study, previous: existing, action: mode === 'combine' ? 'combined' : 'replaced' });
         }
         return outcomes;
@@ -187,31 +223,22 @@ export class StudyRepository extends RecordRepository<Study> {
   async restoreRevision(revisionId: string): Promise<Study> {
     const d = this.db;
     const { fields: studyFields } = await studyValidation();
-    return d.transaction('rw', [d.studies, d.studyRevisions], async () => {
+    return d.transaction('rw', [d.studyShelves, d.studyRevisions], async () => {
       const revision = await d.studyRevisions.get(revisionId);
       if (!revision) throw new RecordNotFoundError('Study revision', revisionId);
-      const current = await d.studies.get(revision.studyId);
+      const current = await findStudy(d, revision.studyId, revision.study.characteristicId);
       if (!current) throw new RecordNotFoundError('Study', revision.studyId);
       await this.keepRevision(current, 'restored');
       const base = isLive(current) ? current : stampRestored(current, this.ctx);
       const old = revision.study;
       const restored = stampUpdate(withoutFields(base, studyFields), editable(old), this.ctx);
-      await d.studies.put(restored);
+      await putStudies(d, [restored]);
       return restored;
     });
   }
 
   /** Live studies of one characteristic, oldest month first. */
   async forCharacteristic(characteristicId: string): Promise<Study[]> {
-    const rows = await this.db.studies
-      .where('[characteristicId+period]')
-      .between([characteristicId, ''], [characteristicId, '\uffff'])
-      .toArray();
-    return rows.filter(isLive);
-  }
-
-  /** Live studies of one month across all characteristics. */
-  async forPeriod(period: string): Promise<Study[]> {
-    return (await this.db.studies.where('period').equals(period).toArray()).filter(isLive);
+    return (await studiesOf(this.db, characteristicId)).filter(isLive);
   }
 }

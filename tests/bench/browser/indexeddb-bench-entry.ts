@@ -1,7 +1,8 @@
 /**
  * Runs inside headless Chromium (bundled by browser-bench.ts): writes and reads 100 000 studies through the
- * app's database class — its study schema (three indexes with the primary key, and the write sequence) and the
- * write-sequence middleware — and through bare Dexie tables, in the same chunks, in the same run.
+ * app's database class — studies on shelves, one record per characteristic (storage/study-shelves.ts), with the
+ * write-sequence middleware — and through bare Dexie tables, in the same chunks, in the same run: one record per
+ * study with v9's study schema (what the app wrote before shelves), and the same shelves written by hand.
  */
 import { Dexie } from 'dexie';
 import { stampNew, type WriteContext } from '../../../src/lib/domain/record-meta';
@@ -10,10 +11,13 @@ import { HybridClock } from '../../../src/lib/domain/hybrid-clock';
 import { changeSetOf, decodeExchangeFile, encodeExchangeFile } from '../../../src/lib/exchange/exchange-file';
 import { applyChangeSet, collectChanges, previewChangeSet } from '../../../src/lib/storage/change-set-store';
 import { CapstanDatabase } from '../../../src/lib/storage/database';
-import { SCHEMA_V9 } from '../../../src/lib/storage/schema-versions';
+import { SCHEMA_V10, SCHEMA_V9 } from '../../../src/lib/storage/schema-versions';
+import { allStudies, putStudies } from '../../../src/lib/storage/study-shelves';
 
 const COUNT = 100_000;
 const CHUNK = 5_000;
+/** Months of each characteristic: the studies come a characteristic at a time, as a file's import writes them. */
+const MONTHS = 50;
 
 function studies(): Study[] {
   let n = 0;
@@ -25,8 +29,8 @@ function studies(): Study[] {
   return Array.from({ length: COUNT }, (_, i) =>
     stampNew(
       {
-        characteristicId: `00000000-0000-4000-9000-${String(i % 2000).padStart(12, '0')}`,
-        period: `20${18 + Math.floor(i / 24000)}-${String((Math.floor(i / 2000) % 12) + 1).padStart(2, '0')}`,
+        characteristicId: `00000000-0000-4000-9000-${String(Math.floor(i / MONTHS)).padStart(12, '0')}`,
+        period: `20${20 + Math.floor((i % MONTHS) / 12)}-${String(((i % MONTHS) % 12) + 1).padStart(2, '0')}`,
         data: { kind: 'summary' as const, n: 50, mean: 10 + (i % 100) / 1000, sd: 0.5 },
         enteredBy: 'bench'
       },
@@ -54,25 +58,37 @@ export async function runIndexedDbBench() {
   const rows = studies();
   await Dexie.delete('bench-bare');
   await Dexie.delete('bench-app');
+  // One record per study with v9's study schema (its indexes and a write sequence number set by hand).
   const bare = new Dexie('bench-bare');
-  bare.version(1).stores({ studies: 'id, characteristicId, period' });
+  bare.version(1).stores({ studies: SCHEMA_V9.studies });
   await bare.open();
+  let seq = 0;
   const bareTimes = await timed(
-    (c) => bare.table('studies').bulkPut(c),
+    (c) => bare.table('studies').bulkPut(c.map((r) => ({ ...r, localSeq: ++seq }))),
     () => bare.table('studies').toArray(),
     rows
   );
   bare.close();
-  // The same rows into a bare Dexie table with the app's own study schema (its indexes and a write sequence number
-  // set by hand): what remains between this and the app is the app's code (the middleware), not the schema.
+  // The same studies on shelves written by hand into a bare Dexie table of the app's schema: what remains between
+  // this and the app is the app's code (reading the shelves back, the middleware), not the schema.
   await Dexie.delete('bench-same-schema');
   const same = new Dexie('bench-same-schema');
-  same.version(1).stores({ studies: SCHEMA_V9.studies });
+  same.version(1).stores(SCHEMA_V10);
   await same.open();
-  let seq = 0;
   const sameTimes = await timed(
-    (c) => same.table('studies').bulkPut(c.map((r) => ({ ...r, localSeq: ++seq }))),
-    () => same.table('studies').toArray(),
+    (c) => {
+      const shelves = new Map<string, Study[]>();
+      for (const r of c) shelves.set(r.characteristicId, [...(shelves.get(r.characteristicId) ?? []), r]);
+      return same.table('studyShelves').bulkPut(
+        [...shelves].map(([characteristicId, studies]) => ({
+          characteristicId,
+          studies: studies.map((r) => ({ ...r, localSeq: ++seq })),
+          localSeq: seq,
+          size: studies.length
+        }))
+      );
+    },
+    async () => (await same.table('studyShelves').toArray()).flatMap((s: { studies: Study[] }) => s.studies),
     rows
   );
   same.close();
@@ -80,8 +96,8 @@ export async function runIndexedDbBench() {
   const app = new CapstanDatabase('bench-app');
   await app.open();
   const appTimes = await timed(
-    (c) => app.studies.bulkPut(c),
-    () => app.studies.toArray(),
+    (c) => putStudies(app, c),
+    () => allStudies(app),
     rows
   );
 
@@ -118,7 +134,7 @@ export async function runIndexedDbBench() {
   });
   sample();
   const importMs = performance.now() - t;
-  const imported = await target.studies.count();
+  const imported = (await allStudies(target)).length;
   target.close();
   await Dexie.delete('bench-bare');
   await Dexie.delete('bench-app');

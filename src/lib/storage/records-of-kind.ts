@@ -1,0 +1,50 @@
+import type { Table } from 'dexie';
+import type { RecordKind } from '../domain/record-kinds';
+import type { RecordMeta } from '../domain/record-meta';
+import type { Study } from '../domain/study';
+import type { CapstanDatabase } from './database';
+import { tableNameOf } from './record-tables';
+import { allStudies, putStudies, studiesChangedSince } from './study-shelves';
+
+/**
+ * Reading and writing any kind of synchronised record, for the code that handles every kind alike (the exchange,
+ * the cascade of a deletion): studies through their shelves (study-shelves.ts), the rest through their table.
+ */
+
+type AnyTable = Table<RecordMeta, string>;
+
+/** The Dexie table of a kind that is not studies (those are on shelves). */
+export function plainTableOf(db: CapstanDatabase, kind: Exclude<RecordKind, 'studies'>): AnyTable {
+  return db.table(kind) as unknown as AnyTable;
+}
+
+/** The Dexie tables a transaction over these kinds must hold. */
+export function tablesOfKinds(db: CapstanDatabase, kinds: readonly RecordKind[]): Table[] {
+  return kinds.map((k) => db.table(tableNameOf(k)));
+}
+
+/** Every record of a kind, live and deleted. */
+export async function allOfKind(db: CapstanDatabase, kind: RecordKind): Promise<RecordMeta[]> {
+  return kind === 'studies' ? allStudies(db) : plainTableOf(db, kind).toArray();
+}
+
+/** Records of a kind written on this device after `seq`. */
+export async function changedSince(
+  db: CapstanDatabase,
+  kind: RecordKind,
+  seq: number
+): Promise<RecordMeta[]> {
+  return kind === 'studies'
+    ? studiesChangedSince(db, seq)
+    : plainTableOf(db, kind).where('localSeq').above(seq).toArray();
+}
+
+/** Writes whole versions of records of one kind. */
+export async function putOfKind(
+  db: CapstanDatabase,
+  kind: RecordKind,
+  records: readonly RecordMeta[]
+): Promise<void> {
+  if (kind === 'studies') await putStudies(db, records as Study[]);
+  else await plainTableOf(db, kind).bulkPut([...records]);
+}
