@@ -14,6 +14,7 @@ import { startStaticServer, waitForServiceWorker } from '../e2e/static-server';
 import type { BenchRow } from './engine-bench';
 import { masterListText } from './master-list-rows';
 import { companyPortfolioFile } from './company-portfolio-file';
+import { installPageClock, pageClockMs, restartPageClock, type Sight } from './page-clock';
 import { createServer } from 'node:net';
 
 /** A free local TCP port, for Chromium's remote-debugging endpoint. */
@@ -214,21 +215,26 @@ export async function companyScaleRows(
   writeFileSync(file, await companyPortfolioFile(size));
   const app = await startStaticServer();
   const context = await browser.newContext();
+  await installPageClock(context);
   const page = await context.newPage();
   const rows: BenchRow[] = [];
+  const chosen = { event: 'change', testId: 'exchange-file-input' } as const;
+  const confirmed = { event: 'click', testId: 'confirm-merge' } as const;
   try {
     await page.goto(new URL('/exchange', app.url).href);
     await page.getByTestId('exchange-file-input').waitFor();
+    // Two seconds, as a person takes at the least to choose a file: the page gets ready for it meanwhile (its
+    // receiving worker started, exchange-worker-client.ts warmReceiveWorker). Chosen at once, the file waited
+    // for that worker's start.
+    await page.waitForTimeout(2000);
     let watch = await watchMainThread(page);
-    const t0 = Date.now();
     await page.getByTestId('exchange-file-input').setInputFiles(file);
     await page.getByTestId('import-preview').waitFor({ timeout: patience });
-    const previewed = Date.now() - t0;
+    const previewed = await pageClockMs(page, 'import-preview', chosen);
     let seen = await watch.read();
-    const t1 = Date.now();
     await page.getByTestId('confirm-merge').click();
     await page.getByTestId('exchange-done').waitFor({ timeout: patience });
-    const merged = Date.now() - t1;
+    const merged = await pageClockMs(page, 'exchange-done', confirmed);
     const mergeSeen = await watch.read();
     rows.push({
       name: `receive the ${size.toLocaleString('en')}-process file (${(size * 36).toLocaleString('en')} studies, ${(statSync(file).size / 1048576).toFixed(0)} MB), chosen → read, checked and compared with the device in the worker → preview shown; ${taskWords(seen.longTasks)}`,
@@ -247,15 +253,20 @@ export async function companyScaleRows(
     const cdp = await context.newCDPSession(page);
     await cdp.send('Emulation.setCPUThrottlingRate', { rate: throttle });
     await cdp.send('HeapProfiler.enable');
-    const timedPage = async (name: string, go: () => Promise<void>, ready: () => Promise<void>) => {
+    const timedPage = async (
+      name: string,
+      go: () => Promise<void>,
+      ready: () => Promise<void>,
+      sight: Sight
+    ) => {
       // Garbage left by the page before (at 20 000 processes, the exchange page's 720 000 records: some 1 GB) is
       // collected first, so that the visit's peak heap is its own: the next document may run in the same heap.
       await cdp.send('HeapProfiler.collectGarbage');
       await go();
       watch = await watchMainThread(page);
-      const t = Date.now();
       await ready();
-      const ms = Date.now() - t;
+      // From the start of the navigation, on the page's clock.
+      const ms = await pageClockMs(page, sight);
       seen = await watch.read();
       rows.push({
         name: `${name}, ${size.toLocaleString('en')} processes, ${cpu}: ${taskWords(seen.longTasks)}`,
@@ -288,10 +299,10 @@ export async function companyScaleRows(
       // time that device has written something. Unthrottled, as the receiving rows above.
       await cdp.send('Emulation.setCPUThrottlingRate', { rate: 1 });
       watch = await watchMainThread(page);
-      const t2 = Date.now();
+      await restartPageClock(page);
       await page.getByTestId('exchange-file-input').setInputFiles(file);
       await page.getByTestId('import-preview').waitFor({ timeout: patience });
-      const again = Date.now() - t2;
+      const again = await pageClockMs(page, 'import-preview', chosen);
       const againSeen = await watch.read();
       rows.push({
         name: `  … the same file received again (every record already held, as folder sync reads a device's whole file after each change), chosen → preview shown; ${taskWords(againSeen.longTasks)}`,
@@ -311,7 +322,8 @@ export async function companyScaleRows(
         void page.goto(app.url);
         await page.waitForURL(app.url + '/');
       },
-      () => page.getByTestId('portfolio-table').locator('tbody tr').first().waitFor({ timeout: patience })
+      () => page.getByTestId('portfolio-table').locator('tbody tr').first().waitFor({ timeout: patience }),
+      'portfolio-row'
     );
     await timedPage(
       'portfolio with no stored read model (first ranking on a device): opened → ranked table shown',
@@ -322,7 +334,8 @@ export async function companyScaleRows(
         void page.goto(app.url);
         await page.waitForURL(app.url + '/');
       },
-      () => page.getByTestId('portfolio-table').locator('tbody tr').first().waitFor({ timeout: patience })
+      () => page.getByTestId('portfolio-table').locator('tbody tr').first().waitFor({ timeout: patience }),
+      'portfolio-row'
     );
     // The portfolio's worker stores the model it built after it answered (portfolio-worker-loop.ts): leaving the
     // page before that (seconds at 20 000) leaves the review, too, to read every study.
@@ -334,7 +347,8 @@ export async function companyScaleRows(
         void page.goto(new URL('/review', app.url).href);
         await page.waitForURL(/\/review$/);
       },
-      () => page.getByTestId('headline').waitFor({ timeout: patience })
+      () => page.getByTestId('headline').waitFor({ timeout: patience }),
+      'headline'
     );
     // The review's other sections and its charts are drawn after the headline, one per task: count the tasks
     // until the last chart is drawn, the first time the chart library is loaded included.
@@ -368,7 +382,9 @@ export async function companyScaleRows(
         void page.goto(new URL(href ?? '/', app.url).href);
         await page.waitForURL(/\/process\//);
       },
-      () => page.getByRole('heading', { level: 1 }).filter({ hasText: 'Line' }).waitFor({ timeout: patience })
+      () =>
+        page.getByRole('heading', { level: 1 }).filter({ hasText: 'Line' }).waitFor({ timeout: patience }),
+      'process-heading'
     );
     await cdp.send('Emulation.setCPUThrottlingRate', { rate: 1 });
   } finally {

@@ -12,11 +12,11 @@ export interface BackupStatus {
   /** Records written (typed or imported) on this device after its last export. */
   unexported: number;
   /**
-   * `unexported` counts every study of the characteristics written since (a company's file merged here writes
-   * thousands; storage/study-shelves.ts unsentStudies), so it may count more than were written, and the oldest
-   * is the earliest of those characteristics' latest writes.
+   * `unexported` is a lower bound: studies of more characteristics than are counted one by one were written
+   * since (a company's file merged here writes thousands; storage/study-shelves.ts unsentStudies), each counted
+   * once, and the oldest is that of the characteristic written least recently.
    */
-  upperBound: boolean;
+  atLeast: boolean;
   /** Write time (from the sequence) of the oldest of them. */
   oldestUnexportedAt?: string;
 }
@@ -27,7 +27,7 @@ export async function loadBackupStatus(db: CapstanDatabase): Promise<BackupStatu
   const after = row?.highWater ?? 0;
   let unexported = 0;
   let oldest: number | undefined;
-  let upperBound = false;
+  let atLeast = false;
   const counted = (count: number, first: number | undefined) => {
     unexported += count;
     if (first !== undefined && (oldest === undefined || first < oldest)) oldest = first;
@@ -36,7 +36,7 @@ export async function loadBackupStatus(db: CapstanDatabase): Promise<BackupStatu
     if (kind === 'studies') {
       const studies = await unsentStudies(db, after);
       counted(studies.count, studies.oldest);
-      upperBound = studies.upperBound;
+      atLeast = studies.atLeast;
       continue;
     }
     const range = plainTableOf(db, kind).where('localSeq').above(after);
@@ -45,7 +45,7 @@ export async function loadBackupStatus(db: CapstanDatabase): Promise<BackupStatu
   return {
     lastExportAt: row?.at,
     unexported,
-    upperBound,
+    atLeast,
     oldestUnexportedAt:
       oldest === undefined ? undefined : new Date(Math.min(oldest, Date.now())).toISOString()
   };

@@ -82,6 +82,8 @@ export type StoredReadModel = Pick<
     savedAt: string;
     /** The other records the portfolio reads, as of `since` (absent in models stored before they were kept). */
     tables?: PortfolioTables;
+    /** Shelves of studies stored as of `since` (absent in models stored before shelves). */
+    shelves?: number;
   };
 
 /**

@@ -15,7 +15,7 @@ import {
   SCHEMA_V9
 } from './schema-versions';
 import { recordsUnder } from './records-under';
-import { allStudies, countStudies, findStudy, studiesOf } from './study-shelves';
+import { allStudies, findStudy, studiesOf } from './study-shelves';
 
 /** A database as version `version` of the app shipped it: the schemas of that version and those before it. */
 function databaseAsShipped(name: string, version: number): Dexie {
@@ -132,7 +132,7 @@ describe('schema upgrade v1 → v2', () => {
     expect(await current.processes.toArray()).toMatchObject([process]);
     const upgraded = await current.characteristics.orderBy('id').toArray();
     expect(upgraded).toMatchObject(characteristics.map((c) => ({ ...c, riskClass: 'standard' })));
-    expect(await countStudies(current)).toBe(31);
+    expect(await allStudies(current)).toHaveLength(31);
     expect(await findStudy(current, tombstone.id)).toMatchObject(tombstone);
     // A characteristic's month is found (by v2's compound index then, on its shelf since v10).
     const march = (await studiesOf(current, characteristics[0]!.id)).filter((s) => s.period === '2024-03');
@@ -292,7 +292,7 @@ describe('schema upgrade v6 → v7', () => {
     const current = new CapstanDatabase(name);
     await current.open();
     expect(current.verno).toBe(CURRENT_SCHEMA_VERSION);
-    expect(await countStudies(current)).toBe(3);
+    expect(await allStudies(current)).toHaveLength(3);
     for (const r of rows) expect(await findStudy(current, r.id)).toEqual(r);
     expect(await current.monthClashes.toArray()).toEqual([
       {
@@ -361,6 +361,15 @@ describe('schema upgrade v9 → v10 and v11 (studies onto shelves)', () => {
     ];
     await v9.table('studies').bulkAdd(rows);
     await v9.table('readModels').put({ key: 'monthly-statistics', format: 3 });
+    const process = {
+      id: 'p1',
+      siteId: 's1',
+      contextId: 'x',
+      name: 'Line 1',
+      updatedAt: '2026-03-04',
+      localSeq: 7
+    };
+    await v9.table('processes').add(process);
     v9.close();
     const current = new CapstanDatabase(name);
     await current.open();
@@ -373,6 +382,12 @@ describe('schema upgrade v9 → v10 and v11 (studies onto shelves)', () => {
       { characteristicId: 'c2', studies: [rows[3]], localSeq: 40, size: 1 }
     ]);
     expect(await current.readModels.count()).toBe(0);
+    // Indexes no query reads are gone; the records stay as they were, and a site's processes are still found.
+    const indexes = (table: { schema: { indexes: { name: string }[] } }) =>
+      table.schema.indexes.map((i) => i.name).sort();
+    expect(indexes(current.processes)).toEqual(['localSeq', 'siteId']);
+    expect(indexes(current.sites)).toEqual(['localSeq']);
+    expect(await current.processes.where('siteId').equals('s1').toArray()).toEqual([process]);
     // The write sequence goes on above the highest value a study carried.
     expect(current.sequence.latest).toBeGreaterThanOrEqual(50);
     current.close();

@@ -7,7 +7,7 @@ import type { Table } from 'dexie';
 import type { Site } from '../domain/site';
 import type { Study } from '../domain/study';
 import type { CapstanDatabase } from './database';
-import { allStudies, countStudies, eachStudy, studiesOf } from './study-shelves';
+import { allStudies, eachStudy, studiesOf } from './study-shelves';
 
 /** One process as the portfolio lists it before capability figures exist for it. */
 export interface ProcessOverview {
@@ -184,11 +184,7 @@ export async function portfolioChangeMark(
   const parts = await Promise.all(
     [db.sites, db.processes, db.characteristics, db.studyShelves, db.projects].map(async (table) => {
       const t = table as unknown as typeof db.sites;
-      // Studies are counted by the shelves' sizes: a study removed from its shelf changes no shelf count.
-      const [last, count] = await Promise.all([
-        t.orderBy('localSeq').lastKey(),
-        table === db.studyShelves ? countStudies(db) : t.count()
-      ]);
+      const [last, count] = await Promise.all([t.orderBy('localSeq').lastKey(), t.count()]);
       return { last: String(last ?? 0), count };
     })
   );

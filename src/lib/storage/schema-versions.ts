@@ -141,12 +141,19 @@ export const SCHEMA_V9 = {
  * (storage/study-shelves.ts). IndexedDB costs some 0.1 ms a record written in Chromium whatever the record holds:
  * 72 000 studies put in one transaction took 6.3–6.7 s as one record each (7.0–7.6 s without any index), and
  * 0.34–0.38 s as 2 000 shelves of 36 (measured on 2026-12-04 in headless Chromium, an ad-hoc page writing the
- * same records both ways). `[localSeq+size]` (the shelf's write sequence and number of studies) is indexed so that
- * the studies, and those on the shelves written since a given point, are counted from the index alone. The upgrade moves every study onto its shelf, keeping its write sequence, and drops the stored
+ * same records both ways). The upgrade moves every study onto its shelf, keeping its write sequence, and drops the stored
  * read model (derived: rebuilt on the next visit). v11 deletes the emptied table.
+ *
+ * The other kinds lose the indexes no query reads (`updatedAt` everywhere, a site's `name`, a process's
+ * `contextId`): each is one more entry written per record, some 10 µs each in the measurement of v9 below, and a
+ * company's file writes 2 000 processes and 2 000 characteristics or more. Dexie drops them; no record changes.
  */
 export const SCHEMA_V10 = {
-  studyShelves: 'characteristicId, localSeq, [localSeq+size]'
+  sites: 'id, localSeq',
+  processes: 'id, siteId, localSeq',
+  characteristics: 'id, processId, localSeq',
+  projects: 'id, processId, localSeq',
+  studyShelves: 'characteristicId, localSeq'
 } as const;
 
 export async function upgradeToV10(tx: Transaction): Promise<void> {

@@ -12,7 +12,7 @@ export interface StudyShelf {
   studies: Study[];
   /** Highest `localSeq` of its studies (absent only on a shelf without studies). */
   localSeq?: number;
-  /** Number of studies: indexed with `localSeq`, so that studies are counted from the index alone. */
+  /** Number of studies. */
   size: number;
 }
 

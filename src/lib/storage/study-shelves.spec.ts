@@ -4,7 +4,8 @@ import { afterEach, describe, expect, it } from 'vitest';
 import type { Study } from '../domain/study';
 import { CapstanDatabase } from './database';
 import {
-  countStudies,
+  allStudies,
+  countShelves,
   findStudy,
   putStudies,
   studiesChangedSince,
@@ -55,35 +56,38 @@ describe('studies on shelves', () => {
     expect(seq(after[0])).toBeGreaterThan(since);
     expect(seq(after[1])).toBe(seq(first[1]));
     expect((await studiesChangedSince(db, since)).map((s) => s.id)).toEqual(['a']);
-    expect(await unsentStudies(db, since)).toEqual({ count: 1, oldest: seq(after[0]), upperBound: false });
-    expect(await countStudies(db)).toBe(3);
+    expect(await unsentStudies(db, since)).toEqual({ count: 1, oldest: seq(after[0]), atLeast: false });
+    expect(await allStudies(db)).toHaveLength(3);
+    expect(await countShelves(db)).toBe(2);
     expect((await studiesUnder(db, ['c2', 'c9', 'c1'])).map((s) => s.id)).toEqual(['x', 'a', 'b']);
     expect((await findStudy(db, 'x'))?.characteristicId).toBe('c2');
     expect(await findStudy(db, 'x', 'c1')).toBeUndefined();
   });
 
-  it('counts the studies written since a point one by one on a few shelves, from the index alone on many', async () => {
+  it('counts the studies written since a point one by one on a few shelves; on many, one a shelf at least', async () => {
     db = new CapstanDatabase(`shelves-${Math.random()}`);
     await db.open();
     const months = ['2026-01', '2026-02', '2026-03'];
-    const shelves = (n: number, from = 0) =>
-      Array.from({ length: n }, (_, c) =>
-        months.map((m) => study(`s${c + from}-${m}`, `c${c + from}`, m))
-      ).flat();
+    const shelves = (n: number) =>
+      Array.from({ length: n }, (_, c) => months.map((m) => study(`s${c}-${m}`, `c${c}`, m))).flat();
     await putStudies(db, shelves(120));
     const point = db.sequence.latest;
-    // One month more on each of 3 shelves: counted one by one.
+    // One month more on each of 3 shelves, two of them on the first: counted one by one.
     await putStudies(
       db,
       [0, 1, 2].map((c) => study(`s${c}-2026-04`, `c${c}`, '2026-04'))
     );
-    expect(await unsentStudies(db, point)).toMatchObject({ count: 3, upperBound: false });
-    // On 101 shelves: every study on them counted (4 on each, one of them written since), an upper bound.
+    await putStudies(db, [study('s0-2026-05', 'c0', '2026-05')]);
+    const few = await unsentStudies(db, point);
+    expect(few).toMatchObject({ count: 4, atLeast: false });
+    // On 101 shelves: one a shelf at least, and the oldest is that of the shelf written least recently.
     await putStudies(
       db,
       Array.from({ length: 98 }, (_, c) => study(`s${c + 3}-2026-04`, `c${c + 3}`, '2026-04'))
     );
-    expect(await unsentStudies(db, point)).toMatchObject({ count: 101 * 4, upperBound: true });
-    expect(await countStudies(db)).toBe(120 * 3 + 101);
+    const many = await unsentStudies(db, point);
+    expect(many).toMatchObject({ count: 101, atLeast: true });
+    expect(many.oldest).toBe(few.oldest);
+    expect(await countShelves(db)).toBe(120);
   });
 });
