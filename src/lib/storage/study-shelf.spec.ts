@@ -1,20 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import type { Study } from '../domain/study';
+import { seqOf, shelvedStudy } from '../../../tests/support/shelved-study';
 import { shelfOf, shelfProblems } from './study-shelf';
 
-const study = (id: string, characteristicId: string, period: string, localSeq?: number) =>
-  ({
-    id,
-    characteristicId,
-    period,
-    createdAt: '',
-    updatedAt: '',
-    rev: 1,
-    deviceId: 'd',
-    data: { kind: 'summary', n: 30, mean: 1, sd: 0.1 },
-    enteredBy: '',
-    ...(localSeq !== undefined ? { localSeq } : {})
-  }) as Study;
+const study = shelvedStudy;
 
 describe('a study shelf', () => {
   it('orders its studies by month then id, counts them, and carries their highest write sequence', () => {
@@ -30,7 +18,7 @@ describe('a study shelf', () => {
 
   it('stamps the studies written now (no sequence yet) and keeps the others', () => {
     const shelf = shelfOf('c', [study('a', 'c', '2026-01', 5), study('b', 'c', '2026-02')], 12);
-    expect(shelf.studies.map((s) => (s as Study & { localSeq?: number }).localSeq)).toEqual([5, 12]);
+    expect(shelf.studies.map(seqOf)).toEqual([5, 12]);
     expect(shelf.localSeq).toBe(12);
   });
 

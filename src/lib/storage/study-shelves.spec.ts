@@ -1,7 +1,7 @@
 import 'fake-indexeddb/auto';
 import { Dexie } from 'dexie';
 import { afterEach, describe, expect, it } from 'vitest';
-import type { Study } from '../domain/study';
+import { seqOf, shelvedStudy } from '../../../tests/support/shelved-study';
 import { CapstanDatabase } from './database';
 import {
   allStudies,
@@ -14,19 +14,8 @@ import {
   unsentStudies
 } from './study-shelves';
 
-const study = (id: string, characteristicId: string, period: string, mean = 1) =>
-  ({
-    id,
-    characteristicId,
-    period,
-    createdAt: '',
-    updatedAt: '',
-    rev: 1,
-    deviceId: 'd',
-    data: { kind: 'summary', n: 30, mean, sd: 0.1 },
-    enteredBy: ''
-  }) as Study;
-const seq = (s: Study | undefined) => (s as (Study & { localSeq?: number }) | undefined)?.localSeq;
+const study = shelvedStudy;
+const seq = seqOf;
 
 let db: CapstanDatabase | undefined;
 afterEach(async () => {
