@@ -23,6 +23,14 @@ const SHELVES_PER_GET = 250;
  */
 const STUDIES_PER_PUT = 250;
 
+/**
+ * Shelves per bulkPut at the least. Dexie notes each key a put of fewer than 50 records writes (its live queries'
+ * bookkeeping, dexie.mjs `observabilityMiddleware`), and a larger put as the whole table: written 7 shelves at a
+ * time, a 20 000-process merge handed the page the keys of 20 000 shelves, one task of 347–354 ms on the page's
+ * thread as the merge ended (the bench of 2026-12-04 and an ad-hoc long-task probe).
+ */
+const SHELVES_PER_PUT = 50;
+
 /** The shelves of these characteristics that exist, read a part at a time. */
 export async function shelvesOf(
   db: CapstanDatabase,
@@ -169,7 +177,8 @@ function unsequenced(s: Study): Study {
 
 /**
  * The shelves `incoming` makes of those `held`: each study in place of the one with its id, in parts of some
- * STUDIES_PER_PUT studies stored; a part's `count` is how many of the incoming studies it holds.
+ * STUDIES_PER_PUT studies stored and SHELVES_PER_PUT shelves at the least; a part's `count` is how many of the
+ * incoming studies it holds.
  */
 function* shelvedInParts(
   incoming: ReadonlyMap<string, Study[]>,
@@ -186,7 +195,7 @@ function* shelvedInParts(
     rows.push({ characteristicId, studies: shelved, size: shelved.length });
     count += studies.length;
     stored += shelved.length;
-    if (stored >= STUDIES_PER_PUT) {
+    if (stored >= STUDIES_PER_PUT && rows.length >= SHELVES_PER_PUT) {
       yield { rows, count };
       rows = [];
       count = 0;
