@@ -3,7 +3,7 @@ import type { RecordKind } from '../domain/record-kinds';
 import { isLive, type WriteContext } from '../domain/record-meta';
 import { cascadeTables, removeWithContents } from './cascade-removal';
 import type { CapstanDatabase } from './database';
-import { putStudies } from './study-shelves';
+import { anyLiveStudy, putStudies } from './study-shelves';
 
 export interface DemoLoadResult {
   sites: number;
@@ -19,7 +19,7 @@ export async function isPortfolioEmpty(db: CapstanDatabase): Promise<boolean> {
     const anyLive = await (table as typeof db.sites).filter(isLive).first();
     if (anyLive) return false;
   }
-  return !(await db.studyShelves.filter((shelf) => shelf.studies.some(isLive)).first());
+  return !(await anyLiveStudy(db));
 }
 
 /** True when a demo site is live here (loaded on this device or received in a file). */

@@ -1,3 +1,4 @@
+import { isLive } from '../domain/record-meta';
 import type { Study } from '../domain/study';
 import type { CapstanDatabase } from './database';
 import { writePipelined } from './pipelined-write';
@@ -5,9 +6,10 @@ import { byMonthThenId, type StudyShelf } from './study-shelf';
 
 /**
  * Studies as the rest of storage reads and writes them, kept on their characteristic's shelf (study-shelf.ts).
- * The only code that touches `db.studyShelves`. Each function runs inside the caller's transaction when there is
- * one (it must hold `db.studyShelves`); a write opens its own otherwise, so that reading a shelf and putting it
- * back are one step.
+ * The only code that reads or writes what the shelves hold; other modules name `db.studyShelves` only to hold it
+ * in a transaction or to count its rows and sequence. Each function runs inside the caller's transaction when
+ * there is one (it must hold `db.studyShelves`); a write opens its own otherwise, so that reading a shelf and
+ * putting it back are one step.
  */
 
 /**
@@ -52,6 +54,11 @@ export async function studiesUnder(
   characteristicIds: readonly string[]
 ): Promise<Study[]> {
   return (await shelvesOf(db, characteristicIds)).flatMap((shelf) => shelf.studies);
+}
+
+/** Whether any study held is live (a shelf at a time, stopping at the first). */
+export async function anyLiveStudy(db: CapstanDatabase): Promise<boolean> {
+  return (await db.studyShelves.filter((shelf) => shelf.studies.some(isLive)).first()) !== undefined;
 }
 
 /** Every study of one characteristic, live and deleted, in month order. */
