@@ -34,10 +34,9 @@ import { studyMonthKey } from '../domain/study-month';
 import type { CapstanDatabase, StudyRevision } from './database';
 import { LAST_EXPORT_KEY } from './backup-status';
 import { saveClock } from './device-identity';
-import { partsOf, writePipelined } from './pipelined-write';
-import { allOfKind, changedSince, plainTableOf, tablesOfKinds } from './records-of-kind';
+import { allOfKind, changedSince, plainTableOf, putOfKind, tablesOfKinds } from './records-of-kind';
 import { recordsUnder } from './records-under';
-import { putStudies, studiesAmong, studiesUnder } from './study-shelves';
+import { studiesAmong, studiesUnder } from './study-shelves';
 import { runInSlices } from './sliced-run';
 import { pauseEvery, type Steps } from '../domain/work-steps';
 
@@ -170,13 +169,6 @@ export class ChangeSetRefused extends Error {
 }
 
 const PARENT_KINDS: RecordKind[] = ['sites', 'processes', 'characteristics'];
-
-/**
- * Records written per request batch by an import (see applyChangeSet): 1 000 made each batch a task of 100–150 ms
- * on the page's thread (22 of them for a 72 000-study file); 250 keep each well under 50 ms, in the same total
- * time.
- */
-const WRITE_SLICE = 250;
 
 /**
  * The records of one table whose ids are among `ids` (studies: studiesAmong, study-shelves.ts). A whole file's ids looked up one by one in every table
@@ -415,12 +407,12 @@ export async function applyChangeSet(
           });
         }
       }
-      const records = mine.map((w) => w.record);
-      if (kind === 'studies') await putStudies(db, records as Study[], progress);
-      else {
-        const table = plainTableOf(db, kind);
-        await writePipelined(partsOf(records, WRITE_SLICE), (rows) => table.bulkPut(rows), progress);
-      }
+      await putOfKind(
+        db,
+        kind,
+        mine.map((w) => w.record),
+        progress
+      );
       if (revisions.length > 0) await db.studyRevisions.bulkAdd(revisions);
     }
     clock.observe(plan.latestStamp);
