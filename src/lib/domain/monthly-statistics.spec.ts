@@ -230,6 +230,32 @@ describe('monthly statistics read model', () => {
     expect(model.mean[feb]).toBe(3);
   });
 
+  it("raises a row's stamp with every change in it, leaves other rows' alone and keeps them through growth and restore", () => {
+    const study = (id: string, characteristicId: string, period: string, mean: number) => ({
+      ...plainStudy(id, period, { kind: 'summary', n: 10, mean, sd: 1 }),
+      characteristicId
+    });
+    const model = MonthlyStatistics.fromStudies([
+      study('a', 'c0', '2026-01', 1),
+      study('b', 'c1', '2026-01', 2)
+    ]);
+    const [r0, r1] = [model.rowOf('c0')!, model.rowOf('c1')!];
+    const before = [model.rowStamp[r0]!, model.rowStamp[r1]!];
+    expect(before.every((s) => s > 0)).toBe(true);
+    // A month far outside the present ones reshapes the arrays: the other row's stamp moves with it.
+    model.putAll([study('c', 'c0', '2029-06', 3)]);
+    expect(model.rowStamp[r0]).toBeGreaterThan(before[0]!);
+    expect(model.rowStamp[r1]).toBe(before[1]);
+    const afterAdd = model.rowStamp[r0]!;
+    model.putAll([{ ...study('c', 'c0', '2029-06', 3), rev: 2, deletedAt: '2026-12-01T00:00:00.000Z' }]);
+    expect(model.rowStamp[r0]).toBeGreaterThan(afterAdd);
+    expect(model.rowStamp[r1]).toBe(before[1]);
+    // Restored, every row with a live month has a stamp (a new model: no window of the old one is asked of it).
+    const restored = MonthlyStatistics.fromSnapshot(model.snapshot(), new Map()).model;
+    expect(restored.rowStamp[restored.rowOf('c0')!]).toBeGreaterThan(0);
+    expect(restored.rowStamp[restored.rowOf('c1')!]).toBeGreaterThan(0);
+  });
+
   it('restored without its ids, refuses every change until they are attached, then takes them as a full restore does', () => {
     const studies = [
       plainStudy('a', '2025-11', { kind: 'summary', n: 20, mean: 1, sd: 0.5 }),

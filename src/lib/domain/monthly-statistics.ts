@@ -142,8 +142,14 @@ export class MonthlyStatistics {
   units = new Float64Array(0);
   count = new Float64Array(0);
   opportunities = new Float64Array(0);
-  /** A number unique to each filling of a cell: a window's figures are valid while its cells' stamps are. */
+  /** A number unique to each filling of a cell (stamps only grow: a later change has a higher one). */
   stamp = new Float64Array(0);
+  /**
+   * Per row, the stamp of its latest change (0 for none): a window's figures stay valid while their row's stamp
+   * does. A change in another month of the row counts too, which costs only a recomputation of that
+   * characteristic's windows; one number per window kept, where the stamps of its cells were an array each.
+   */
+  rowStamp = new Float64Array(0);
   /** Id of the study each cell shows, and its tag (see putAll; 0 when none was given). */
   ids: (string | undefined)[] = [];
   tag = new Float64Array(0);
@@ -211,6 +217,7 @@ export class MonthlyStatistics {
     model.opportunities = snap.opportunities.slice(0, size);
     model.tag = snap.tag.slice(0, size);
     model.stamp = new Float64Array(size);
+    model.rowStamp = new Float64Array(snap.rowIds.length);
     model.ids = new Array<string | undefined>(size);
     model.held = new Array<Study | Study[] | undefined>(size);
     // Without the ids (see attachIds), a cell shows a study exactly when its kind is not empty (#fill, #clear).
@@ -223,7 +230,7 @@ export class MonthlyStatistics {
     for (let cell = 0; cell < size; cell += 1) {
       if (ids ? !ids[cell] : model.kind[cell] === CELL.empty) continue;
       if (ids) model.ids[cell] = ids[cell];
-      model.stamp[cell] = nextStamp++;
+      model.stamp[cell] = model.rowStamp[Math.floor(cell / snap.span)] = nextStamp++;
       model.#live += 1;
     }
     const missing: string[] = [];
@@ -475,7 +482,7 @@ export class MonthlyStatistics {
     this.ids[cell] = study.id;
     this.tag[cell] = this.#tagOf?.(study) ?? 0;
     this.held[cell] = all ?? (d.kind === 'raw' ? study : undefined);
-    this.stamp[cell] = nextStamp++;
+    this.stamp[cell] = this.rowStamp[Math.floor(cell / this.#span)] = nextStamp++;
     this.kind[cell] = KIND_CODE[d.kind];
     this.n[cell] = 0;
     this.mean[cell] = 0;
@@ -512,7 +519,7 @@ export class MonthlyStatistics {
     this.ids[cell] = undefined;
     this.held[cell] = undefined;
     this.kind[cell] = CELL.empty;
-    this.stamp[cell] = nextStamp++;
+    this.stamp[cell] = this.rowStamp[Math.floor(cell / this.#span)] = nextStamp++;
   }
 
   /** The month columns needed to hold the present ones and `month`. */
@@ -556,6 +563,9 @@ export class MonthlyStatistics {
     this.ids = new Array<string | undefined>(size);
     this.held = new Array<Study | Study[] | undefined>(size);
     const rowsHeld = Math.min(this.#rowCapacity, rows);
+    const oldRowStamp = this.rowStamp;
+    this.rowStamp = new Float64Array(rows);
+    this.rowStamp.set(oldRowStamp.subarray(0, rowsHeld));
     for (let r = 0; r < rowsHeld; r += 1)
       for (let c = 0; c < oldSpan; c += 1) {
         const from = r * oldSpan + c;

@@ -6,6 +6,7 @@ import { RISK_CLASSES, type Characteristic, type RiskClass } from './characteris
 import { profileFor, shortTermShift, zBasisOf, type ContextProfile } from './context-profile';
 import { monthOrdinal, portfolioIndex } from './portfolio-index';
 import { rankingPlan, type RankingPlan } from './ranking-plan';
+import type { JudgeInput } from './judge-input';
 import type { ImprovementProject } from './improvement-project';
 import type { Process } from './process';
 import { changeInForce, limitsFor, type Limits } from './specification-history';
@@ -43,6 +44,7 @@ import {
 } from './portfolio-terms';
 
 export * from './portfolio-terms';
+export type { JudgeInput } from './judge-input';
 
 /**
  * A month's yield for the trend line, from the normal model of the month's mean and sd (counts exactly): the
@@ -205,39 +207,26 @@ export function perUnitFigures(result: WindowFigures): {
 }
 
 /**
- * What judging a window needs that does not depend on the context profile: computed once per window, so that a
- * change of target, weight or order only compares.
- */
-export interface JudgeInput {
-  characteristic: Characteristic;
-  result: WindowFigures | undefined;
-  months: number;
-  /** The per-unit figures (perUnitFigures), where the window has a result; as fields, not an object of their own. */
-  z: number;
-  zBound: number | undefined;
-  fraction: number;
-  fractionBound: number | undefined;
-  /** Limits in force in the window's last month. */
-  limits: Limits;
-  /** Whether months of the window were left out because the limits changed (WINDOW_RULE). */
-  limitsChanged: boolean;
-  /** Badges that follow from the figures alone, as bits of ROW_BADGE_ORDER (the profile adds its own). */
-  badgeMask: number;
-}
-
-/**
- * A window's judging input: one object per characteristic and window, kept with the prepared windows (at company
- * size every object kept per window counts), written as one literal with every field.
+ * A window's judging input (judge-input.ts): one object per characteristic and window, kept with the prepared
+ * windows and in the window figures cache, written as one literal with every field. `first`, `end` and
+ * `rowStamp` are its window key (NaN outside a cache).
  */
 export function judgeInput(
   characteristic: Characteristic,
   result: WindowFigures | undefined,
   months: number,
   period?: string,
-  limitsChanged = false
+  limitsChanged = false,
+  first = NaN,
+  end = NaN,
+  rowStamp = NaN
 ): JudgeInput {
   const unit = result ? perUnitInto(result, perUnitScratch) : undefined;
   return {
+    rev: characteristic.rev,
+    first,
+    end,
+    rowStamp,
     characteristic,
     result,
     months,
@@ -661,17 +650,41 @@ function prepareProcess(
       prepared[i] = judgeInput(c, undefined, 0, options.endPeriod);
       continue;
     }
+    const cache = options.cache;
+    const stamp = model.rowStamp[row]!;
+    const kept = cache?.get(model, row, c.rev, months.firstMonth, months.end, stamp);
+    if (kept) {
+      // The same revision read again as another object (a new record set): the window is kept with this one.
+      if (kept.characteristic !== c) {
+        const again = judgeInput(
+          c,
+          kept.result,
+          kept.months,
+          options.endPeriod,
+          kept.limitsChanged,
+          kept.first,
+          kept.end,
+          kept.rowStamp
+        );
+        cache!.replace(row, kept, again);
+        prepared[i] = again;
+      } else prepared[i] = kept;
+      continue;
+    }
     const cells = windowCellsScratch;
     const limitsChanged = windowCells(model, row, c, months, options.endPeriod, cells);
-    let cached: { result: WindowFigures | undefined; months: number } | undefined;
-    if (options.cache) {
-      const stamps = new Array<number>(cells.length);
-      for (let k = 0; k < cells.length; k += 1) stamps[k] = model.stamp[cells[k]!]!;
-      cached =
-        options.cache.get(model, row, c, months.firstMonth, stamps) ??
-        options.cache.set(model, row, c, months.firstMonth, stamps, figuresOfCells(model, cells, c, options));
-    } else cached = figuresOfCells(model, cells, c, options);
-    prepared[i] = judgeInput(c, cached.result, cached.months, options.endPeriod, limitsChanged);
+    const figures = figuresOfCells(model, cells, c, options);
+    const input = judgeInput(
+      c,
+      figures.result,
+      figures.months,
+      options.endPeriod,
+      limitsChanged,
+      months.firstMonth,
+      months.end,
+      stamp
+    );
+    prepared[i] = cache ? cache.set(model, row, input) : input;
   }
   const trend = monthlyTrend(chars, rows, at, model, months);
   let withData = 0;

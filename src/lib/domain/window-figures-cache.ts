@@ -1,37 +1,23 @@
-import type { Characteristic } from './characteristic';
-import type { WindowFigures } from './window-figures';
+import type { JudgeInput } from './judge-input';
 
 /** Windows kept per characteristic: ten review quarters and a few portfolio windows. */
 const PER_CHARACTERISTIC = 24;
 /** Entries in all; beyond it the cache starts again (characteristics deleted or reloaded under new ids). */
 const TOTAL = 500_000;
 
-export interface CachedWindow {
-  result: WindowFigures | undefined;
-  months: number;
-}
-
-/** A window kept: its figures, with what finds them (one object per window: there are tens of thousands). */
-interface Entry extends CachedWindow {
-  rev: number;
-  /** The window's first month (portfolio-index monthOrdinal). */
-  first: number;
-  /** A plain array: a typed array costs some hundred bytes of its own, times every window kept. */
-  stamps: number[];
-}
-
 /**
- * Window figures computed once per characteristic and kept while its studies do not change: re-judging after a
- * target or weight change, or opening another quarter, then costs only the comparison and the sort. An entry
- * is found by the characteristic's row in the read model (rows never move in a model), its revision, the
- * window's first month, and the stamp of every cell of the window — compared one by one, not joined into a key.
- * Entries are kept per row in an array, not in a map by the characteristic's id: at company size the lookup by
- * id string was a tenth of a first ranking. A cache asked about another model starts afresh (a model rebuilt
- * numbers its rows anew).
+ * Windows judged once per characteristic and kept while its studies do not change: re-judging after a new
+ * record set (a study written elsewhere in the portfolio), or opening another quarter, then costs only the
+ * comparison and the sort. A window is found by the characteristic's row in the read model (rows never move in a
+ * model) and its key (judge-input.ts WindowKey): the characteristic's revision, the window's months and the row's
+ * stamp, compared as numbers, not joined into a string. The window is kept as the ranking judges it, with its key
+ * in it: one object per window. Kept per row in an array (or alone, as most rows keep one window), not in a map
+ * by the characteristic's id: at company size the lookup by id string was a tenth of a first ranking. A cache
+ * asked about another model starts afresh (a model rebuilt numbers its rows anew).
  */
 export class WindowFiguresCache {
   #model: object | undefined;
-  #byRow: (Entry[] | undefined)[] = [];
+  #byRow: (JudgeInput | JudgeInput[] | undefined)[] = [];
   #size = 0;
 
   get size(): number {
@@ -46,52 +32,55 @@ export class WindowFiguresCache {
   get(
     model: object,
     row: number,
-    c: Pick<Characteristic, 'rev'>,
+    rev: number,
     first: number,
-    stamps: ArrayLike<number>
-  ): CachedWindow | undefined {
+    end: number,
+    rowStamp: number
+  ): JudgeInput | undefined {
     if (model !== this.#model) return undefined;
-    const entries = this.#byRow[row];
-    if (!entries) return undefined;
-    for (const e of entries) {
-      if (e.rev !== c.rev || e.first !== first || e.stamps.length !== stamps.length) continue;
-      let same = true;
-      for (let i = 0; i < stamps.length && same; i += 1) same = e.stamps[i] === stamps[i];
-      if (same) return e;
-    }
+    const kept = this.#byRow[row];
+    if (!kept) return undefined;
+    if (!Array.isArray(kept)) return sameWindow(kept, rev, first, end, rowStamp) ? kept : undefined;
+    for (const w of kept) if (sameWindow(w, rev, first, end, rowStamp)) return w;
     return undefined;
   }
 
-  /**
-   * `stamps` is kept as given, not copied (the ranking hands over an array it made for the lookup). Returns the
-   * window as kept, which `get` gives from then on (the value's fields, not the value).
-   */
-  set(
-    model: object,
-    row: number,
-    c: Pick<Characteristic, 'rev'>,
-    first: number,
-    stamps: number[],
-    value: CachedWindow
-  ): CachedWindow {
-    const entry: Entry = { result: value.result, months: value.months, rev: c.rev, first, stamps };
+  /** Keeps `window` (as given, found by the key it carries) for this row; returns it. */
+  set(model: object, row: number, window: JudgeInput): JudgeInput {
     if (model !== this.#model) {
       this.clear();
       this.#model = model;
     }
     if (this.#size >= TOTAL) this.clear();
-    const entries = this.#byRow[row];
-    if (!entries) {
-      this.#byRow[row] = [entry];
+    const kept = this.#byRow[row];
+    if (!kept) {
+      this.#byRow[row] = window;
       this.#size += 1;
-    } else if (entries.length < PER_CHARACTERISTIC) {
-      entries.push(entry);
+    } else if (!Array.isArray(kept)) {
+      this.#byRow[row] = [kept, window];
+      this.#size += 1;
+    } else if (kept.length < PER_CHARACTERISTIC) {
+      kept.push(window);
       this.#size += 1;
     } else {
-      // Windows of edited studies pile up otherwise: the oldest entry of this characteristic goes.
-      entries.shift();
-      entries.push(entry);
+      // Windows of edited studies pile up otherwise: the oldest of this characteristic goes.
+      kept.shift();
+      kept.push(window);
     }
-    return entry;
+    return window;
   }
+
+  /** Puts `window` where `old` was kept for this row (the same key: a record reloaded under the same revision). */
+  replace(row: number, old: JudgeInput, window: JudgeInput): void {
+    const kept = this.#byRow[row];
+    if (kept === old) this.#byRow[row] = window;
+    else if (Array.isArray(kept)) {
+      const at = kept.indexOf(old);
+      if (at >= 0) kept[at] = window;
+    }
+  }
+}
+
+function sameWindow(w: JudgeInput, rev: number, first: number, end: number, rowStamp: number): boolean {
+  return w.rowStamp === rowStamp && w.first === first && w.end === end && w.rev === rev;
 }
