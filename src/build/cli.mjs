@@ -1,15 +1,16 @@
 /**
- * `npm run cli -- …`: runs the command line from one compiled JavaScript file, so that it starts at once instead
- * of compiling TypeScript at every call. The file is built with esbuild (already the compiler under tsx and
- * Vite; one bundle of src/cli/main.ts and what it imports) into node_modules/.cache/capstan-cli/, and rebuilt
- * when any source under src/ is newer than it — a checkout, an edit — so it is never stale.
+ * `npm run cli -- …`: runs the command line from compiled JavaScript, so that it starts at once instead of
+ * compiling TypeScript at every call. It is built with esbuild (already the compiler under tsx and Vite; a bundle
+ * of src/cli/main.ts and what it imports, split where the command line loads a command's module when it runs, so
+ * that `help` loads none of them) into node_modules/.cache/capstan-cli/, and built again when any source under
+ * src/ is newer than the last build — a checkout, an edit — so it is never stale.
  */
-import { mkdirSync, readdirSync, renameSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, renameSync, rmSync, statSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
-const out = join(root, 'node_modules/.cache/capstan-cli/capstan.mjs');
+const cache = join(root, 'node_modules/.cache/capstan-cli');
 
 function newestSource(dir) {
   let newest = 0;
@@ -21,30 +22,36 @@ function newestSource(dir) {
   return newest;
 }
 
-function builtAt() {
-  try {
-    return statSync(out).mtimeMs;
-  } catch {
-    return 0;
-  }
-}
-
 const sources = ['src/cli', 'src/lib/stats', 'src/lib/domain', 'src/lib/exchange', 'src/lib/spreadsheet'];
-if (sources.some((s) => newestSource(join(root, s)) > builtAt())) {
-  const { build } = await import('esbuild');
-  mkdirSync(dirname(out), { recursive: true });
-  await build({
+// One folder per state of the sources, named by the newest source's time: a build never changes a folder a
+// running command may still load chunks from, and two calls starting together at worst both build it.
+const build = join(cache, String(Math.round(Math.max(...sources.map((s) => newestSource(join(root, s)))))));
+const entry = join(build, 'main.js');
+if (!existsSync(entry)) {
+  const esbuild = await import('esbuild');
+  const partial = `${build}.${process.pid}.tmp`;
+  mkdirSync(cache, { recursive: true });
+  await esbuild.build({
     entryPoints: [join(root, 'src/cli/main.ts')],
-    // Written under a name of its own, then renamed: a second call starting meanwhile never reads half a file.
-    outfile: `${out}.${process.pid}.tmp`,
+    outdir: partial,
     bundle: true,
+    splitting: true,
     platform: 'node',
     format: 'esm',
     target: 'node20',
-    // jStat and Papa Parse are CommonJS: give the bundle a `require` of its own.
+    // jStat and Papa Parse are CommonJS: give each file a `require` of its own.
     banner: { js: "import { createRequire as __capstanRequire } from 'node:module'; const require = __capstanRequire(import.meta.url);" },
     logLevel: 'error'
   });
-  renameSync(`${out}.${process.pid}.tmp`, out);
+  try {
+    renameSync(partial, build);
+  } catch {
+    // Another call finished the same build first: use it.
+    rmSync(partial, { recursive: true, force: true });
+  }
+  // Builds of older sources, once no command can still be running from them.
+  for (const old of readdirSync(cache))
+    if (join(cache, old) !== build && Date.now() - statSync(join(cache, old)).mtimeMs > 3_600_000)
+      rmSync(join(cache, old), { recursive: true, force: true });
 }
-await import(pathToFileURL(out).href);
+await import(pathToFileURL(entry).href);

@@ -1,7 +1,7 @@
 import { readFile } from 'node:fs/promises';
 import { readMeasurementCsv } from '../lib/spreadsheet/measurement-csv';
 import { analyzeMeasured, type ModelChoice } from '../lib/stats/analyze-measured';
-import { CANDIDATE_ORDER } from '../lib/stats/model-search';
+import { MODELS } from './model-choices';
 import type { SigmaEstimator } from '../lib/stats/sigma-estimators';
 import {
   integerFlag,
@@ -15,8 +15,6 @@ import { toJson, toTable } from './figure-report';
 import type { CliIo } from './cli-io';
 import { resolutionOf } from '../lib/domain/figure-format';
 
-/** Every model the command accepts: the engine's list of models, plus automatic choice and the quantile method. */
-export const MODELS: readonly ModelChoice[] = ['auto', ...CANDIDATE_ORDER, 'quantile'];
 const ESTIMATORS: SigmaEstimator[] = ['rbar', 'sbar', 'pooled', 'moving-range'];
 const KNOWN = [
   'lsl',

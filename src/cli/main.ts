@@ -1,7 +1,6 @@
 /** Entry point of `npm run -s cli -- …` (compiled by src/build/cli.mjs). */
 import { useExchangeHost } from '../lib/exchange/exchange-host';
-import { FAST_EXCHANGE_HOST } from './fast-exchange-host';
-import { runCli } from './run-cli';
+import { EXCHANGE_COMMANDS, runCli } from './run-cli';
 
 // A reader that stops early (`… | head`) closes the pipe: that is not an error, so stop quietly, as Unix tools do.
 process.stdout.on('error', (error: NodeJS.ErrnoException) => {
@@ -9,9 +8,12 @@ process.stdout.on('error', (error: NodeJS.ErrnoException) => {
   throw error;
 });
 
-useExchangeHost(FAST_EXCHANGE_HOST);
+const argv = process.argv.slice(2);
+// Loaded only for the commands that use it: it loads zod, which the usage text does not need.
+if (EXCHANGE_COMMANDS.has(argv[0] ?? ''))
+  useExchangeHost((await import('./fast-exchange-host')).FAST_EXCHANGE_HOST);
 
-const code = await runCli(process.argv.slice(2), {
+const code = await runCli(argv, {
   stdout: (text) => process.stdout.write(`${text}\n`),
   stderr: (text) => process.stderr.write(`${text}\n`)
 });

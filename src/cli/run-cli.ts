@@ -1,14 +1,33 @@
-import { CsvInputError } from '../lib/spreadsheet/measurement-csv';
-import { analyzeCommand, MODELS } from './analyze-command';
-import { checkCommand } from './check-command';
-import { gatherCommand } from './gather-command';
-import { mergeCommand } from './merge-command';
+import { CsvInputError } from '../lib/spreadsheet/csv-input-error';
 import { UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
-import { convertCommand } from './convert-command';
-import { countsCommand } from './counts-command';
-import { portfolioCommand } from './portfolio-command';
-import { rankCommand } from './rank-command';
+import { MODELS } from './model-choices';
+
+type Command = (args: string[], io: CliIo) => number | Promise<number>;
+
+/**
+ * Each command's module, loaded when the command runs: the usage text (and a mistyped command) then starts
+ * without loading the analyses, zod, jStat or Papa Parse — loading them all was half of the command line's start.
+ */
+const COMMANDS: Record<string, () => Promise<Command>> = {
+  analyze: async () => (await import('./analyze-command')).analyzeCommand,
+  counts: async () => (await import('./counts-command')).countsCommand,
+  convert: async () => (await import('./convert-command')).convertCommand,
+  rank: async () => (await import('./rank-command')).rankCommand,
+  check: async () => (await import('./check-command')).checkCommand,
+  merge: async () => (await import('./merge-command')).mergeCommand,
+  gather: async () => (await import('./gather-command')).gatherCommand,
+  portfolio: async () => (await import('./portfolio-command')).portfolioCommand
+};
+
+/** The commands that read or write exchange files (main.ts gives them Node's hash and the compiled schema). */
+export const EXCHANGE_COMMANDS: ReadonlySet<string> = new Set([
+  'rank',
+  'check',
+  'merge',
+  'gather',
+  'portfolio'
+]);
 
 export const USAGE = `Capstan command line — capability figures with their assumptions
 
@@ -36,33 +55,18 @@ Exit 0 on success; 2 on bad input, with one line on stderr saying what and where
 export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
   const [command, ...rest] = argv;
   try {
-    switch (command) {
-      case 'analyze':
-        return await analyzeCommand(rest, io);
-      case 'counts':
-        return countsCommand(rest, io);
-      case 'convert':
-        return convertCommand(rest, io);
-      case 'rank':
-        return await rankCommand(rest, io);
-      case 'check':
-        return await checkCommand(rest, io);
-      case 'merge':
-        return await mergeCommand(rest, io);
-      case 'gather':
-        return await gatherCommand(rest, io);
-      case 'portfolio':
-        return await portfolioCommand(rest, io);
-      case undefined:
-      case 'help':
-      case '--help':
-        io.stdout(USAGE);
-        return command === undefined ? 2 : 0;
-      default:
-        throw new UsageError(
-          `Unknown command '${command}'; use analyze, counts, convert, rank, check, merge, gather or portfolio (help lists them)`
-        );
+    if (command === undefined || command === 'help' || command === '--help') {
+      io.stdout(USAGE);
+      return command === undefined ? 2 : 0;
     }
+    const load = Object.hasOwn(COMMANDS, command) ? COMMANDS[command] : undefined;
+    if (!load)
+      throw new UsageError(
+        `Unknown command '${command}'; use ${Object.keys(COMMANDS).slice(0, -1).join(', ')} or ${Object.keys(COMMANDS).at(-1)} (help lists them)`
+      );
+    return await (
+      await load()
+    )(rest, io);
   } catch (error) {
     if (error instanceof UsageError || error instanceof CsvInputError || error instanceof RangeError) {
       io.stderr(`capstan ${command ?? ''}: ${error.message}`.replace(/\s+:/, ':'));

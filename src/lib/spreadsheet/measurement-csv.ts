@@ -1,4 +1,5 @@
 import Papa from 'papaparse';
+import { CsvInputError } from './csv-input-error';
 import { inferDecimalMark } from '../domain/decimal-mark';
 import { parseLocaleNumber, type DecimalMark } from '../domain/locale-number';
 
@@ -24,13 +25,7 @@ export interface MeasurementCsv {
   columnName: string;
 }
 
-/** A problem in the file, with the line (1-based, as an editor shows it) and column it was found in. */
-export class CsvInputError extends Error {
-  constructor(message: string) {
-    super(message);
-    this.name = 'CsvInputError';
-  }
-}
+export { CsvInputError };
 
 /**
  * Semicolon or tab when the first lines use it, comma otherwise (the common choice of European exports) —
