@@ -204,30 +204,16 @@ describe('monthly statistics read model', () => {
     const tagOf = (s: Study) => (s as Study & { localSeq: number }).localSeq;
     const model = MonthlyStatistics.fromStudies(studies, tagOf);
     const version = model.version;
-    const stamps = model.stamp.slice();
+    const stamps = model.rowStamp.slice();
     model.putAll(studies, tagOf);
     expect(model.version).toBe(version);
-    expect(model.stamp).toEqual(stamps);
+    expect(model.rowStamp).toEqual(stamps);
     model.putAll(
       [{ ...studies[1]!, localSeq: 12, data: { kind: 'defectives', units: 100, defectives: 7 } }],
       tagOf
     );
     expect(model.version).toBe(version + 1);
     expect([...model.count].filter((x) => x > 0)).toEqual([7]);
-  });
-
-  it('gives a cell a new stamp whenever it changes, and keeps it otherwise', () => {
-    const study = (id: string, period: string, mean: number) =>
-      plainStudy(id, period, { kind: 'summary', n: 10, mean, sd: 1 });
-    const model = MonthlyStatistics.fromStudies([study('a', '2026-01', 1), study('b', '2026-02', 2)]);
-    const row = model.rowOf('c0')!;
-    const jan = model.cellOf(row, monthOrdinal('2026-01'));
-    const feb = model.cellOf(row, monthOrdinal('2026-02'));
-    const before = [model.stamp[jan], model.stamp[feb]];
-    model.putAll([{ ...study('b', '2026-02', 3), rev: 2 }]);
-    expect(model.stamp[jan]).toBe(before[0]);
-    expect(model.stamp[feb]).not.toBe(before[1]);
-    expect(model.mean[feb]).toBe(3);
   });
 
   it("raises a row's stamp with every change in it, leaves other rows' alone and keeps them through growth and restore", () => {

@@ -14,7 +14,7 @@ const KIND_CODE = {
   defects: CELL.defects
 };
 
-/** Stamps are unique in the whole program, so a cache keyed by them can never mistake one model's cell for another's. */
+/** Stamps are unique in the whole program, so a cache keyed by them can never mistake one model's row for another's. */
 let nextStamp = 1;
 
 /**
@@ -142,12 +142,11 @@ export class MonthlyStatistics {
   units = new Float64Array(0);
   count = new Float64Array(0);
   opportunities = new Float64Array(0);
-  /** A number unique to each filling of a cell (stamps only grow: a later change has a higher one). */
-  stamp = new Float64Array(0);
   /**
-   * Per row, the stamp of its latest change (0 for none): a window's figures stay valid while their row's stamp
-   * does. A change in another month of the row counts too, which costs only a recomputation of that
-   * characteristic's windows; one number per window kept, where the stamps of its cells were an array each.
+   * Per row, a number unique to its latest change (0 for none; stamps only grow, in every model of the process):
+   * a window's figures stay valid while their row's stamp does. A change in another month of the row counts too,
+   * which costs only a recomputation of that characteristic's windows — where a stamp per cell, and an array of
+   * them per window kept, cost memory in proportion to every month held.
    */
   rowStamp = new Float64Array(0);
   /** Id of the study each cell shows, and its tag (see putAll; 0 when none was given). */
@@ -216,7 +215,6 @@ export class MonthlyStatistics {
     model.count = snap.count.slice(0, size);
     model.opportunities = snap.opportunities.slice(0, size);
     model.tag = snap.tag.slice(0, size);
-    model.stamp = new Float64Array(size);
     model.rowStamp = new Float64Array(snap.rowIds.length);
     model.ids = new Array<string | undefined>(size);
     model.held = new Array<Study | Study[] | undefined>(size);
@@ -230,7 +228,7 @@ export class MonthlyStatistics {
     for (let cell = 0; cell < size; cell += 1) {
       if (ids ? !ids[cell] : model.kind[cell] === CELL.empty) continue;
       if (ids) model.ids[cell] = ids[cell];
-      model.stamp[cell] = model.rowStamp[Math.floor(cell / snap.span)] = nextStamp++;
+      model.rowStamp[Math.floor(cell / snap.span)] = nextStamp++;
       model.#live += 1;
     }
     const missing: string[] = [];
@@ -482,7 +480,7 @@ export class MonthlyStatistics {
     this.ids[cell] = study.id;
     this.tag[cell] = this.#tagOf?.(study) ?? 0;
     this.held[cell] = all ?? (d.kind === 'raw' ? study : undefined);
-    this.stamp[cell] = this.rowStamp[Math.floor(cell / this.#span)] = nextStamp++;
+    this.rowStamp[Math.floor(cell / this.#span)] = nextStamp++;
     this.kind[cell] = KIND_CODE[d.kind];
     this.n[cell] = 0;
     this.mean[cell] = 0;
@@ -519,7 +517,7 @@ export class MonthlyStatistics {
     this.ids[cell] = undefined;
     this.held[cell] = undefined;
     this.kind[cell] = CELL.empty;
-    this.stamp[cell] = this.rowStamp[Math.floor(cell / this.#span)] = nextStamp++;
+    this.rowStamp[Math.floor(cell / this.#span)] = nextStamp++;
   }
 
   /** The month columns needed to hold the present ones and `month`. */
@@ -544,7 +542,6 @@ export class MonthlyStatistics {
       units: this.units,
       count: this.count,
       opportunities: this.opportunities,
-      stamp: this.stamp,
       tag: this.tag,
       ids: this.ids,
       held: this.held
@@ -558,7 +555,6 @@ export class MonthlyStatistics {
     this.units = new Float64Array(size);
     this.count = new Float64Array(size);
     this.opportunities = new Float64Array(size);
-    this.stamp = new Float64Array(size);
     this.tag = new Float64Array(size);
     this.ids = new Array<string | undefined>(size);
     this.held = new Array<Study | Study[] | undefined>(size);
@@ -578,7 +574,6 @@ export class MonthlyStatistics {
         this.units[to] = old.units[from]!;
         this.count[to] = old.count[from]!;
         this.opportunities[to] = old.opportunities[from]!;
-        this.stamp[to] = old.stamp[from]!;
         this.tag[to] = old.tag[from]!;
         this.ids[to] = old.ids[from];
         this.held[to] = old.held[from];

@@ -653,7 +653,7 @@ function prepareProcess(
     const cache = options.cache;
     const stamp = model.rowStamp[row]!;
     const kept = cache?.get(model, row, c.rev, months.firstMonth, months.end, stamp);
-    if (kept) {
+    if (cache && kept) {
       // The same revision read again as another object (a new record set): the window is kept with this one.
       if (kept.characteristic !== c) {
         const again = judgeInput(
@@ -666,7 +666,7 @@ function prepareProcess(
           kept.end,
           kept.rowStamp
         );
-        cache!.replace(row, kept, again);
+        cache.replace(row, kept, again);
         prepared[i] = again;
       } else prepared[i] = kept;
       continue;
