@@ -372,6 +372,35 @@ describe('the indexed, cached ranking gives the figures of a plain record-by-rec
     );
   });
 
+  it('ranks a record set read again (new objects, the same revisions) with its own objects, from the windows kept', () => {
+    // As a worker reads the records again after a write elsewhere: the kept windows are found by revision, and
+    // each is handed over with the characteristic object of the records ranked (a row names the one it is given).
+    fc.assert(
+      fc.property(portfolioArb, fc.integer({ min: 2, max: 14 }), (records, end) => {
+        const options = {
+          endPeriod: MONTHS[end]!,
+          windowMonths: 3,
+          trendMonths: 6,
+          cache: new WindowFiguresCache()
+        };
+        const first = rankPortfolio(records, BUILT_IN_PROFILES, options);
+        const again: PortfolioRecords = {
+          ...structuredClone({ ...records, studies: [] }),
+          studies: records.studies
+        };
+        const kept = options.cache.size;
+        const rows = rankPortfolio(again, BUILT_IN_PROFILES, options);
+        // Nothing computed again: no window was added.
+        expect(options.cache.size).toBe(kept);
+        expect(rows).toEqual(first);
+        const ownObjects = new Set(again.characteristics);
+        for (const row of rows)
+          for (const c of row.characteristics) expect(ownObjects.has(c.characteristic)).toBe(true);
+      }),
+      { numRuns: 60, seed: 20261205 }
+    );
+  });
+
   it('ranks a read model written between rankings as a fresh one: what a ranking keeps never outlives a write', () => {
     // As the app's workers hold them: one record set whose read model takes each write in place. Plans,
     // prepared windows, judged rows and kept standings are found by the model's version; ranked after every
