@@ -181,6 +181,8 @@ const portfolioArb = fc
         chars: fc.array(
           fc.record({
             counted: fc.boolean(),
+            // Counted as defects (with each month's opportunities per unit, which may differ), else defectives.
+            defects: fc.boolean(),
             archived: fc.integer({ min: 0, max: 9 }).map((x) => x === 0),
             change: fc.option(
               fc.record({
@@ -195,6 +197,7 @@ const portfolioArb = fc
                 mean: fc.double({ min: 9, max: 11, noNaN: true }),
                 sd: fc.double({ min: 0.2, max: 1.2, noNaN: true }),
                 defectives: fc.integer({ min: 0, max: 40 }),
+                opportunities: fc.integer({ min: 1, max: 3 }),
                 deleted: fc.integer({ min: 0, max: 9 }).map((x) => x === 0),
                 rev: fc.integer({ min: 1, max: 4 })
               }),
@@ -260,7 +263,14 @@ const portfolioArb = fc
             period: MONTHS[m.month]!,
             enteredBy: '',
             data: c.counted
-              ? { kind: 'defectives', units: 500, defectives: m.defectives }
+              ? c.defects
+                ? {
+                    kind: 'defects',
+                    units: 500,
+                    defects: m.defectives,
+                    opportunitiesPerUnit: m.opportunities
+                  }
+                : { kind: 'defectives', units: 500, defectives: m.defectives }
               : m.raw
                 ? { kind: 'raw', values }
                 : { kind: 'summary', n: 30, mean: m.mean, sd: m.sd },

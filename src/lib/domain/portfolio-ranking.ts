@@ -12,7 +12,7 @@ import type { Process } from './process';
 import { changeInForce, limitsFor, type Limits } from './specification-history';
 import { CELL, periodOfOrdinal, statisticsOf, type MonthlyStatistics } from './monthly-statistics';
 import type { Study, StudyData } from './study';
-import { measuredWindowOf, poolDefectMonths, poolDefectiveMonths, windowData } from './window-study';
+import { CountsFold, measuredWindowOf, windowData } from './window-study';
 
 /**
  * The portfolio: every process judged against the level its industry context requires, on one comparable
@@ -172,7 +172,7 @@ interface PerUnit {
 function perUnitInto(result: WindowFigures, out: PerUnit): PerUnit {
   if (result.kind === 'defects') {
     const fraction = 1 - result.yield;
-    const dpuBound = result.bounds.dpuUpper;
+    const dpuBound = result.dpuUpper;
     const fractionBound = dpuBound === undefined ? undefined : 1 - Math.exp(-dpuBound);
     out.z = normalUpperQuantile(Math.min(1, Math.max(0, fraction)));
     out.fraction = fraction;
@@ -182,8 +182,8 @@ function perUnitInto(result: WindowFigures, out: PerUnit): PerUnit {
   }
   out.z = result.zLevel;
   out.fraction = result.ppmTotal !== undefined ? result.ppmTotal / 1e6 : 1 - result.yield;
-  out.zBound = result.bounds.zLevelLower;
-  out.fractionBound = result.bounds.fractionUpper;
+  out.zBound = result.zLevelLower;
+  out.fractionBound = result.fractionUpper;
   return out;
 }
 
@@ -307,7 +307,7 @@ function judgeFigures(
     case 'index': {
       const measured = result.kind === 'measured' || result.kind === 'summary';
       const idx = measured ? (result.cpk ?? result.ppk) : undefined;
-      const idxBound = result.cpk !== undefined ? result.bounds.cpkLower : result.bounds.ppkLower;
+      const idxBound = result.cpk !== undefined ? result.cpkLower : result.ppkLower;
       // Counted data have no index: they are judged on their z-level against 3 × the required index.
       estimate = idx ?? zReported;
       bound = idx !== undefined ? idxBound : zBound;
@@ -842,6 +842,7 @@ function cellQuickYield(
 }
 
 const measuredFold = new MomentsFold();
+const countsFold = new CountsFold();
 
 /**
  * A window pooled from the read model's cells, by the rules of windowData (window-study.ts) — or undefined when
@@ -872,22 +873,12 @@ function pooledWindow(
     for (const cell of cells) fold.add(model.n[cell]!, model.mean[cell]!, model.sd[cell]!);
     return measuredWindowOf(fold);
   }
-  if (defectives === months)
-    return {
-      data: poolDefectiveMonths(
-        cells.map((cell) => ({ units: model.units[cell]!, defectives: model.count[cell]! }))
-      )
-    };
-  if (defects === months)
-    return {
-      data: poolDefectMonths(
-        cells.map((cell) => ({
-          units: model.units[cell]!,
-          defects: model.count[cell]!,
-          opportunitiesPerUnit: model.opportunities[cell]!
-        }))
-      )
-    };
+  if (defectives === months || defects === months) {
+    // Pooled as poolDefectiveMonths and poolDefectMonths pool, from the cells themselves (one fold reused).
+    const fold = countsFold.reset();
+    for (const cell of cells) fold.add(model.units[cell]!, model.count[cell]!, model.opportunities[cell]!);
+    return { data: defects === months ? fold.defects() : fold.defectives() };
+  }
   return undefined;
 }
 

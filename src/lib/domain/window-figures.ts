@@ -32,15 +32,16 @@ export interface WindowFigures {
   model: string;
   /** Whether the control chart showed no signal; absent where stability was not checked (summaries, counts). */
   stable?: boolean;
-  /** One-sided bounds at the result's confidence level. */
-  bounds: {
-    cpkLower?: number;
-    ppkLower?: number;
-    zLevelLower?: number;
-    /** Upper bound of the fraction out of specification (ppmTotal, else ppm, divided by 10⁶). */
-    fractionUpper?: number;
-    dpuUpper?: number;
-  };
+  /**
+   * One-sided bounds at the result's confidence level. Fields of the figures themselves, not an object of their
+   * own: every object kept per window is one more the garbage collector copies at company size.
+   */
+  cpkLower?: number;
+  ppkLower?: number;
+  zLevelLower?: number;
+  /** Upper bound of the fraction out of specification (ppmTotal, else ppm, divided by 10⁶). */
+  fractionUpper?: number;
+  dpuUpper?: number;
 }
 
 /**
@@ -67,13 +68,11 @@ export function windowFiguresOf(r: CapabilityResult): WindowFigures {
     zLevel: r.zLevel,
     model: r.model,
     stable: r.stability ? r.stability.stable : undefined,
-    bounds: {
-      cpkLower: iv.cpk?.lowerBound,
-      ppkLower: iv.ppk?.lowerBound,
-      zLevelLower: iv.zLevel?.lowerBound,
-      fractionUpper: fraction !== undefined ? fraction / 1e6 : undefined,
-      dpuUpper: iv.dpu?.upperBound
-    }
+    cpkLower: iv.cpk?.lowerBound,
+    ppkLower: iv.ppk?.lowerBound,
+    zLevelLower: iv.zLevel?.lowerBound,
+    fractionUpper: fraction !== undefined ? fraction / 1e6 : undefined,
+    dpuUpper: iv.dpu?.upperBound
   };
 }
 
@@ -126,14 +125,12 @@ export function windowFiguresOfStudy(
     zLevel: b.tails.zLevel,
     model: 'normal',
     stable: undefined,
-    bounds: {
-      cpkLower: b.within?.cpkLower,
-      ppkLower: b.ppkLower,
-      zLevelLower: b.zLevelLower,
-      // Through ppm and back, as windowFiguresOf does with a full result: the same number to the last bit.
-      fractionUpper: b.fractionUpper !== undefined ? (b.fractionUpper * 1e6) / 1e6 : undefined,
-      dpuUpper: undefined
-    }
+    cpkLower: b.within?.cpkLower,
+    ppkLower: b.ppkLower,
+    zLevelLower: b.zLevelLower,
+    // Through ppm and back, as windowFiguresOf does with a full result: the same number to the last bit.
+    fractionUpper: b.fractionUpper !== undefined ? (b.fractionUpper * 1e6) / 1e6 : undefined,
+    dpuUpper: undefined
   };
 }
 
@@ -180,9 +177,19 @@ function defectsWindowFigures(units: number, defects: number, opportunitiesPerUn
 
 type CountFigures = Pick<
   WindowFigures,
-  'kind' | 'n' | 'p' | 'dpu' | 'dpmo' | 'ppmTotal' | 'yield' | 'zLevel' | 'model'
-> &
-  Pick<WindowFigures['bounds'], 'zLevelLower' | 'fractionUpper' | 'dpuUpper'>;
+  | 'kind'
+  | 'n'
+  | 'p'
+  | 'dpu'
+  | 'dpmo'
+  | 'ppmTotal'
+  | 'yield'
+  | 'zLevel'
+  | 'model'
+  | 'zLevelLower'
+  | 'fractionUpper'
+  | 'dpuUpper'
+>;
 
 /** A count's figures as one literal with every field (as windowFiguresOf), those of measured data absent. */
 function countWindowFigures(c: CountFigures): WindowFigures {
@@ -202,12 +209,10 @@ function countWindowFigures(c: CountFigures): WindowFigures {
     zLevel: c.zLevel,
     model: c.model,
     stable: undefined,
-    bounds: {
-      cpkLower: undefined,
-      ppkLower: undefined,
-      zLevelLower: c.zLevelLower,
-      fractionUpper: c.fractionUpper,
-      dpuUpper: c.dpuUpper
-    }
+    cpkLower: undefined,
+    ppkLower: undefined,
+    zLevelLower: c.zLevelLower,
+    fractionUpper: c.fractionUpper,
+    dpuUpper: c.dpuUpper
   };
 }

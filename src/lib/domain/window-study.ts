@@ -68,33 +68,61 @@ export function measuredWindowOf(fold: MomentsFold): Pick<WindowData, 'data' | '
   return sdWithin !== undefined ? { data, sdWithin } : { data };
 }
 
-/** Months of defectives counts: units and defectives summed. */
-export function poolDefectiveMonths(counts: readonly Omit<DefectivesData, 'kind'>[]): DefectivesData {
-  let units = 0;
-  let defectives = 0;
-  for (const d of counts) {
-    units += d.units;
-    defectives += d.defectives;
+/**
+ * Months of counts added one by one (in month order), pooled by the rules below: the one home of those rules, for
+ * months given as records (poolDefectiveMonths, poolDefectMonths) and as read-model cells (the portfolio's
+ * ranking, which reuses one fold rather than building an array of objects per window).
+ */
+export class CountsFold {
+  #units = 0;
+  #count = 0;
+  #opportunities = 0;
+  #perUnit = NaN;
+  #samePerUnit = true;
+
+  reset(): this {
+    this.#units = this.#count = this.#opportunities = 0;
+    this.#perUnit = NaN;
+    this.#samePerUnit = true;
+    return this;
   }
-  return { kind: 'defectives', units, defectives };
+
+  /** A month's units and count (defectives or defects), with its opportunities per unit for defects. */
+  add(units: number, count: number, opportunitiesPerUnit = 1): this {
+    if (Number.isNaN(this.#perUnit)) this.#perUnit = opportunitiesPerUnit;
+    else if (opportunitiesPerUnit !== this.#perUnit) this.#samePerUnit = false;
+    this.#units += units;
+    this.#count += count;
+    this.#opportunities += units * opportunitiesPerUnit;
+    return this;
+  }
+
+  /** Months of defectives counts: units and defectives summed. */
+  defectives(): DefectivesData {
+    return { kind: 'defectives', units: this.#units, defectives: this.#count };
+  }
+
+  /**
+   * Months of defect counts: summed when every month has the same opportunities per unit; otherwise compared on
+   * defects per opportunity, as one unit with all opportunities.
+   */
+  defects(): DefectsData {
+    return this.#samePerUnit
+      ? { kind: 'defects', units: this.#units, defects: this.#count, opportunitiesPerUnit: this.#perUnit }
+      : { kind: 'defects', units: this.#opportunities, defects: this.#count, opportunitiesPerUnit: 1 };
+  }
 }
 
-/**
- * Months of defect counts: summed when every month has the same opportunities per unit; otherwise compared on
- * defects per opportunity, as one unit with all opportunities.
- */
+/** Months of defectives counts pooled (CountsFold.defectives). */
+export function poolDefectiveMonths(counts: readonly Omit<DefectivesData, 'kind'>[]): DefectivesData {
+  const fold = new CountsFold();
+  for (const d of counts) fold.add(d.units, d.defectives);
+  return fold.defectives();
+}
+
+/** Months of defect counts pooled (CountsFold.defects). */
 export function poolDefectMonths(counts: readonly Omit<DefectsData, 'kind'>[]): DefectsData {
-  let defects = 0;
-  let units = 0;
-  let opportunities = 0;
-  let same = true;
-  for (const d of counts) {
-    defects += d.defects;
-    units += d.units;
-    opportunities += d.units * d.opportunitiesPerUnit;
-    if (d.opportunitiesPerUnit !== counts[0]!.opportunitiesPerUnit) same = false;
-  }
-  return same
-    ? { kind: 'defects', units, defects, opportunitiesPerUnit: counts[0]!.opportunitiesPerUnit }
-    : { kind: 'defects', units: opportunities, defects, opportunitiesPerUnit: 1 };
+  const fold = new CountsFold();
+  for (const d of counts) fold.add(d.units, d.defects, d.opportunitiesPerUnit);
+  return fold.defects();
 }
