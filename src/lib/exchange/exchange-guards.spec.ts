@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { duplicateKeyProblem } from './exchange-guards';
+import { duplicateKeyProblem, structuralProblem } from './exchange-guards';
 
 /** JSON text, and whether one of its objects writes a key twice. */
 interface Written {
@@ -59,5 +59,26 @@ describe('a key written twice in one object', () => {
     );
     const clean = '{"a":{"b":"x:y","c":"\\"d\\":"}}';
     expect(duplicateKeyProblem(clean, JSON.parse(clean))).toBeUndefined();
+  });
+});
+
+describe('the structure of a parsed file', () => {
+  it('names where a problem sits, from the top of the file', () => {
+    const deep: Record<string, unknown> = {};
+    let at = deep;
+    for (let i = 0; i < 20; i++) at = (at.x = {}) as Record<string, unknown>;
+    expect(structuralProblem(deep, 10)).toBe(
+      'x.x.x.x.x.x.x.x.x.x.x.x.x.x.x.x is nested more than 16 levels deep'
+    );
+    expect(structuralProblem({ records: { studies: [{ data: { values: [1, [2]] } }] } }, 10)).toBe(
+      'records.studies[0].data.values[1] must be a number, not a list or object'
+    );
+    expect(structuralProblem({ records: { sites: [1, 2, 3] } }, 2)).toBe(
+      'records.sites holds 3 entries, more than the 2 allowed'
+    );
+    expect(structuralProblem(JSON.parse('{"records":{"sites":[{"id":"s"},{"constructor":1}]}}'), 10)).toBe(
+      'records.sites[1].constructor: the key "constructor" is not allowed in a Capstan file'
+    );
+    expect(structuralProblem([[[]]], 10)).toBeUndefined();
   });
 });
