@@ -33,7 +33,7 @@ import {
   type WriteContext
 } from './record-meta';
 import type { Study } from './study';
-import { studyMonthKey } from './study-month';
+import { StudyMonthSet, studyMonthKey } from './study-month';
 
 /**
  * Merging a change set into the records of one side — the one merge of Capstan: the app's import (through the
@@ -315,7 +315,7 @@ export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): St
     if (c.kind === 'studies' && c.incoming && (isLive(c.incoming) || (c.local && isLive(c.local))))
       mayRevive.add(c.key);
   const months: MergeConflict[] = [];
-  const seenMonths = new Set<string>();
+  const seenMonths = new StudyMonthSet();
   const monthsToCheck: Study[] = [
     ...incoming.studies,
     ...[...restorable].map((id) => planned.record(id) as Study)
@@ -327,13 +327,12 @@ export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): St
   };
   for (const study of monthsToCheck) {
     if (pause()) yield;
-    const key = studyMonthKey(study);
-    if (seenMonths.has(key)) continue;
+    if (seenMonths.has(study)) continue;
     const peers = planned
       .studiesOfMonth(study.characteristicId, study.period)
       .filter((st) => isLive(st) || restorable.has(st.id) || mayRevive.has(st.id));
     if (peers.length < 2) continue;
-    seenMonths.add(key);
+    seenMonths.add(study);
     const [a, b] = peers.sort(
       (x, y) => Number(fromFile(x)) - Number(fromFile(y)) || (x.id < y.id ? -1 : 1)
     ) as [Study, Study];
@@ -357,15 +356,14 @@ export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): St
   for (const study of incoming.studies) {
     if (pause()) yield;
     if (!isLive(study)) continue;
-    const key = studyMonthKey(study);
-    if (seenMonths.has(key)) continue;
+    if (seenMonths.has(study)) continue;
     const here = local.studiesOfMonth(study.characteristicId, study.period).filter(isLive);
     if (here.length === 0 || here.some((h) => h.id === study.id)) continue;
     const after = planned
       .studiesOfMonth(study.characteristicId, study.period)
       .filter((st) => isLive(st) || restorable.has(st.id));
     if (after.length > 0) continue;
-    seenMonths.add(key);
+    seenMonths.add(study);
     const a = here[0] as Study;
     months.push({
       key: monthConflictKey(study),

@@ -19,7 +19,7 @@ import {
 } from './record-meta';
 import { commandLineWriter, mergeRecordSets } from './record-set-merge';
 import type { Study } from './study';
-import { studyMonthKey } from './study-month';
+import { StudyMonthSet } from './study-month';
 
 /**
  * Many record sets gathered into one (the command line's `gather` of a shared folder). The result supersedes
@@ -111,7 +111,7 @@ function fastGather(
     RecordKind,
     RecordMeta[]
   >;
-  const liveMonths = new Set<string>();
+  const liveMonths = new StudyMonthSet();
   for (const { kind, record } of byId.values()) {
     const parent = parentIdOf(kind, record);
     const parentRecord = parent === undefined ? undefined : byId.get(parent)?.record;
@@ -121,9 +121,8 @@ function fastGather(
     if (isLive(record)) {
       if (parentRecord && !isLive(parentRecord)) return undefined;
       if (kind === 'studies') {
-        const month = studyMonthKey(record as Study);
-        if (liveMonths.has(month)) return undefined;
-        liveMonths.add(month);
+        if (liveMonths.has(record as Study)) return undefined;
+        liveMonths.add(record as Study);
       }
     }
     out[kind].push(record);

@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { isLive } from './record-meta';
 import type { Study } from './study';
-import { liveMonthClashes, studyMonthKey } from './study-month';
+import { liveMonthClashes, StudyMonthSet, studyMonthKey } from './study-month';
 
 function study(id: string, characteristicId: string, period: string, deleted = false): Study {
   return {
@@ -60,6 +60,39 @@ describe('liveMonthClashes', () => {
         }
       ),
       { numRuns: 300, seed: 7 }
+    );
+  });
+});
+
+describe('StudyMonthSet', () => {
+  it('holds exactly the characteristic-months added, as a set of studyMonthKey strings does', () => {
+    fc.assert(
+      fc.property(
+        fc.array(
+          fc.record({
+            characteristicId: fc.constantFrom('c1', 'c2', 'c|2026-01', 'c'),
+            period: fc.constantFrom('2026-01', '2026-02')
+          }),
+          { maxLength: 12 }
+        ),
+        fc.array(
+          fc.record({
+            characteristicId: fc.constantFrom('c1', 'c2', 'c|2026-01', 'c'),
+            period: fc.constantFrom('2026-01', '2026-02')
+          }),
+          { maxLength: 12 }
+        ),
+        (added, asked) => {
+          const set = new StudyMonthSet();
+          const keys = new Set<string>();
+          for (const a of added) {
+            set.add(a);
+            keys.add(studyMonthKey(a));
+          }
+          for (const a of [...added, ...asked]) expect(set.has(a)).toBe(keys.has(studyMonthKey(a)));
+        }
+      ),
+      { numRuns: 300, seed: 11 }
     );
   });
 });

@@ -11,6 +11,25 @@ export function studyMonthKey(study: Pick<Study, 'characteristicId' | 'period'>)
   return `${study.characteristicId}|${study.period}`;
 }
 
+/**
+ * A set of characteristic-months (the pairs studyMonthKey names), held as its two parts, characteristic then
+ * month: checking a company's 72 000 studies against a set of key strings built a string for each, twice.
+ */
+export class StudyMonthSet {
+  readonly #months = new Map<string, Set<string>>();
+
+  has(study: Pick<Study, 'characteristicId' | 'period'>): boolean {
+    return this.#months.get(study.characteristicId)?.has(study.period) ?? false;
+  }
+
+  add(study: Pick<Study, 'characteristicId' | 'period'>): this {
+    let months = this.#months.get(study.characteristicId);
+    if (!months) this.#months.set(study.characteristicId, (months = new Set()));
+    months.add(study.period);
+    return this;
+  }
+}
+
 /** The characteristic a studyMonthKey names. */
 export function characteristicOfMonthKey(key: string): string {
   return key.slice(0, key.lastIndexOf('|'));

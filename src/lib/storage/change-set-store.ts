@@ -30,7 +30,7 @@ import {
   type WriteContext
 } from '../domain/record-meta';
 import type { Study } from '../domain/study';
-import { studyMonthKey } from '../domain/study-month';
+import { StudyMonthSet } from '../domain/study-month';
 import type { CapstanDatabase, StudyRevision } from './database';
 import { LAST_EXPORT_KEY } from './backup-status';
 import { saveClock } from './device-identity';
@@ -279,10 +279,11 @@ async function snapshotFor(
     );
   }
   // Studies of every month the file logs.
-  const months = new Set(records.studies.map(studyMonthKey));
+  const months = new StudyMonthSet();
+  for (const study of records.studies) months.add(study);
   add(
     'studies',
-    shelved.filter((r) => !have(r.id) && months.has(studyMonthKey(r)))
+    shelved.filter((r) => !have(r.id) && months.has(r))
   );
   // Families: descendants of every parent deleted on either side.
   const incomingById = new Map<string, RecordMeta>();
