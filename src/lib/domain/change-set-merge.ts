@@ -22,6 +22,7 @@ import {
 } from './record-merge';
 import {
   clockOf,
+  compareById,
   editableOf,
   isLive,
   stampDeleted,
@@ -623,6 +624,6 @@ export function mergedRecordSet(index: RecordIndex): RecordsByKind {
     RecordMeta[]
   >;
   for (const { kind, record } of index.values()) out[kind].push(travelling(record));
-  for (const kind of RECORD_KINDS) out[kind].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  for (const kind of RECORD_KINDS) out[kind].sort(compareById);
   return out as unknown as RecordsByKind;
 }

@@ -1,5 +1,5 @@
 import { compareEdits } from './edit-order';
-import { isLive } from './record-meta';
+import { compareById, isLive } from './record-meta';
 import type { Study } from './study';
 
 /**
@@ -60,8 +60,7 @@ export function liveMonthClashes<T extends Study>(studies: Iterable<T>): T[][] {
     else slots[at] = [held, s];
   }
   const out: T[][] = [];
-  for (const slot of slots)
-    if (Array.isArray(slot)) out.push(slot.sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)));
+  for (const slot of slots) if (Array.isArray(slot)) out.push(slot.sort(compareById));
   return out;
 }
 
