@@ -87,6 +87,18 @@ export interface MasterListPlan {
   rows: number;
 }
 
+/** A plan that changes nothing, for `rows` rows read: where planning starts, and the answer to a list refused. */
+export function emptyMasterListPlan(rows: number): MasterListPlan {
+  return {
+    sites: { create: [], update: [] },
+    processes: { create: [], update: [] },
+    characteristics: { create: [], update: [] },
+    limitChanges: [],
+    badRows: [],
+    rows
+  };
+}
+
 export interface ExistingPortfolio {
   sites: readonly Site[];
   processes: readonly Process[];
@@ -159,14 +171,7 @@ export function planMasterList(
     onProgress?: (checked: number, total: number) => void;
   }
 ): MasterListPlan {
-  const plan: MasterListPlan = {
-    sites: { create: [], update: [] },
-    processes: { create: [], update: [] },
-    characteristics: { create: [], update: [] },
-    limitChanges: [],
-    badRows: [],
-    rows: rows.length
-  };
+  const plan = emptyMasterListPlan(rows.length);
   const liveSites = existing.sites.filter(isLive);
   const siteByKey = new Map(liveSites.map((s) => [siteKeyOf(s.name), s]));
   const siteNameById = new Map(liveSites.map((s) => [s.id, s.name]));

@@ -6,6 +6,7 @@
  */
 import type { ContextProfile } from '../domain/context-profile';
 import {
+  emptyMasterListPlan,
   planMasterList,
   type ExistingPortfolio,
   type MasterListKey,
@@ -41,15 +42,11 @@ scope.onmessage = (event: MessageEvent<MasterListRequest>) => {
     const list = readMasterList(text, { delimiter, decimal, columns });
     const { rows, ...about } = list;
     if (list.missing.length > 0) {
-      const empty: MasterListPlan = {
-        sites: { create: [], update: [] },
-        processes: { create: [], update: [] },
-        characteristics: { create: [], update: [] },
-        limitChanges: [],
-        badRows: [],
-        rows: rows.length
-      };
-      scope.postMessage({ type: 'done', list: about, plan: empty } satisfies MasterListMessage);
+      scope.postMessage({
+        type: 'done',
+        list: about,
+        plan: emptyMasterListPlan(rows.length)
+      } satisfies MasterListMessage);
       return;
     }
     scope.postMessage({
