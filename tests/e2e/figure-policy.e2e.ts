@@ -84,6 +84,22 @@ for (const [label, width, height] of [
         async () => {
           await page.getByTestId('portfolio-table').locator('tbody tr').first().locator('a').first().click();
           await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
+          // Every month's figures in (they are computed in the background): the checks read them all.
+          await expect(page.getByTestId('figures-pending')).toHaveCount(0);
+        }
+      ],
+      [
+        'process page with models compared',
+        async () => {
+          // A process whose surface roughness is not normal: the page lists the models compared, a wide table.
+          await nav('Portfolio');
+          await page
+            .getByTestId('portfolio-table')
+            .locator('tbody tr a', { hasText: 'Camshaft journal grinding — line A' })
+            .first()
+            .click();
+          await expect(page.getByRole('region', { name: /^Models compared for/ }).first()).toBeVisible();
+          await expect(page.getByTestId('figures-pending')).toHaveCount(0);
         }
       ],
       ['process list', async () => nav('Process')],

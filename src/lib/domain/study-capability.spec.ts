@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import demo from '../../../seed-data/demo-portfolio.json';
 import { expectRelative } from '../../../tests/support/reference-data';
 import { parseDemoPortfolio } from './demo-portfolio-schema';
-import { capabilityOfStudy } from './study-capability';
+import { capabilityOfStudy, figuresOrReason } from './study-capability';
 
 const portfolio = parseDemoPortfolio(demo);
 const byId = new Map(portfolio.records.characteristics.map((c) => [c.id, c]));
@@ -53,5 +53,15 @@ describe('capability of stored studies', () => {
         counted
       ).dpmo
     ).toBe(10000);
+  });
+
+  it("gives the figures of a study, or the analysis's own reason where there can be none (the process page's cell)", () => {
+    const measured = { lsl: 9, usl: 11, dataKind: 'measured' as const };
+    const study = { data: { kind: 'summary' as const, n: 50, mean: 10, sd: 0.25 }, period: '2026-05' };
+    expect(figuresOrReason(study, measured)).toEqual(capabilityOfStudy(study, measured));
+    const one = { data: { kind: 'raw' as const, values: [10] }, period: '2026-05' };
+    const reason = figuresOrReason(one, measured);
+    expect(typeof reason).toBe('string');
+    expect(() => capabilityOfStudy(one, measured)).toThrow(reason as string);
   });
 });

@@ -57,3 +57,18 @@ export function capabilityOfStudy(
       return analyzeDefects(data.units, data.defects, data.opportunitiesPerUnit, confidence);
   }
 }
+
+/**
+ * A study's figures, or why there are none (the analysis's own message, as the process page shows it in the
+ * month's row). The one reading of "figures or reason" for the page and the worker that computes them for it.
+ */
+export function figuresOrReason(
+  study: Pick<StudyFields, 'data' | 'period'>,
+  characteristic: Parameters<typeof capabilityOfStudy>[1]
+): CapabilityResult | string {
+  try {
+    return capabilityOfStudy(study, characteristic);
+  } catch (error) {
+    return error instanceof Error ? error.message : String(error);
+  }
+}
