@@ -382,9 +382,9 @@ export async function companyScaleRows(
         void page.goto(new URL(href ?? '/', app.url).href);
         await page.waitForURL(/\/process\//);
       },
-      () =>
-        page.getByRole('heading', { level: 1 }).filter({ hasText: 'Line' }).waitFor({ timeout: patience }),
-      'process-heading'
+      // The figures come from the page's worker after the name: timed to the first month's yield.
+      () => page.locator('td[data-label="Yield"]').first().waitFor({ timeout: patience }),
+      'process-figures'
     );
     await cdp.send('Emulation.setCPUThrottlingRate', { rate: 1 });
   } finally {

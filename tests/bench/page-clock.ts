@@ -14,8 +14,8 @@ const SIGHTS = {
   'exchange-done': '[data-testid="exchange-done"]',
   'portfolio-row': '[data-testid="portfolio-table"] tbody tr',
   headline: '[data-testid="headline"]',
-  /** The process page's name: a first-level heading naming a line of the company's portfolio. */
-  'process-heading': 'h1'
+  /** The process page's first month's figures (computed in a worker, shown after the name). */
+  'process-figures': 'td[data-label="Yield"]'
 } as const;
 export type Sight = keyof typeof SIGHTS;
 
@@ -27,11 +27,7 @@ const INIT = `(() => {
   const sights = ${JSON.stringify(SIGHTS)};
   const clock = { seen: {}, old: {}, events: {} };
   window.capstanClock = clock;
-  const find = (key) => {
-    const all = document.querySelectorAll(sights[key]);
-    for (const el of all) if (key !== 'process-heading' || (el.textContent || '').includes('Line')) return el;
-    return null;
-  };
+  const find = (key) => document.querySelector(sights[key]);
   clock.find = find;
   new MutationObserver(() => {
     for (const key of Object.keys(sights)) {
