@@ -14,7 +14,7 @@ import { startStaticServer, waitForServiceWorker } from '../e2e/static-server';
 import type { BenchRow } from './engine-bench';
 import { masterListText } from './master-list-rows';
 import { companyPortfolioFile } from './company-portfolio-file';
-import { installPageClock, pageClockMs, restartPageClock, type Sight } from './page-clock';
+import { installPageClock, pageClockMs, restartPageClock, SIGHTS, type Sight } from './page-clock';
 import { createServer } from 'node:net';
 
 /** A free local TCP port, for Chromium's remote-debugging endpoint. */
@@ -168,27 +168,22 @@ function storedReadModelExists(): Promise<boolean> {
   });
 }
 
-/** In the page: whether every review section is drawn and every chart on the page has its drawing. */
-function reviewFullyDrawn(): boolean {
-  const pending = [...document.querySelectorAll('[role=status]')].some((e) =>
-    e.textContent?.includes('Drawing this section')
-  );
+/**
+ * In the page: whether everything is drawn — no review section still waiting for its turn, no month's figures
+ * still computing (the process page), and every chart on the page with its drawing.
+ */
+function everythingDrawn(): boolean {
+  const pending =
+    document.querySelector('[data-testid="figures-pending"]') !== null ||
+    [...document.querySelectorAll('[role=status]')].some((e) =>
+      e.textContent?.includes('Drawing this section')
+    );
   const figures = [...document.querySelectorAll('figure')];
   return !pending && figures.length > 0 && figures.every((f) => f.querySelector('svg') !== null);
 }
 
 /** The demo's process with two characteristics of raw values, one of them not normal. */
 const RAW_DEMO_PROCESS = 'Camshaft journal grinding — line A';
-
-/** In the page: whether a process page has every month's figures and every chart its drawing. */
-function processFullyDrawn(): boolean {
-  const figures = [...document.querySelectorAll('figure')];
-  return (
-    document.querySelector('[data-testid="figures-pending"]') === null &&
-    figures.length > 0 &&
-    figures.every((f) => f.querySelector('svg') !== null)
-  );
-}
 
 /** In the page: removes the stored read model, as on a device that never ranked. */
 function deleteStoredReadModel(): Promise<void> {
@@ -367,7 +362,7 @@ export async function companyScaleRows(
     // until the last chart is drawn, the first time the chart library is loaded included.
     {
       const t = Date.now();
-      while (!(await page.evaluate(reviewFullyDrawn))) {
+      while (!(await page.evaluate(everythingDrawn))) {
         if (Date.now() - t > patience)
           throw new Error(`the review was not fully drawn within ${patience / 60_000} minutes`);
         await page.waitForTimeout(100);
@@ -396,7 +391,7 @@ export async function companyScaleRows(
         await page.waitForURL(/\/process\//);
       },
       // The figures come from the page's worker after the name: timed to the first month's yield.
-      () => page.locator('td[data-label="Yield"]').first().waitFor({ timeout: patience }),
+      () => page.locator(SIGHTS['process-figures']).first().waitFor({ timeout: patience }),
       'process-figures'
     );
     await cdp.send('Emulation.setCPUThrottlingRate', { rate: 1 });
@@ -451,10 +446,10 @@ export async function firstLoadRows(browser: Browser): Promise<BenchRow[]> {
   void first.goto(new URL(href ?? '/', app.url).href);
   await first.waitForURL(/\/process\//);
   const watch = await watchMainThread(first);
-  await first.locator('td[data-label="Yield"]').first().waitFor();
+  await first.locator(SIGHTS['process-figures']).first().waitFor();
   const figuresShown = await pageClockMs(first, 'process-figures');
   const t2 = Date.now();
-  while (!(await first.evaluate(processFullyDrawn))) {
+  while (!(await first.evaluate(everythingDrawn))) {
     if (Date.now() - t2 > 60_000) throw new Error('the process page was not fully drawn within a minute');
     await first.waitForTimeout(100);
   }

@@ -8,8 +8,8 @@ import type { BrowserContext, Page } from '@playwright/test';
  * waits with Playwright; the figure is the page's.
  */
 
-/** Things a row waits for, each as the page finds it. */
-const SIGHTS = {
+/** Things a row waits for, each as the page finds it (a CSS selector). */
+export const SIGHTS = {
   'import-preview': '[data-testid="import-preview"]',
   'exchange-done': '[data-testid="exchange-done"]',
   'portfolio-row': '[data-testid="portfolio-table"] tbody tr',
