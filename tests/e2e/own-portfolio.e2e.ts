@@ -174,6 +174,19 @@ test('a company sets up its own portfolio offline from an empty profile and keep
   await page.getByTestId('confirm-start-project').click();
   await expect(page.getByText('Started the project “Centre the bore” (Define phase)')).toBeVisible();
   await page.getByTestId('row-detail').getByRole('link', { name: 'Valve body boring' }).click();
+  // The logged month's figures, computed by the page's worker from the company's own record.
+  await expect(page.getByTestId('figures-pending')).toHaveCount(0);
+  await expect(page.locator('td[data-label="Yield"]').first()).toBeVisible();
+  await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
+  const viewport = page.viewportSize();
+  for (const [width, height] of [
+    [1366, 900],
+    [390, 844]
+  ] as const) {
+    await page.setViewportSize({ width, height });
+    await page.screenshot({ path: `tests/e2e/.output/pages/${width}-own-process-page.png`, fullPage: true });
+  }
+  if (viewport) await page.setViewportSize(viewport);
   await expect(page.getByTestId('limit-history')).toContainText(`From ${MONTH}`);
   await expect(page.getByTestId('limit-history')).toContainText('drawing revision C');
   await page.getByRole('button', { name: 'Edit project Centre the bore' }).click();
