@@ -38,23 +38,27 @@ function twoDigits(text: string, at: number): number {
   return a >= 0 && a <= 9 && b >= 0 && b <= 9 ? a * 10 + b : NaN;
 }
 
+/** Whether text has the shape of the form Capstan writes (`2026-11-03T08:15:00.000Z`), digits not looked at. */
+function hasWrittenShape(text: string): boolean {
+  return (
+    text.length === 24 &&
+    text.charCodeAt(4) === 45 &&
+    text.charCodeAt(7) === 45 &&
+    text.charCodeAt(10) === 84 &&
+    text.charCodeAt(13) === 58 &&
+    text.charCodeAt(16) === 58 &&
+    text.charCodeAt(19) === 46 &&
+    text.charCodeAt(23) === 90
+  );
+}
+
 /**
  * The form every stamp Capstan writes has (`toISOString`: `2026-11-03T08:15:00.000Z`), read by character codes.
  * A file of a company's portfolio carries hundreds of thousands of stamps; a regular expression and `Date.parse`
  * each were a third of reading it. Returns null when the text has another form (the general reading decides).
  */
 function canonicalTimeMs(text: string): number | undefined | null {
-  if (
-    text.length !== 24 ||
-    text.charCodeAt(4) !== 45 ||
-    text.charCodeAt(7) !== 45 ||
-    text.charCodeAt(10) !== 84 ||
-    text.charCodeAt(13) !== 58 ||
-    text.charCodeAt(16) !== 58 ||
-    text.charCodeAt(19) !== 46 ||
-    text.charCodeAt(23) !== 90
-  )
-    return null;
+  if (!hasWrittenShape(text)) return null;
   const year = twoDigits(text, 0) * 100 + twoDigits(text, 2);
   const month = twoDigits(text, 5);
   const day = twoDigits(text, 8);
@@ -102,6 +106,24 @@ export function isCalendarDate(text: string): boolean {
 /** Whether an instant lies more than the tolerance ahead of `nowMs` (the reading device's clock). */
 export function isAheadOfClock(ms: number, nowMs: number): boolean {
   return ms > nowMs + CLOCK_TOLERANCE_MS;
+}
+
+/**
+ * For reading many date-times against one clock (a file's records): the milliseconds of `text` when it is a
+ * date-time (calendarTimeMs) ahead of `nowMs` (isAheadOfClock), else undefined. Text in the form Capstan writes
+ * sorts as its instants do (fixed-width digits, years 2000–2199), so such text at or before the clock's limit is
+ * answered by comparing it with the limit's own text, without reading its date: a company's file holds a few
+ * hundred thousand stamps, and every one had been read twice, once by the schema and once here.
+ */
+export function timeAheadOfClock(nowMs: number): (text: string) => number | undefined {
+  const limitMs = nowMs + CLOCK_TOLERANCE_MS;
+  // Written as toISOString writes it (milliseconds cut, not rounded: text at the limit's millisecond is not ahead).
+  const limit = limitMs >= 0 && limitMs < LATEST_RECORD_MS ? new Date(limitMs).toISOString() : undefined;
+  return (text) => {
+    if (limit !== undefined && hasWrittenShape(text) && text <= limit) return undefined;
+    const ms = calendarTimeMs(text);
+    return ms !== undefined && isAheadOfClock(ms, nowMs) ? ms : undefined;
+  };
 }
 
 /** How far ahead, in words, for messages ("3 days", "2 hours"). */

@@ -1,10 +1,10 @@
-import { stampWallMs } from '../domain/hybrid-clock';
+import { parseStamp } from '../domain/hybrid-clock';
 import { periodOf } from '../domain/period';
 import { KIND_LABEL, RECORD_KINDS, type RecordKind, type RecordsByKind } from '../domain/record-kinds';
 import type { RecordMeta } from '../domain/record-meta';
 import type { Study } from '../domain/study';
 import { liveMonthClashes } from '../domain/study-month';
-import { calendarTimeMs, durationWords, isAheadOfClock } from '../domain/time-bounds';
+import { durationWords, isAheadOfClock, timeAheadOfClock } from '../domain/time-bounds';
 import { printable } from './exchange-guards';
 import { bookkeepingProblem, type ExchangeHeader } from './exchange-schema';
 
@@ -69,8 +69,9 @@ export function changeSetProblem(
   records: RecordsByKind,
   nowMs: number
 ): string | undefined {
-  const exported = calendarTimeMs(header.exportedAt);
-  if (exported !== undefined && isAheadOfClock(exported, nowMs)) {
+  const aheadMs = timeAheadOfClock(nowMs);
+  const exported = aheadMs(header.exportedAt);
+  if (exported !== undefined) {
     return `header.exportedAt: the file was written ${durationWords(exported - nowMs)} ahead of this device's clock by device ${header.exportedBy.deviceId} (${header.exportedAt}) — correct the clock of one of the two devices, then export again`;
   }
   const latestPeriod = latestAcceptedPeriod(nowMs);
@@ -79,23 +80,24 @@ export function changeSetProblem(
     const list = records[kind] as (RecordMeta & { vv: Record<string, number>; clock: string })[];
     for (let i = 0; i < list.length; i++) {
       const r = list[i]!;
-      // Named only when a problem is found: building it for each record was a tenth of these checks' time.
-      const place = () => recordPlace(kind, i, r.id);
-      const bookkeeping = bookkeepingProblem(r);
-      if (bookkeeping) return `${place()}, ${bookkeeping.field}: ${bookkeeping.message}`;
-      const wall = stampWallMs(r.clock);
+      // The record's place is named only when a problem is found (recordPlace): building it for each record was
+      // a tenth of these checks' time. Its stamp is read once, for its writer and its time.
+      const stamp = parseStamp(r.clock);
+      const bookkeeping = bookkeepingProblem(r, stamp);
+      if (bookkeeping) return `${recordPlace(kind, i, r.id)}, ${bookkeeping.field}: ${bookkeeping.message}`;
+      const wall = stamp?.wallMs ?? Number.NaN;
       if (isAheadOfClock(wall, nowMs)) {
-        return `${place()}, clock: written by device ${r.deviceId} with a clock stamp ${durationWords(wall - nowMs)} ahead of this device's clock (${new Date(Math.min(wall, 8.64e15)).toISOString()} against ${new Date(nowMs).toISOString()}) — one of the two clocks is wrong; correct it, then try again`;
+        return `${recordPlace(kind, i, r.id)}, clock: written by device ${r.deviceId} with a clock stamp ${durationWords(wall - nowMs)} ahead of this device's clock (${new Date(Math.min(wall, 8.64e15)).toISOString()} against ${new Date(nowMs).toISOString()}) — one of the two clocks is wrong; correct it, then try again`;
       }
       for (const field of TIME_FIELDS) {
         const value = r[field];
-        const ms = value === undefined ? undefined : calendarTimeMs(value);
-        if (ms !== undefined && isAheadOfClock(ms, nowMs)) {
-          return `${place()}, ${field}: ${value} is ${durationWords(ms - nowMs)} ahead of this device's clock (written by device ${r.deviceId}) — one of the two clocks is wrong; correct it, then try again`;
+        const ms = value === undefined ? undefined : aheadMs(value);
+        if (ms !== undefined) {
+          return `${recordPlace(kind, i, r.id)}, ${field}: ${value} is ${durationWords(ms - nowMs)} ahead of this device's clock (written by device ${r.deviceId}) — one of the two clocks is wrong; correct it, then try again`;
         }
       }
       if (kind === 'studies' && (r as unknown as Study).period > latestPeriod) {
-        return `${place()}, period: ${(r as unknown as Study).period} is a month that has not begun yet (written by device ${r.deviceId}); a month is logged once it has started`;
+        return `${recordPlace(kind, i, r.id)}, period: ${(r as unknown as Study).period} is a month that has not begun yet (written by device ${r.deviceId}); a month is logged once it has started`;
       }
       const before = seen.get(r.id);
       if (before !== undefined) {

@@ -3,7 +3,7 @@ import { laterStamp } from '../domain/hybrid-clock';
 import { countRecords, RECORD_KINDS, type RecordKind, type RecordsByKind } from '../domain/record-kinds';
 import type { RecordMeta } from '../domain/record-meta';
 import { changeSetProblem, recordPlace, restoreUnknownFields } from './change-set-checks';
-import { duplicateKeyProblem, pathText, printable, structuralProblem } from './exchange-guards';
+import { duplicateKeyProblem, pathText, printable, walkStructure } from './exchange-guards';
 import { hostSchema, sha256Hex } from './exchange-host';
 import {
   EXCHANGE_FORMAT,
@@ -283,7 +283,8 @@ async function checkParsed(
   bytes: Uint8Array,
   nowMs: number
 ): Promise<ChangeSet> {
-  const structural = structuralProblem(parsed, MAX_RECORDS_PER_KIND) ?? duplicateKeyProblem(text, parsed);
+  const walk = walkStructure(parsed, MAX_RECORDS_PER_KIND);
+  const structural = walk.problem ?? duplicateKeyProblem(text, walk.keys);
   if (structural) throw new ExchangeFileError(structural);
   const top = parsed as Record<string, unknown>;
   if (top.kind === 'capstan-demo-portfolio') {

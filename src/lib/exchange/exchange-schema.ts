@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { characteristicFieldsSchema } from '../domain/characteristic-schema';
 import { contextProfileFieldsSchema } from '../domain/context-profile-record-schema';
-import { isClockStamp, parseStamp } from '../domain/hybrid-clock';
+import { isClockStamp, parseStamp, type ClockParts } from '../domain/hybrid-clock';
 import { improvementProjectFieldsSchema } from '../domain/improvement-project-schema';
 import { processFieldsSchema } from '../domain/process-schema';
 import { quarterReviewFieldsSchema } from '../domain/quarter-review-record-schema';
@@ -49,12 +49,15 @@ const exchangeMeta = recordMetaSchema.extend({
  * (`deviceId`) has at least one write in it, and the clock stamp names that writer. A record that disagrees
  * would break the merge's arithmetic, so it is refused rather than repaired. Returns the field and message.
  */
-export function bookkeepingProblem(r: {
-  rev: number;
-  deviceId: string;
-  vv: Record<string, number>;
-  clock: string;
-}): { field: string; message: string } | undefined {
+export function bookkeepingProblem(
+  r: {
+    rev: number;
+    deviceId: string;
+    vv: Record<string, number>;
+    clock: string;
+  },
+  stamp: ClockParts | undefined = parseStamp(r.clock)
+): { field: string; message: string } | undefined {
   let total = 0;
   for (const n of Object.values(r.vv)) total += n;
   if (r.rev !== total)
@@ -64,7 +67,7 @@ export function bookkeepingProblem(r: {
     };
   if (!Object.hasOwn(r.vv, r.deviceId))
     return { field: 'deviceId', message: `the last writer ${r.deviceId} has no write in the version vector` };
-  if (parseStamp(r.clock)?.deviceId !== r.deviceId)
+  if (stamp?.deviceId !== r.deviceId)
     return {
       field: 'clock',
       message: `the clock stamp names another device than the last writer ${r.deviceId}`
