@@ -50,10 +50,16 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
   const latest = records.studies.reduce((a, s) => (s.period > a ? s.period : a), '');
   const endPeriod = period ?? quarterMonths?.[2] ?? latest;
   if (!endPeriod) throw new UsageError(`'${file}' holds no studies to rank`);
-  const rows = rankPortfolio(records, profiles, { endPeriod, windowMonths: window });
-  // JSON: one object per row keyed by the portfolio's column keys (domain/portfolio-columns.ts).
-  const out = rows.map((r, i) => portfolioRowObject(r, i + 1));
-  if (args.flags.has('json')) {
+  const json = args.flags.has('json');
+  // The table printed has no trend column: its rows are ranked without trend lines (the JSON has their slope).
+  const rows = rankPortfolio(records, profiles, {
+    endPeriod,
+    windowMonths: window,
+    ...(json ? {} : { trendMonths: 0 })
+  });
+  if (json) {
+    // One object per row keyed by the portfolio's column keys (domain/portfolio-columns.ts).
+    const out = rows.map((r, i) => portfolioRowObject(r, i + 1));
     io.stdout(
       JSON.stringify(
         { endPeriod, windowMonths: window, rows: out },
@@ -64,7 +70,7 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
     return 0;
   }
   const lines = [
-    `Portfolio for the ${countOf(window, 'month', 'months', PRINTED)} ending ${endPeriod} (${countOf(out.length, 'process', 'processes', PRINTED)}), highest priority first`,
+    `Portfolio for the ${countOf(window, 'month', 'months', PRINTED)} ending ${endPeriod} (${countOf(rows.length, 'process', 'processes', PRINTED)}), highest priority first`,
     ''
   ];
   const printed: PortfolioColumnKey[] = [

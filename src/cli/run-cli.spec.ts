@@ -221,6 +221,26 @@ describe('capstan rank', () => {
     expect(j.rows.map((x: { process: string }) => x.process)).toEqual(direct.map((x) => x.process.name));
   });
 
+  it('prints the table in the JSON rows’ order, with their status (the table is ranked without trend lines)', async () => {
+    const table = await run('rank', demoFile, '--quarter', '2026-Q3');
+    const json = JSON.parse((await run('rank', demoFile, '--quarter', '2026-Q3', '--json')).out) as {
+      rows: { process: string; status: string }[];
+    };
+    expect(table.code).toBe(0);
+    // The rows of the table: after its header, up to the blank line before the caution.
+    const lines = table.out.split('\n');
+    const header = lines.findIndex((l) => l.startsWith('#\t'));
+    const body = lines.slice(header + 1, lines.indexOf('', header + 1)).map((l) => l.split('\t'));
+    expect(body).toHaveLength(json.rows.length);
+    const at = (name: string) => lines[header]!.split('\t').findIndex((h) => h.toLowerCase().includes(name));
+    body.forEach((cells, i) => {
+      const row = json.rows[i]!;
+      expect(cells[at('process')]).toBe(row.process);
+      expect(cells[at('status')]).toBe(row.status);
+    });
+    expect(json.rows.length).toBeGreaterThan(20);
+  });
+
   it.each([
     [['rank'], /needs a portfolio file/],
     [['rank', '/nonexistent.json'], /Cannot read/],
