@@ -39,6 +39,46 @@ describe('canonical JSON', () => {
     );
   });
 
+  it('gives the same text for lists of records whose objects repeat a few key lists, in any order (property)', () => {
+    // As a file's records do: the same few keys over and over, sometimes in another order, with or without
+    // __proto__ or an array index among them, nested one level (a record's data or version vector).
+    const key = fc.constantFrom(
+      'id',
+      'rev',
+      'data',
+      'n',
+      'kind',
+      'vv',
+      '__proto__',
+      'constructor',
+      'toJSON',
+      '7'
+    );
+    const leaf = fc.oneof(
+      fc.integer(),
+      fc.string({ maxLength: 3 }),
+      fc.constant(undefined),
+      fc.constant(null)
+    );
+    const inner = fc.dictionary(key, leaf, { maxKeys: 5 });
+    const record = fc.dictionary(key, fc.oneof(leaf, inner), { maxKeys: 6 });
+    // The keys' written order (a dictionary's) is kept by JSON.parse: parse its canonical text back in another order.
+    const reordered = record.chain((r) =>
+      fc.shuffledSubarray(Object.keys(r), { minLength: Object.keys(r).length }).map((keys) => {
+        const out: Record<string, unknown> = Object.create(null) as Record<string, unknown>;
+        for (const k of keys) out[k] = r[k];
+        return out;
+      })
+    );
+    fc.assert(
+      fc.property(fc.array(fc.oneof(record, reordered), { maxLength: 40 }), (records) => {
+        expect(canonicalJson(records)).toBe(canonicalJsonPiecewise(records));
+        expect(canonicalJson({ records })).toBe(canonicalJsonPiecewise({ records }));
+      }),
+      { numRuns: 1500, seed: 8 }
+    );
+  });
+
   it('refuses what JSON cannot hold, naming where', () => {
     expect(() => canonicalJson({ a: [1, Number.NaN] })).toThrow(/a\[1\] is not a finite number/);
     let deep: unknown = 1;

@@ -86,15 +86,46 @@ function sortedCopy(value: unknown, depth: number, maxDepth: number): unknown {
     return copy ?? value;
   }
   const obj = value as Record<string, unknown>;
-  const keys = Object.keys(obj).sort();
-  // No prototype: a key named __proto__ stays an ordinary key, as JSON.parse made it.
-  const copy: Record<string, unknown> = Object.create(null) as Record<string, unknown>;
-  for (const key of keys) {
-    if (ARRAY_INDEX.test(key) && Number(key) < 4294967295) throw INDEX_KEYS;
+  const order = keyOrderOf(Object.keys(obj));
+  // An ordinary object, whose keys added in the same order share one layout (written faster by JSON.stringify);
+  // without a prototype only when a key is named __proto__, so that it stays an ordinary key, as JSON.parse made it.
+  const copy: Record<string, unknown> = order.protoKey
+    ? (Object.create(null) as Record<string, unknown>)
+    : {};
+  for (const key of order.sorted) {
     const item = obj[key];
     if (item !== undefined) copy[key] = sortedCopy(item, depth + 1, maxDepth);
   }
   return copy;
+}
+
+interface KeyOrder {
+  /** The keys as Object.keys lists them. */
+  keys: string[];
+  sorted: string[];
+  protoKey: boolean;
+}
+
+/**
+ * The key orders met last. The records of a file repeat a handful of key lists, each in the same order (a
+ * study's, its data's, its version vector's): a list met before is recognised by comparing its keys one by one
+ * (property names are interned, so most comparisons are of two references) instead of being sorted and checked
+ * for array-index keys again, which was most of the time spent writing a company's file.
+ */
+const keyOrders: KeyOrder[] = [];
+const KEY_ORDERS_KEPT = 16;
+
+function keyOrderOf(keys: string[]): KeyOrder {
+  next: for (const order of keyOrders) {
+    if (order.keys.length !== keys.length) continue;
+    for (let i = 0; i < keys.length; i++) if (order.keys[i] !== keys[i]) continue next;
+    return order;
+  }
+  for (const key of keys) if (ARRAY_INDEX.test(key) && Number(key) < 4294967295) throw INDEX_KEYS;
+  const order: KeyOrder = { keys, sorted: [...keys].sort(), protoKey: keys.includes('__proto__') };
+  if (keyOrders.length >= KEY_ORDERS_KEPT) keyOrders.pop();
+  keyOrders.unshift(order);
+  return order;
 }
 
 /** Keys are few and repeat in every record: their quoted form is computed once. */
