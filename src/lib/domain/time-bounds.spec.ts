@@ -8,24 +8,32 @@ import {
   timeAheadOfClock
 } from './time-bounds';
 
+const pad = (n: number, w: number) => String(n).padStart(w, '0');
+
+/**
+ * Stamps in the form Capstan writes, from year `from` to `to`, with digits in and beyond their ranges (day 31 of a
+ * 30-day month, 29 February, hour 24), as a damaged file has them.
+ */
+function writtenStamps(from: number, to: number): fc.Arbitrary<string> {
+  return fc
+    .record({
+      y: fc.integer({ min: from, max: to }),
+      mo: fc.integer({ min: 0, max: 13 }),
+      d: fc.integer({ min: 0, max: 32 }),
+      h: fc.integer({ min: 0, max: 25 }),
+      mi: fc.integer({ min: 0, max: 61 }),
+      s: fc.integer({ min: 0, max: 61 }),
+      ms: fc.integer({ min: 0, max: 999 })
+    })
+    .map(
+      ({ y, mo, d, h, mi, s, ms }) =>
+        `${pad(y, 4)}-${pad(mo, 2)}-${pad(d, 2)}T${pad(h, 2)}:${pad(mi, 2)}:${pad(s, 2)}.${pad(ms, 3)}Z`
+    );
+}
+
 describe('reading time stamps', () => {
   it('reads the form Capstan writes by character codes exactly as the general reading does (property)', () => {
-    const pad = (n: number, w: number) => String(n).padStart(w, '0');
-    // Digits in and beyond their ranges (day 31 of a 30-day month, 29 February, hour 24), as a damaged file has.
-    const stamp = fc
-      .record({
-        y: fc.integer({ min: 1890, max: 2310 }),
-        mo: fc.integer({ min: 0, max: 13 }),
-        d: fc.integer({ min: 0, max: 32 }),
-        h: fc.integer({ min: 0, max: 25 }),
-        mi: fc.integer({ min: 0, max: 61 }),
-        s: fc.integer({ min: 0, max: 61 }),
-        ms: fc.integer({ min: 0, max: 999 })
-      })
-      .map(
-        ({ y, mo, d, h, mi, s, ms }) =>
-          `${pad(y, 4)}-${pad(mo, 2)}-${pad(d, 2)}T${pad(h, 2)}:${pad(mi, 2)}:${pad(s, 2)}.${pad(ms, 3)}Z`
-      );
+    const stamp = writtenStamps(1890, 2310);
     fc.assert(
       fc.property(stamp, (text) => {
         expect(calendarTimeMs(text)).toBe(generalTimeMs(text));
@@ -35,22 +43,8 @@ describe('reading time stamps', () => {
   });
 
   it('finds a time stamp ahead of a clock exactly as reading it does, by its text where it can (property)', () => {
-    const pad = (n: number, w: number) => String(n).padStart(w, '0');
     // Stamps in the written form, in and out of range, and in the general forms (offsets, no milliseconds).
-    const written = fc
-      .record({
-        y: fc.integer({ min: 1995, max: 2205 }),
-        mo: fc.integer({ min: 0, max: 13 }),
-        d: fc.integer({ min: 0, max: 32 }),
-        h: fc.integer({ min: 0, max: 25 }),
-        mi: fc.integer({ min: 0, max: 61 }),
-        s: fc.integer({ min: 0, max: 61 }),
-        ms: fc.integer({ min: 0, max: 999 })
-      })
-      .map(
-        ({ y, mo, d, h, mi, s, ms }) =>
-          `${pad(y, 4)}-${pad(mo, 2)}-${pad(d, 2)}T${pad(h, 2)}:${pad(mi, 2)}:${pad(s, 2)}.${pad(ms, 3)}Z`
-      );
+    const written = writtenStamps(1995, 2205);
     const general = fc
       .tuple(
         fc.integer({ min: Date.UTC(2000, 0, 1), max: Date.UTC(2199, 11, 31) }),
