@@ -179,7 +179,21 @@ function everythingDrawn(): boolean {
       e.textContent?.includes('Drawing this section')
     );
   const figures = [...document.querySelectorAll('figure')];
-  return !pending && figures.length > 0 && figures.every((f) => f.querySelector('svg') !== null);
+  // A chart whose new figures wait for their turn (ChartPanel) still shows the drawing before.
+  const redrawing = document.querySelector('[data-testid="chart"][aria-busy="true"]') !== null;
+  return (
+    !pending && !redrawing && figures.length > 0 && figures.every((f) => f.querySelector('svg') !== null)
+  );
+}
+
+/** Waits until everything on the page is drawn (everythingDrawn); returns how long that took, in ms. */
+async function untilEverythingDrawn(page: Page, patience: number, what: string): Promise<number> {
+  const t = Date.now();
+  while (!(await page.evaluate(everythingDrawn))) {
+    if (Date.now() - t > patience) throw new Error(`${what} was not fully drawn within ${patience / 1000} s`);
+    await page.waitForTimeout(100);
+  }
+  return Date.now() - t;
 }
 
 /** The demo's process with two characteristics of raw values, one of them not normal. */
@@ -361,16 +375,33 @@ export async function companyScaleRows(
     // The review's other sections and its charts are drawn after the headline, one per task: count the tasks
     // until the last chart is drawn, the first time the chart library is loaded included.
     {
-      const t = Date.now();
-      while (!(await page.evaluate(everythingDrawn))) {
-        if (Date.now() - t > patience)
-          throw new Error(`the review was not fully drawn within ${patience / 60_000} minutes`);
-        await page.waitForTimeout(100);
-      }
-      const ms = Date.now() - t;
+      const ms = await untilEverythingDrawn(page, patience, 'the review');
       seen = await watch.read();
       rows.push({
         name: `  … then every section and chart drawn (charts one per task; the chart library loaded on this visit): ${taskWords(seen.longTasks)}`,
+        size,
+        ms,
+        peakMB: seen.peakHeapMB,
+        ...(withTargets ? { target: 'no long task over 200 ms' } : {})
+      });
+    }
+    // Another quarter chosen, as a person steps back through the year: the review is computed again in its
+    // worker, then its sections and every chart are drawn again (each chart in a task of its own). Timed from the
+    // choice until the last chart is drawn, on the bench's clock (polled every 100 ms).
+    {
+      const select = page.getByTestId('quarter');
+      const quarter = await select.locator('option').nth(2).getAttribute('value');
+      const t = Date.now();
+      await select.selectOption({ index: 2 });
+      await page
+        .getByTestId('headline-table')
+        .locator('th', { hasText: `${quarter} (this quarter)` })
+        .waitFor({ timeout: patience });
+      await untilEverythingDrawn(page, patience, `the review of ${quarter}`);
+      const ms = Date.now() - t;
+      seen = await watch.read();
+      rows.push({
+        name: `  … another quarter chosen (${quarter}) → its headline, sections and charts drawn again: ${taskWords(seen.longTasks)}`,
         size,
         ms,
         peakMB: seen.peakHeapMB,
@@ -448,11 +479,7 @@ export async function firstLoadRows(browser: Browser): Promise<BenchRow[]> {
   const watch = await watchMainThread(first);
   await first.locator(SIGHTS['process-figures']).first().waitFor();
   const figuresShown = await pageClockMs(first, 'process-figures');
-  const t2 = Date.now();
-  while (!(await first.evaluate(everythingDrawn))) {
-    if (Date.now() - t2 > 60_000) throw new Error('the process page was not fully drawn within a minute');
-    await first.waitForTimeout(100);
-  }
+  await untilEverythingDrawn(first, 60_000, 'the process page');
   const rawSeen = await watch.read();
   await context.close();
   await app.stop();

@@ -206,6 +206,28 @@ test('a frozen review keeps its figures and says when the live data has moved on
   await expect(page.getByTestId('headline-share')).not.toHaveText(share!);
 });
 
+test('another quarter chosen: every chart is drawn again, for that quarter', async ({ page }) => {
+  await openReview(page);
+  const charts = page.getByTestId('chart');
+  const trend = page
+    .locator('figure')
+    .filter({ hasText: 'Share of reviewed processes meeting their target' })
+    .locator('[data-testid="chart"]');
+  // The trend's quarters as its axis writes them: the last one is the quarter reviewed.
+  const axisQuarters = async () =>
+    (await trend.locator('svg text').allTextContents()).filter((t) => /^\d{4}-Q[1-4]$/.test(t));
+  await expect.poll(async () => (await axisQuarters()).at(-1)).toBe(QUARTER);
+  // A year back. Each chart draws its new figures in a task of its own (ChartPanel), busy until then: none may
+  // be left showing the quarter before.
+  const earlier = `${Number(QUARTER.slice(0, 4)) - 1}${QUARTER.slice(4)}`;
+  await page.getByTestId('quarter').selectOption(earlier);
+  await expect(page.getByTestId('headline-table')).toContainText(`${earlier} (this quarter)`);
+  await expect(page.locator('[data-testid="chart"][aria-busy="true"]')).toHaveCount(0);
+  await expect(page.locator('[data-testid="chart"] svg')).toHaveCount(await charts.count());
+  expect((await axisQuarters()).at(-1)).toBe(earlier);
+  expect(await axisQuarters()).not.toContain(QUARTER);
+});
+
 /** The level texts of a drawn chart (slanted ones left out) that overlap another, after a count of them. */
 function overlappingTexts(svg: Locator): Promise<string[]> {
   return svg.evaluate((element) => {
