@@ -1,5 +1,5 @@
 import { type Characteristic } from '../domain/characteristic';
-import { editableOf, type WriteContext } from '../domain/record-meta';
+import { editableOf, isLive, type WriteContext } from '../domain/record-meta';
 import { withLimitChange, type LimitChange } from '../domain/specification-history';
 import { liveCountsUnder, removeWithContents, undoRemoval, type Removal } from './cascade-removal';
 import type { CapstanDatabase } from './database';
@@ -27,6 +27,11 @@ export class CharacteristicRepository extends RecordRepository<Characteristic> {
         await requireLive(d.processes, fields.processId, 'Characteristic', 'processId', 'Process');
       }
     });
+  }
+
+  /** The live characteristics of one process, through the table's processId index (not a read of them all). */
+  async listOfProcess(processId: string): Promise<Characteristic[]> {
+    return (await this.table.where('processId').equals(processId).toArray()).filter(isLive);
   }
 
   /**

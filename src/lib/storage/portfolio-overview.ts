@@ -7,6 +7,7 @@ import type { Table } from 'dexie';
 import type { Site } from '../domain/site';
 import type { Study } from '../domain/study';
 import type { CapstanDatabase } from './database';
+import { recordsInSlices } from './records-in-slices';
 import { allStudies, eachStudy, studiesOf } from './study-shelves';
 
 /** One process as the portfolio lists it before capability figures exist for it. */
@@ -41,10 +42,10 @@ async function liveStudyIndex(db: CapstanDatabase): Promise<StudyIndexEntry[]> {
 /** Every live process with its site, characteristics, latest period and projects; sorted by site then name. */
 export async function listProcessOverviews(db: CapstanDatabase): Promise<ProcessOverview[]> {
   const [sites, processes, characteristics, projects, studies] = await Promise.all([
-    db.sites.toArray(),
-    db.processes.toArray(),
-    db.characteristics.toArray(),
-    db.projects.toArray(),
+    recordsInSlices(db.sites),
+    recordsInSlices(db.processes),
+    recordsInSlices(db.characteristics),
+    recordsInSlices(db.projects),
     liveStudyIndex(db)
   ]);
   const siteById = new Map(sites.filter(isLive).map((s) => [s.id, s]));

@@ -14,6 +14,7 @@ import {
 import { ValidationError } from '../domain/validation-error';
 import type { CapstanDatabase } from './database';
 import type { ValidationLoader } from './record-validation';
+import { recordsInSlices } from './records-in-slices';
 
 /**
  * Thrown when a record changed (in another tab, or by an import) after the person opened it for editing: their
@@ -66,9 +67,9 @@ export class RecordRepository<T extends RecordMeta> {
     return [this.table as unknown as Table, ...(this.spec.relatedTables?.(this.db) ?? [])];
   }
 
-  /** Live records (tombstones left out). */
+  /** Live records (tombstones left out), read a slice at a time (records-in-slices.ts). */
   async list(): Promise<T[]> {
-    return (await this.table.toArray()).filter(isLive);
+    return recordsInSlices(this.table, isLive);
   }
 
   /**
