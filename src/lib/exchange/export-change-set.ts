@@ -1,5 +1,8 @@
 import type { CapstanStorage } from '../storage/storage';
 import type { ExportScope } from '../storage/change-set-store';
+
+/** What a file covers (storage/change-set-store.ts), for the callers of writeExport that do not reach storage. */
+export type { ExportScope };
 import { changeSetOf, encodeExchangeFile, exchangeFileName, type ChangeSet } from './exchange-file';
 import type { ExportScopeHeader } from './exchange-schema';
 
@@ -29,14 +32,15 @@ export interface ExportOptions {
 
 /**
  * The change set a scope covers, and `remember`, to be called once the file has been handed over: it moves
- * the peer's checkpoint and this device's last-export time. (The page encodes in a worker in between.)
+ * the peer's checkpoint and this device's last-export time (rememberExport). The page's exports run writeExport
+ * in a worker instead.
  */
 export async function buildExport(
   storage: CapstanStorage,
   scope: ExportScope,
   identity: ExportIdentity,
   options: ExportOptions = {}
-): Promise<{ changeSet: ChangeSet; fileName: string; remember: () => Promise<void> }> {
+): Promise<{ changeSet: ChangeSet; fileName: string; highWater: number; remember: () => Promise<void> }> {
   const collected = await storage.exchange.collect(scope);
   let scopeHeader: ExportScopeHeader;
   if (scope.kind === 'site')
@@ -57,13 +61,62 @@ export async function buildExport(
     },
     collected.records
   );
-  const peer =
-    scope.kind === 'changes' ? { deviceId: scope.peerId, name: options.peerName ?? '' } : undefined;
   return {
     changeSet,
     fileName: exchangeFileName(changeSet.header, options.gzip ?? false),
-    remember: () => storage.exchange.recordExport(identity.exportedAt, collected, peer)
+    highWater: collected.highWater,
+    remember: () => rememberExport(storage, collected, scope, identity, options)
   };
+}
+
+/** A file written from a scope (writeExport): its bytes, its name, its header's counts and its high-water mark. */
+export interface ExportedFile {
+  bytes: Uint8Array;
+  fileName: string;
+  counts: ChangeSet['header']['counts'];
+  /** The highest write sequence it holds (CollectedChanges.highWater): what remembering it moves the checkpoint to. */
+  highWater: number;
+}
+
+/**
+ * A scope collected and written as a file in one go, nothing remembered: what the exchange worker runs
+ * (workers/exchange-file.worker.ts), so that a company's records never pass through the page — collecting
+ * 72 000 studies there, then copying them to the encoding worker, held it for three tasks of 0.6–0.9 s each with
+ * the CPU throttled 4×. `onWriting` hears when collecting ends and writing starts. Call rememberExport once
+ * the file is handed over.
+ */
+export async function writeExport(
+  storage: CapstanStorage,
+  scope: ExportScope,
+  identity: ExportIdentity,
+  options: ExportOptions = {},
+  onWriting: () => void = () => undefined
+): Promise<ExportedFile> {
+  const built = await buildExport(storage, scope, identity, options);
+  onWriting();
+  return {
+    bytes: await encodeExchangeFile(built.changeSet, { gzip: options.gzip }),
+    fileName: built.fileName,
+    counts: built.changeSet.header.counts,
+    highWater: built.highWater
+  };
+}
+
+/**
+ * Remembers a file handed over: the recipient's checkpoint (the `changes` scope) and this device's last-export
+ * time move to what it holds. Only once it is handed over: remembered earlier, a file that was never delivered
+ * would leave its changes out of the next one to the same recipient.
+ */
+export function rememberExport(
+  storage: CapstanStorage,
+  file: { highWater: number },
+  scope: ExportScope,
+  identity: ExportIdentity,
+  options: ExportOptions = {}
+): Promise<void> {
+  const peer =
+    scope.kind === 'changes' ? { deviceId: scope.peerId, name: options.peerName ?? '' } : undefined;
+  return storage.exchange.recordExport(identity.exportedAt, file, peer);
 }
 
 /** Collects, encodes and remembers in one go (command line, tests). */

@@ -4,11 +4,13 @@ import demo from '../../../seed-data/demo-portfolio.json';
 import {
   canonicalExport,
   exportBytes,
+  FIXED_IDENTITY,
   receiveBytes,
   sealingLine,
   testDevices
 } from '../../../tests/support/exchange-harness';
 import { decodeExchangeFile, encodeExchangeFile, ExchangeFileError } from './exchange-file';
+import { rememberExport, writeExport } from './export-change-set';
 
 const device = testDevices();
 afterEach(() => vi.restoreAllMocks());
@@ -201,6 +203,34 @@ describe('exchange files between devices', () => {
     // Another peer has had nothing yet, so it gets everything.
     const other = await decodeExchangeFile(await exportBytes(a, { kind: 'changes', peerId: 'peer-2' }));
     expect(other.header.counts.studies).toBe(demo.records.studies.length);
+  });
+
+  it('writes a file in one go as the page’s worker does, and remembers it only when told the file was handed over', async () => {
+    const a = await device('a');
+    const start = Date.now();
+    const clock = vi.spyOn(Date, 'now').mockReturnValue(start - 10 * 60_000);
+    await a.loadDemo(demo);
+    clock.mockReturnValue(start);
+    const scope = { kind: 'changes', peerId: 'peer-1' } as const;
+    const options = { peerName: 'peer' };
+    // The same bytes as the collect-encode-remember path gives (the command line's, prepareExport).
+    const file = await writeExport(a, scope, FIXED_IDENTITY, options);
+    expect(file.bytes).toEqual(await exportBytes(a, scope));
+    expect(file.counts.studies).toBe(demo.records.studies.length);
+    expect(file.fileName).toMatch(/\.json$/);
+    // exportBytes above remembered its own file: start again with a fresh device for the checkpoint.
+    const b = await device('b');
+    clock.mockReturnValue(start - 10 * 60_000);
+    await b.loadDemo(demo);
+    clock.mockReturnValue(start);
+    const unsent = await writeExport(b, scope, FIXED_IDENTITY, options);
+    // Not handed over, not remembered: the next file to the same peer carries everything again.
+    const again = await writeExport(b, scope, FIXED_IDENTITY, options);
+    expect(again.counts).toEqual(unsent.counts);
+    await rememberExport(b, again, scope, FIXED_IDENTITY, options);
+    clock.mockReturnValue(start + 5 * 60_000);
+    const after = await writeExport(b, scope, FIXED_IDENTITY, options);
+    expect(after.counts.studies).toBe(0);
   });
 
   it('refuses an id that this device holds as another kind of record, writing nothing', async () => {

@@ -1,8 +1,15 @@
 import type { MergeKind } from '../domain/record-merge';
 import type { FolderFileSeen, FolderSyncState } from '../storage/folder-sync-state';
 import type { CapstanStorage } from '../storage/storage';
-import { decodeExchangeFile, encodeExchangeFile, type ChangeSet } from './exchange-file';
-import { buildExport } from './export-change-set';
+import { decodeExchangeFile } from './exchange-file';
+import {
+  rememberExport,
+  writeExport,
+  type ExportedFile,
+  type ExportIdentity,
+  type ExportOptions
+} from './export-change-set';
+import type { ExportScope } from '../storage/change-set-store';
 import { receiveChangeSet, type ReceiveSession } from './receive-session';
 import { deviceFileName, exchangeNamesIn, unfinishedNameOf } from './folder-names';
 
@@ -45,7 +52,11 @@ export interface FolderSyncOptions {
    * both run in the caller's thread).
    */
   receive?: (file: Blob) => Promise<ReceiveSession>;
-  encode?: (changeSet: ChangeSet) => Promise<Uint8Array>;
+  /**
+   * Collects and writes a file as writeExport does (the page passes its worker, exportInWorker; without it, both
+   * run in the caller's thread). This device's file is remembered here once it is in the folder.
+   */
+  writeFile?: (scope: ExportScope, identity: ExportIdentity, options: ExportOptions) => Promise<ExportedFile>;
   now?: () => Date;
   onStage?: (text: string) => void;
 }
@@ -91,6 +102,12 @@ export async function writeFileAtomically(
 
 const noChange = (c: Record<MergeKind, number>) => c.new + c.updated + c.deleted === 0;
 
+/** This device's own file in the folder: everything it holds, compressed. */
+const OWN_FILE: { scope: ExportScope; options: ExportOptions } = {
+  scope: { kind: 'everything' },
+  options: { gzip: true }
+};
+
 /** One sync: read and merge what other devices wrote, then write this device's file if it changed. */
 export async function syncWithFolder(options: FolderSyncOptions): Promise<FolderSyncReport> {
   const { storage, folder } = options;
@@ -99,7 +116,10 @@ export async function syncWithFolder(options: FolderSyncOptions): Promise<Folder
     options.receive ??
     (async (file: Blob) =>
       receiveChangeSet(storage, await decodeExchangeFile(new Uint8Array(await file.arrayBuffer()))));
-  const encode = options.encode ?? ((cs: ChangeSet) => encodeExchangeFile(cs, { gzip: true }));
+  const writeFile =
+    options.writeFile ??
+    ((scope: ExportScope, identity: ExportIdentity, o: ExportOptions) =>
+      writeExport(storage, scope, identity, o));
   const stage = options.onStage ?? (() => undefined);
 
   const previous = await storage.syncFolder.state();
@@ -184,14 +204,14 @@ export async function syncWithFolder(options: FolderSyncOptions): Promise<Folder
   if (!names.includes(ownFile) || previous.ownFile !== ownFile || (previous.writtenThrough ?? -1) < mark) {
     stage('Writing this device’s file…');
     const at = now().toISOString();
-    const built = await buildExport(
-      storage,
-      { kind: 'everything' },
-      { appVersion: options.appVersion, deviceName: await storage.deviceName(), exportedAt: at },
-      { gzip: true }
-    );
-    await writeFileAtomically(folder, ownFile, await encode(built.changeSet));
-    await built.remember();
+    const identity = {
+      appVersion: options.appVersion,
+      deviceName: await storage.deviceName(),
+      exportedAt: at
+    };
+    const file = await writeFile(OWN_FILE.scope, identity, OWN_FILE.options);
+    await writeFileAtomically(folder, ownFile, file.bytes);
+    await rememberExport(storage, file, OWN_FILE.scope, identity, OWN_FILE.options);
     if (previous.ownFile && previous.ownFile !== ownFile) {
       // The device was renamed: its old file would only repeat what the new one holds.
       await folder.removeEntry(previous.ownFile).catch(() => undefined);

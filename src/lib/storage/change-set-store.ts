@@ -122,7 +122,7 @@ export async function recordExport(
   db: CapstanDatabase,
   clock: HybridClock,
   at: string,
-  collected: CollectedChanges,
+  collected: Pick<CollectedChanges, 'highWater'>,
   peer?: { deviceId: string; name: string }
 ): Promise<void> {
   await db.transaction('rw', db.deviceSettings, async () => {

@@ -92,9 +92,10 @@ export interface CapstanStorage {
   /** Change sets for file exchange (or any later transport). */
   readonly exchange: {
     collect(scope: ExportScope): Promise<CollectedChanges>;
+    /** Remembers a file handed over; of what was collected, only its high-water mark is read. */
     recordExport(
       at: string,
-      collected: CollectedChanges,
+      collected: Pick<CollectedChanges, 'highWater'>,
       peer?: { deviceId: string; name: string }
     ): Promise<void>;
     preview(records: RecordsByKind): Promise<ReceivePlan>;

@@ -1,4 +1,4 @@
-import type { ChangeSet } from '../exchange/exchange-file';
+import type { ExportedFile, ExportIdentity, ExportOptions, ExportScope } from '../exchange/export-change-set';
 import type { ReceiveSession } from '../exchange/receive-session';
 import type { CapstanStorage } from '../storage/storage';
 import type {
@@ -15,6 +15,7 @@ export const STAGE_LABEL: Record<ExchangeWorkerStage, string> = {
   parsing: 'Reading the records…',
   verifying: 'Checking the content hash and every record…',
   comparing: 'Comparing with the records on this device…',
+  collecting: 'Collecting records…',
   writing: 'Writing the file…'
 };
 
@@ -47,7 +48,7 @@ function receivingWorker(): Worker {
   return worker;
 }
 
-/** Runs one request in a fresh worker (worker-job.ts), reporting its stages. */
+/** Runs one request that writes a file in a fresh worker (worker-job.ts), reporting its stages. */
 function run<T>(
   request: ExchangeWorkerRequest,
   onStage: (label: string) => void,
@@ -65,7 +66,7 @@ function run<T>(
       const value = pick(m);
       return value === undefined ? undefined : { result: value };
     },
-    { failed: 'The file could not be processed', cancelled: 'Cancelled: nothing was imported' }
+    { failed: 'The file could not be written', cancelled: 'Cancelled: no file was saved' }
   );
 }
 
@@ -167,8 +168,27 @@ export function receiveInWorker(
   };
 }
 
-export function encodeInWorker(changeSet: ChangeSet, gzip: boolean, onStage: (label: string) => void) {
-  return run<Uint8Array>({ type: 'encode', changeSet, gzip }, onStage, (m) =>
-    m.type === 'encoded' ? m.bytes : undefined
+/**
+ * A scope of this device's records collected and written as a file in a worker of its own (writeExport): the
+ * records never reach the page. Nothing is remembered: call rememberExport once the file is handed over.
+ */
+export function exportInWorker(
+  storage: CapstanStorage,
+  scope: ExportScope,
+  identity: ExportIdentity,
+  options: ExportOptions,
+  onStage: (label: string) => void
+): { done: Promise<ExportedFile>; cancel: () => void } {
+  return run<ExportedFile>(
+    // Plain copies: the page's choices may be reactive proxies, which cannot be posted.
+    {
+      type: 'export',
+      databaseName: storage.databaseName,
+      scope: { ...scope },
+      identity: { ...identity },
+      options: { ...options }
+    },
+    onStage,
+    (m) => (m.type === 'exported' ? m.file : undefined)
   );
 }

@@ -1,7 +1,7 @@
 import type { FolderSyncReport, SyncDirectory } from '../exchange/folder-sync';
 import type { FolderSyncState } from '../storage/folder-sync-state';
 import type { CapstanStorage } from '../storage/storage';
-import { encodeInWorker, receiveInWorker } from './exchange-worker-client';
+import { exportInWorker, receiveInWorker } from './exchange-worker-client';
 import { refreshReadModel } from './read-model-refresh';
 
 /**
@@ -139,7 +139,8 @@ export class FolderSyncController {
           folder,
           appVersion: __APP_VERSION__,
           receive: (file) => receiveInWorker(this.storage, file, () => undefined).done,
-          encode: (changeSet) => encodeInWorker(changeSet, true, () => undefined).done,
+          writeFile: (scope, identity, options) =>
+            exportInWorker(this.storage, scope, identity, options, () => undefined).done,
           onStage: (text) => (this.busy = text)
         });
         this.report = report;

@@ -1,7 +1,7 @@
 /// <reference lib="webworker" />
 /**
- * Reads, checks, compares and merges exchange files off the page's thread, so that a company's file never
- * freezes it: parsing, hashing and schema validation, the comparison with the records stored here and the
+ * Reads, checks, compares and merges exchange files, and collects and writes them, off the page's thread, so that
+ * a company's file never freezes it: parsing, hashing and schema validation, the comparison with the records stored here and the
  * merge's writes all run here, and the page only shows the stage reached, the preview and the progress. The
  * file's records never reach the page: at company size (720 000 studies) they and the merge's plan took a
  * gigabyte of its memory, and its garbage collection held it for seconds.
@@ -14,12 +14,17 @@
 import type { MergeChoices } from '../domain/change-set-merge';
 import {
   decodeExchangeFile,
-  encodeExchangeFile,
   ExchangeFileError,
   sizeProblem,
-  type ChangeSet,
   type DecodeStage
 } from '../exchange/exchange-file';
+import {
+  writeExport,
+  type ExportedFile,
+  type ExportIdentity,
+  type ExportOptions,
+  type ExportScope
+} from '../exchange/export-change-set';
 import {
   receiveChangeSet,
   type MergeOutcome,
@@ -42,16 +47,22 @@ export type ExchangeWorkerRequest =
       source: { deviceId: string; name: string; at: string };
       latestStamp: string | undefined;
     }
-  | { type: 'encode'; changeSet: ChangeSet; gzip: boolean };
+  | {
+      type: 'export';
+      databaseName: string;
+      scope: ExportScope;
+      identity: ExportIdentity;
+      options: ExportOptions;
+    };
 
-export type ExchangeWorkerStage = DecodeStage | 'reading' | 'comparing' | 'writing';
+export type ExchangeWorkerStage = DecodeStage | 'reading' | 'comparing' | 'collecting' | 'writing';
 
 export type ExchangeWorkerMessage =
   | { type: 'stage'; stage: ExchangeWorkerStage }
   | { type: 'previewed'; preview: ReceivePreview }
   | { type: 'written'; written: number; total: number }
   | { type: 'merged'; outcome: MergeOutcome }
-  | { type: 'encoded'; bytes: Uint8Array }
+  | { type: 'exported'; file: ExportedFile }
   | { type: 'refused'; message: string };
 
 const post = (m: ExchangeWorkerMessage, transfer: Transferable[] = []) =>
@@ -84,16 +95,26 @@ async function merge(request: Extract<ExchangeWorkerRequest, { type: 'merge' }>)
   post({ type: 'merged', outcome });
 }
 
+/** A scope collected from the database and written as a file here; the page downloads it and remembers it. */
+async function exportFile(request: Extract<ExchangeWorkerRequest, { type: 'export' }>): Promise<void> {
+  post({ type: 'stage', stage: 'collecting' });
+  const storage = await openStorage(request.databaseName);
+  try {
+    const file = await writeExport(storage, request.scope, request.identity, request.options, () =>
+      post({ type: 'stage', stage: 'writing' })
+    );
+    post({ type: 'exported', file }, [file.bytes.buffer]);
+  } finally {
+    storage.close();
+  }
+}
+
 self.onmessage = async (event: MessageEvent<ExchangeWorkerRequest>) => {
   const request = event.data;
   try {
     if (request.type === 'receive') await receive(request.file, request.databaseName, request.latestStamp);
     else if (request.type === 'merge') await merge(request);
-    else {
-      post({ type: 'stage', stage: 'writing' });
-      const bytes = await encodeExchangeFile(request.changeSet, { gzip: request.gzip });
-      post({ type: 'encoded', bytes }, [bytes.buffer]);
-    }
+    else await exportFile(request);
   } catch (error) {
     post({
       type: 'refused',
