@@ -181,7 +181,7 @@ export default ts.config(
   layer(
     ['src/lib/workers/exchange-file.worker.ts'],
     workerForbidden(['portfolio-reader', 'storage']),
-    'the exchange worker writes records only as a received file is merged, through the storage object (storage.exchange, one transaction, on the person’s confirmation); other workers reach IndexedDB only through storage/portfolio-reader'
+    'the exchange worker writes records only as a received file is merged, through the storage object (storage.exchange, one transaction, on the person’s confirmation), and reads them through it to write a file to send; other workers reach IndexedDB only through storage/portfolio-reader'
   ),
   layer(
     ['src/lib/ui/**', 'src/routes/**'],
