@@ -1,10 +1,10 @@
 import type { CapstanStorage } from '../storage/storage';
 import type { ExportScope } from '../storage/change-set-store';
+import { changeSetOf, encodeExchangeFile, exchangeFileName, type ChangeSet } from './exchange-file';
+import type { ExportScopeHeader } from './exchange-schema';
 
 /** What a file covers (storage/change-set-store.ts), for the callers of writeExport that do not reach storage. */
 export type { ExportScope };
-import { changeSetOf, encodeExchangeFile, exchangeFileName, type ChangeSet } from './exchange-file';
-import type { ExportScopeHeader } from './exchange-schema';
 
 export interface PreparedExport {
   changeSet: ChangeSet;

@@ -7,9 +7,9 @@ import {
   writeExport,
   type ExportedFile,
   type ExportIdentity,
-  type ExportOptions
+  type ExportOptions,
+  type ExportScope
 } from './export-change-set';
-import type { ExportScope } from '../storage/change-set-store';
 import { receiveChangeSet, type ReceiveSession } from './receive-session';
 import { deviceFileName, exchangeNamesIn, unfinishedNameOf } from './folder-names';
 
