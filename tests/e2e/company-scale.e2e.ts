@@ -121,6 +121,43 @@ test('2 000 processes: received, ranked and reviewed without a long task on the 
     `review, ${PROCESSES} processes: ${review.length} long tasks, longest ${Math.round(Math.max(0, ...review))} ms`
   );
   expect(Math.max(0, ...review)).toBeLessThan(LONGEST_ALLOWED_MS);
+
+  // Every chart is drawn, those of every process too (their points handed over in one typed array each), and a
+  // point of the movement chart still names its process when pointed at, though the points carry no names.
+  const charts = page.getByTestId('chart');
+  await expect(page.locator('[data-testid="chart"] svg')).toHaveCount(await charts.count(), {
+    timeout: 30_000
+  });
+  const movement = page.locator('figure', { hasText: 'above the diagonal improved' }).getByTestId('chart');
+  const svg = movement.locator('svg');
+  await movement.scrollIntoViewIfNeeded();
+  // The first point of the one path that draws them all (circles of radius 5, each written from a point of its
+  // outline): pointed at around there.
+  const start = await svg.evaluate((element) => {
+    const d = [...element.querySelectorAll('path')]
+      .map((p) => p.getAttribute('d') ?? '')
+      .reduce((a, b) => (b.length > a.length ? b : a));
+    const [, x, y] = /^M\s*(-?[\d.]+)[\s,]+(-?[\d.]+)/.exec(d) ?? [];
+    return { x: Number(x), y: Number(y) };
+  });
+  const box = (await svg.boundingBox())!;
+  const texts = () => svg.locator('text').allTextContents();
+  await expect
+    .poll(async () => {
+      for (const [dx, dy] of [
+        [0, 0],
+        [0, 5],
+        [-5, 0],
+        [5, 0],
+        [0, -5]
+      ] as const) {
+        await page.mouse.move(box.x + start.x + dx, box.y + start.y + dy);
+        const named = (await texts()).find((t) => / · Works /.test(t));
+        if (named) return named;
+      }
+      return '';
+    })
+    .toMatch(/^.+ · Works .+$/);
 });
 
 test('a company’s file received again, then revised, merges where this device already holds its records', async ({

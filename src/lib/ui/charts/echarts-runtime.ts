@@ -71,8 +71,9 @@ export function warmUpSteps(): (() => void)[] {
         markLine: { data: [{ yAxis: 1 }] }
       }
     ]),
-    // A scatter drawn as one path (the review's charts of every process, past a few hundred points), whose code
-    // the small scatter above never runs: its first use was the review's longest task (0.2–0.25 s, CPU 4×).
+    // A scatter drawn as one path from pairs in a typed array (the review's charts of every process, past a few
+    // hundred points: review-chart-options.ts, scatterPoints), whose code the small scatter above never runs:
+    // its first use was the review's longest task (0.2–0.25 s, CPU 4×).
     draw([
       {
         type: 'scatter',
@@ -81,10 +82,7 @@ export function warmUpSteps(): (() => void)[] {
         largeThreshold: 1,
         symbol: 'rect',
         symbolSize: [3, 14],
-        data: [
-          [0, 1],
-          [1, 2]
-        ]
+        data: new Float64Array([0, 1, 1, 2])
       }
     ])
   ];

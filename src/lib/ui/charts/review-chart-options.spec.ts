@@ -6,6 +6,7 @@ import { buildQuarterReview } from '../../domain/quarter-review';
 import type { ReviewProcessLine } from '../../domain/review-figures';
 import {
   movementOption,
+  scatterPoints,
   paretoRows,
   siteBandsHeight,
   siteDistributionOption,
@@ -83,11 +84,40 @@ describe('long portfolios', () => {
     expect(perProcess).toHaveLength(3);
     for (const series of perProcess) {
       expect(series.large).toBe(true);
-      // ECharts switches to one path only above the threshold: the demo's points stay elements (tooltips by
-      // name), 2 000 processes do not.
+      // ECharts switches to one path only above the threshold: the demo's points stay elements, 2 000
+      // processes do not.
       expect(series.largeThreshold).toBeGreaterThan(series.data.length);
       expect(series.largeThreshold).toBeLessThan(2000);
     }
+  });
+
+  it("hands a company's points over as pairs in one typed array, the same values as one array per point", () => {
+    const pairs = Array.from({ length: 2000 }, (_, i): [number, number] => [i / 7, -i]);
+    const small = scatterPoints(pairs.slice(0, 10), (p) => p);
+    expect(small).toEqual(pairs.slice(0, 10));
+    const large = scatterPoints(pairs, (p) => p);
+    expect(large).toBeInstanceOf(Float64Array);
+    expect(Array.from(large as Float64Array)).toEqual(pairs.flat());
+  });
+
+  it('names the process of a point in the movement chart by its series and place (the points carry no names)', () => {
+    const figures = buildQuarterReview(parseDemoPortfolio(demo).records, BUILT_IN_PROFILES, {
+      quarter: '2026-Q3'
+    });
+    const option = movementOption(figures) as {
+      tooltip: { formatter: (p: { seriesIndex: number; dataIndex: number }) => string };
+      series: { data: [number, number][] }[];
+    };
+    const beyond = figures.movers.filter((m) => m.beyondNoise);
+    const within = figures.movers.filter((m) => !m.beyondNoise);
+    expect(beyond.length + within.length).toBeGreaterThan(1);
+    for (const [seriesIndex, list] of [beyond, within].entries())
+      list.forEach((m, dataIndex) => {
+        const text = option.tooltip.formatter({ seriesIndex, dataIndex });
+        expect(text.startsWith(`${m.process} · ${m.site}\n`)).toBe(true);
+        expect(option.series[seriesIndex]!.data[dataIndex]![1]).toBeCloseTo(m.zAfter, 2);
+      });
+    expect(option.tooltip.formatter({ seriesIndex: 0, dataIndex: 10_000 })).toBe('');
   });
 });
 
