@@ -161,6 +161,10 @@ test('two devices sync through a shared folder; a crossing edit waits on both an
     await site.setViewportSize({ width, height: 900 });
     await site.getByTestId('folder-sync').scrollIntoViewIfNeeded();
     expect(await site.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(width);
+    // The file picker stays inside its drop box (on a phone it once ran 36 px past the box's edge).
+    const picker = (await site.getByTestId('exchange-file-input').boundingBox())!;
+    const dropBox = (await site.getByRole('group', { name: 'Exchange file drop zone' }).boundingBox())!;
+    expect(picker.x + picker.width).toBeLessThanOrEqual(dropBox.x + dropBox.width);
     await site.screenshot({ path: `tests/e2e/.output/pages/${width}-shared-sync-folder.png` });
   }
 
