@@ -27,9 +27,25 @@ const PLACEHOLDER = /\w\((s|es)\)/;
 
 /** What a reader would find wrong on the page now: each problem with the text around it. */
 async function problemsOn(page: Page, name: string): Promise<string[]> {
-  const { text, overflow } = await page.evaluate(() => ({
+  const { text, overflow, pastBox } = await page.evaluate(() => ({
     text: document.body.innerText,
-    overflow: document.documentElement.scrollWidth - document.documentElement.clientWidth
+    overflow: document.documentElement.scrollWidth - document.documentElement.clientWidth,
+    // Elements that run past the right edge of the box they sit in (where that box does not scroll): a select
+    // once ran into the next field of a form, a file picker out of its drop box, a table past its panel.
+    pastBox: [...document.body.querySelectorAll('*')].flatMap((el) => {
+      const parent = el.parentElement;
+      if (!(el instanceof HTMLElement) || !parent) return [];
+      const own = getComputedStyle(el);
+      const around = getComputedStyle(parent);
+      if (around.display === 'contents' || around.overflowX !== 'visible') return [];
+      if (own.position === 'absolute' || own.position === 'fixed') return [];
+      const box = el.getBoundingClientRect();
+      const outer = parent.getBoundingClientRect();
+      if (box.width === 0 || outer.width === 0 || box.right <= outer.right + 1) return [];
+      return [
+        `${el.tagName.toLowerCase()} "${(el.textContent ?? '').trim().slice(0, 40)}" runs ${Math.round(box.right - outer.right)} px past its ${parent.tagName.toLowerCase()}`
+      ];
+    })
   }));
   const around = (i: number) => JSON.stringify(text.slice(Math.max(0, i - 30), i + 30));
   const problems: string[] = [];
@@ -45,6 +61,7 @@ async function problemsOn(page: Page, name: string): Promise<string[]> {
   const placeholder = PLACEHOLDER.exec(text);
   if (placeholder) problems.push(`${name}: placeholder plural ${around(placeholder.index)}`);
   if (overflow > 0) problems.push(`${name}: the page is ${overflow} px wider than the screen`);
+  for (const past of pastBox) problems.push(`${name}: ${past}`);
   return problems;
 }
 
@@ -144,6 +161,13 @@ test('the checks can fail: each finds what it is for', async ({ page }) => {
     p.style.width = '5000px';
     p.style.display = 'block';
     document.body.append(p);
+    const label = document.createElement('label');
+    label.style.width = '100px';
+    label.style.display = 'block';
+    const select = document.createElement('select');
+    select.style.width = '160px';
+    label.append(select);
+    document.body.append(label);
   });
   const found = (await problemsOn(page, 'planted')).join('\n');
   expect(found).toContain('scientific notation');
@@ -152,4 +176,5 @@ test('the checks can fail: each finds what it is for', async ({ page }) => {
   expect(found).toContain('"1 studies"');
   expect(found).toContain('placeholder plural');
   expect(found).toContain('wider than the screen');
+  expect(found).toContain('select "" runs 60 px past its label');
 });
