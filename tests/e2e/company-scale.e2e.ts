@@ -109,6 +109,18 @@ test('2 000 processes: received, ranked and reviewed without a long task on the 
   expect(await lastRank()).toBe(String(PROCESSES));
   await expect(drawnRows.last().locator('.trend .dir')).toHaveText(direction);
 
+  // The process list shows the first hundred and finds any other by a part of its name, with its latest month.
+  await page.goto(new URL('/process', server.url).href);
+  await expect(
+    page.getByRole('status').filter({ hasText: 'Showing the first 100 of 2,000 processes' })
+  ).toBeVisible();
+  await expect(page.locator('main li')).toHaveCount(100);
+  await page.getByLabel('Find a process').fill('Line 1999');
+  await expect(page.locator('main li')).toHaveCount(1);
+  await expect(page.locator('main li')).toContainText(
+    /Line 1999 · .+ · 1 characteristic · latest \d{4}-\d{2}$/
+  );
+
   await page.goto(new URL('/review', server.url).href);
   longTasks = await watchLongTasks(page);
   await expect(page.getByTestId('headline-reviewed')).toHaveText(/\d+/, { timeout: 60_000 });

@@ -23,6 +23,26 @@ describe('demo portfolio loading', () => {
     const rows = await listProcessOverviews(databaseOf(storage));
     expect(rows).toHaveLength(demo.records.processes.length);
     expect(rows.every((r) => r.characteristics.length >= 1 && r.characteristics.length <= 3)).toBe(true);
+    // The latest live month of each characteristic, as the file's own studies give it.
+    const expected = new Map<string, string>();
+    for (const s of demo.records.studies)
+      if (!('deletedAt' in s) && s.period > (expected.get(s.characteristicId) ?? ''))
+        expected.set(s.characteristicId, s.period);
+    const ids = demo.records.characteristics.map((c) => c.id);
+    expect(await storage.read.latestMonths(ids)).toEqual(expected);
+    // A deleted latest study leaves the month before it as the latest.
+    const [someId, month] = [...expected].find(([id]) =>
+      demo.records.studies.some((s) => s.characteristicId === id && s.period < expected.get(id)!)
+    )!;
+    const latestStudy = demo.records.studies.find(
+      (s) => s.characteristicId === someId && s.period === month
+    )!;
+    await storage.studies.remove(latestStudy.id, someId);
+    const before = demo.records.studies
+      .filter((s) => s.characteristicId === someId && s.period < month)
+      .reduce((a, s) => (s.period > a ? s.period : a), '');
+    expect((await storage.read.latestMonths([someId])).get(someId)).toBe(before);
+    await storage.studies.restore(latestStudy.id, someId);
     await expect(loadDemoPortfolio(databaseOf(storage), demo)).rejects.toThrow(/already loaded/);
     const summary = await summariseDatabase(databaseOf(storage));
     expect(summary.tables.find((t) => t.name === 'Studies')?.live).toBe(demo.records.studies.length);

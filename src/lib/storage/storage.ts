@@ -41,6 +41,7 @@ import {
 } from './demo-portfolio-loader';
 import { loadMonthlyLogStatus, type MonthlyLogStatus } from './monthly-log-status';
 import {
+  latestLiveMonths,
   listProcessOverviews,
   loadPortfolioRecords,
   portfolioChangeMark,
@@ -81,6 +82,8 @@ export interface CapstanStorage {
   /** Read models for the pages; each is safe to run inside a live query. */
   readonly read: {
     processOverviews(): Promise<ProcessOverview[]>;
+    /** The latest month with a live study of each of these characteristics (none: left out). */
+    latestMonths(characteristicIds: readonly string[]): Promise<Map<string, string>>;
     portfolioRecords(): ReturnType<typeof loadPortfolioRecords>;
     /** Changes whenever a record of the portfolio is written (portfolio-overview.ts); reads no records. */
     portfolioChangeMark(): ReturnType<typeof portfolioChangeMark>;
@@ -236,6 +239,7 @@ export async function openStorage(
     },
     read: {
       processOverviews: () => listProcessOverviews(db),
+      latestMonths: (characteristicIds) => latestLiveMonths(db, characteristicIds),
       portfolioRecords: () => loadPortfolioRecords(db),
       portfolioChangeMark: () => portfolioChangeMark(db),
       processDetail: (processId) => loadProcessDetail(db, processId),
