@@ -3,6 +3,7 @@ import demo from '../../../../seed-data/demo-portfolio.json';
 import { BUILT_IN_PROFILES } from '../../domain/context-profile';
 import { parseDemoPortfolio } from '../../domain/demo-portfolio-schema';
 import { buildQuarterReview } from '../../domain/quarter-review';
+import { formatIndex } from '../../domain/figure-format';
 import type { ReviewProcessLine } from '../../domain/review-figures';
 import {
   movementOption,
@@ -114,7 +115,9 @@ describe('long portfolios', () => {
     for (const [seriesIndex, list] of [beyond, within].entries())
       list.forEach((m, dataIndex) => {
         const text = option.tooltip.formatter({ seriesIndex, dataIndex });
-        expect(text.startsWith(`${m.process} · ${m.site}\n`)).toBe(true);
+        expect(text).toBe(
+          `${m.process} · ${m.site}\n${figures.previousQuarter}: ${formatIndex(m.zBefore)}   ${figures.quarter}: ${formatIndex(m.zAfter)}`
+        );
         expect(option.series[seriesIndex]!.data[dataIndex]![1]).toBeCloseTo(m.zAfter, 2);
       });
     expect(option.tooltip.formatter({ seriesIndex: 0, dataIndex: 10_000 })).toBe('');

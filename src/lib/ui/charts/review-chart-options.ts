@@ -1,4 +1,5 @@
 import { firstInOrder } from '../../domain/first-in-order';
+import { formatIndex } from '../../domain/figure-format';
 import type { EChartsCoreOption } from 'echarts/core';
 import type { ReviewFigures, ReviewProcessLine } from '../../domain/review-figures';
 
@@ -185,12 +186,13 @@ export function movementOption(figures: ReviewFigures): EChartsCoreOption {
   const beyond = all.filter((m) => m.beyondNoise);
   const within = all.filter((m) => !m.beyondNoise);
   const point = (m: ReviewFigures['movers'][number]): [number, number] => [round(m.zBefore), round(m.zAfter)];
-  // The points carry no names (scatterPoints): the tooltip finds the process by its series and place.
+  // The points carry no names (scatterPoints): the tooltip finds the process by its series and place, and writes
+  // its z-levels as the table beside the chart does.
   const named = [beyond, within];
   const tooltip = (p: { seriesIndex?: number; dataIndex?: number }) => {
     const m = named[p.seriesIndex ?? -1]?.[p.dataIndex ?? -1];
     return m
-      ? `${m.process} · ${m.site}\n${figures.previousQuarter}: ${round(m.zBefore)}   ${figures.quarter}: ${round(m.zAfter)}`
+      ? `${m.process} · ${m.site}\n${figures.previousQuarter}: ${formatIndex(m.zBefore)}   ${figures.quarter}: ${formatIndex(m.zAfter)}`
       : '';
   };
   return {
