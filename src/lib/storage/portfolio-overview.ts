@@ -173,6 +173,34 @@ export async function loadPortfolioRecords(db: CapstanDatabase) {
   };
 }
 
+/** Each table's latest device-local sequence number and row count, read through indexes only. */
+function tableMarks(tables: readonly object[]): Promise<{ last: string; count: number }[]> {
+  return Promise.all(
+    tables.map(async (table) => {
+      const t = table as Table<RecordMeta, string>;
+      const [last, count] = await Promise.all([t.orderBy('localSeq').lastKey(), t.count()]);
+      return { last: String(last ?? 0), count };
+    })
+  );
+}
+
+/**
+ * A mark that changes whenever a record summariseDatabase counts is written, in this tab or another (as
+ * portfolioChangeMark, with the context targets too): a page watches it and lets a worker count the records
+ * (portfolio-reader.ts, summariseRecords).
+ */
+export async function recordsChangeMark(db: CapstanDatabase): Promise<string> {
+  const parts = await tableMarks([
+    db.sites,
+    db.processes,
+    db.characteristics,
+    db.studyShelves,
+    db.projects,
+    db.contextProfiles
+  ]);
+  return parts.map((p) => `${p.last}/${p.count}`).join(' ');
+}
+
 /**
  * A mark that changes whenever a record the portfolio is ranked from is written, in this tab or another: the
  * latest device-local sequence number and the row count of each table (a delete is a tombstone, so a put). Read
@@ -182,13 +210,7 @@ export async function loadPortfolioRecords(db: CapstanDatabase) {
 export async function portfolioChangeMark(
   db: CapstanDatabase
 ): Promise<{ mark: string; storedSites: number; storedProcesses: number }> {
-  const parts = await Promise.all(
-    [db.sites, db.processes, db.characteristics, db.studyShelves, db.projects].map(async (table) => {
-      const t = table as unknown as typeof db.sites;
-      const [last, count] = await Promise.all([t.orderBy('localSeq').lastKey(), t.count()]);
-      return { last: String(last ?? 0), count };
-    })
-  );
+  const parts = await tableMarks([db.sites, db.processes, db.characteristics, db.studyShelves, db.projects]);
   return {
     mark: parts.map((p) => `${p.last}/${p.count}`).join(' '),
     // Stored rows, deleted ones included: zero means there is certainly nothing to rank.

@@ -45,6 +45,7 @@ import {
   listProcessOverviews,
   loadPortfolioRecords,
   portfolioChangeMark,
+  recordsChangeMark,
   loadProcessDetail,
   summariseDatabase,
   type DatabaseSummary,
@@ -90,6 +91,8 @@ export interface CapstanStorage {
     processDetail(processId: string): Promise<ProcessDetail | undefined>;
     monthlyLogStatus(siteId: string, period: string): Promise<MonthlyLogStatus>;
     summary(): Promise<DatabaseSummary>;
+    /** Changes whenever a record `summary` counts is written (portfolio-overview.ts); reads no records. */
+    recordsChangeMark(): Promise<string>;
     isEmpty(): Promise<boolean>;
   };
   /** Change sets for file exchange (or any later transport). */
@@ -245,6 +248,7 @@ export async function openStorage(
       processDetail: (processId) => loadProcessDetail(db, processId),
       monthlyLogStatus: (siteId, period) => loadMonthlyLogStatus(db, siteId, period),
       summary: () => summariseDatabase(db),
+      recordsChangeMark: () => recordsChangeMark(db),
       isEmpty: () => isPortfolioEmpty(db)
     },
     exchange: {
