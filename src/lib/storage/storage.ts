@@ -47,8 +47,6 @@ import {
   portfolioChangeMark,
   recordsChangeMark,
   loadProcessDetail,
-  summariseDatabase,
-  type DatabaseSummary,
   type ProcessDetail,
   type ProcessOverview
 } from './portfolio-overview';
@@ -90,7 +88,6 @@ export interface CapstanStorage {
     portfolioChangeMark(): ReturnType<typeof portfolioChangeMark>;
     processDetail(processId: string): Promise<ProcessDetail | undefined>;
     monthlyLogStatus(siteId: string, period: string): Promise<MonthlyLogStatus>;
-    summary(): Promise<DatabaseSummary>;
     /** Changes whenever a record `summary` counts is written (portfolio-overview.ts); reads no records. */
     recordsChangeMark(): Promise<string>;
     isEmpty(): Promise<boolean>;
@@ -247,7 +244,6 @@ export async function openStorage(
       portfolioChangeMark: () => portfolioChangeMark(db),
       processDetail: (processId) => loadProcessDetail(db, processId),
       monthlyLogStatus: (siteId, period) => loadMonthlyLogStatus(db, siteId, period),
-      summary: () => summariseDatabase(db),
       recordsChangeMark: () => recordsChangeMark(db),
       isEmpty: () => isPortfolioEmpty(db)
     },
