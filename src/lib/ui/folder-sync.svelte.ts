@@ -2,7 +2,7 @@ import type { FolderSyncReport, SyncDirectory } from '../exchange/folder-sync';
 import type { FolderSyncState } from '../storage/folder-sync-state';
 import type { CapstanStorage } from '../storage/storage';
 import { exportInWorker, receiveInWorker } from './exchange-worker-client';
-import { refreshReadModel } from './read-model-refresh';
+import { refreshReadModel } from './device-reader-client';
 
 /**
  * The page side of syncing through a shared folder (exchange/folder-sync.ts): choosing the folder, keeping its
