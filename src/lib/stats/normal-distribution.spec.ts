@@ -2,7 +2,14 @@ import fc from 'fast-check';
 import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
 import { checkValues, expectAbsolute, expectRelative } from '../../../tests/support/reference-data';
-import { normalCdf, normalQuantile, normalSf, normalUpperQuantile } from './normal-distribution';
+import {
+  millsRatio,
+  millsTerms,
+  normalCdf,
+  normalQuantile,
+  normalSf,
+  normalUpperQuantile
+} from './normal-distribution';
 
 describe('standard normal tails', () => {
   // Source: tests/fixtures/check-values.json sigma_level_table.computed_scipy (scipy.stats.norm.sf, scipy 1.17).
@@ -40,6 +47,20 @@ describe('standard normal tails', () => {
       expectRelative(normalCdf(z), jStat.normal.cdf(z, 0, 1), 1e-12, `z=${z}`);
     for (let z = -5; z <= 5; z += 0.25)
       expectRelative(normalCdf(z), jStat.normal.cdf(z, 0, 1), 1e-9, `z=${z}`);
+  });
+
+  it('takes enough terms of the continued fraction: within 4e-16 of 5 000 terms over z ∈ [3, 38.5]', () => {
+    // The fraction converges (A&S 26.2.14); 5 000 terms are far past the point where more change no digit here.
+    let worst = 0;
+    let worstZ = 3;
+    for (let i = 0; i <= 14_200; i += 1) {
+      const z = 3 + i * 2.5e-3;
+      const error = Math.abs(millsRatio(z) / millsRatio(z, 5000) - 1);
+      if (error > worst) [worst, worstZ] = [error, z];
+    }
+    expect(worst, `at z = ${worstZ}`).toBeLessThan(4e-16);
+    // Fewer terms than millsTerms gives do not reach it where the fraction converges slowest.
+    expect(Math.abs(millsRatio(3, millsTerms(3) - 30) / millsRatio(3, 5000) - 1)).toBeGreaterThan(4e-16);
   });
 
   it('is continuous where the series hands over to the continued fraction (z = 3)', () => {
