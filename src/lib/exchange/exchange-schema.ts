@@ -81,10 +81,10 @@ export const exchangeRecordSchemas = {
   contextProfiles: withMeta(contextProfileFieldsSchema),
   sites: withMeta(siteFieldsSchema),
   processes: withMeta(processFieldsSchema),
-  // Characteristic and project schemas carry cross-field checks, which zod keeps through `.and`.
-  characteristics: characteristicFieldsSchema.and(exchangeMeta),
+  // Characteristic and project schemas carry cross-field checks, which zod's safeExtend keeps.
+  characteristics: characteristicFieldsSchema.safeExtend(exchangeMeta.shape),
   studies: withMeta(studyFieldsSchema),
-  projects: improvementProjectFieldsSchema.and(exchangeMeta),
+  projects: improvementProjectFieldsSchema.safeExtend(exchangeMeta.shape),
   reviews: withMeta(quarterReviewFieldsSchema)
 } as const;
 
