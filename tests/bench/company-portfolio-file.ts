@@ -1,14 +1,16 @@
 /**
  * A company's portfolio as an exchange file, the way a real one arrives: 50 sites, N processes with one
  * characteristic each (a third counted), 36 months of monthly studies (summaries or counts), a project on every
- * tenth process — every record stamped as the app stamps it. Used by the browser rows (import, then the pages)
- * and the command-line rows (`rank`, `check`).
+ * tenth process — every record stamped as the app stamps it, under a random (seeded) UUID, and each list in id
+ * order as an export writes it. Used by the browser rows (import, then the pages) and the command-line rows
+ * (`rank`, `check`).
  */
 import { BUILT_IN_PROFILES } from '../../src/lib/domain/context-profile';
 import { PROJECT_PHASES } from '../../src/lib/domain/improvement-project';
 import { addMonths } from '../../src/lib/domain/period';
 import { editableOf, stampNew, stampUpdate, type WriteContext } from '../../src/lib/domain/record-meta';
 import { changeSetOf, encodeExchangeFile } from '../../src/lib/exchange/exchange-file';
+import { inIdOrder, seededIds } from './seeded-ids';
 
 export const COMPANY_LAST_PERIOD = '2026-10';
 
@@ -21,11 +23,10 @@ export async function companyPortfolioFile(
   months = 36,
   options: { revised?: boolean } = {}
 ): Promise<Uint8Array> {
-  let n = 0;
   const ctx: WriteContext = {
     deviceId: 'bench-device',
     now: () => new Date('2026-11-15T00:00:00Z'),
-    newId: () => `00000000-0000-4000-8000-${String(++n).padStart(12, '0')}`
+    newId: seededIds(20261115)
   };
   let s = 12345;
   const u = () => (s = (s * 48271) % 2147483647) / 2147483647;
@@ -105,11 +106,12 @@ export async function companyPortfolioFile(
   return encodeExchangeFile(
     changeSetOf(header, {
       contextProfiles: [],
-      sites,
-      processes,
-      characteristics,
-      studies,
-      projects,
+      // Each list in id order, as an export reads them from IndexedDB.
+      sites: inIdOrder(sites),
+      processes: inIdOrder(processes),
+      characteristics: inIdOrder(characteristics),
+      studies: inIdOrder(studies),
+      projects: inIdOrder(projects),
       reviews: []
     })
   );

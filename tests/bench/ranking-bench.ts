@@ -31,6 +31,7 @@ import { buildQuarterReview } from '../../src/lib/domain/quarter-review';
 import type { Study } from '../../src/lib/domain/study';
 import type { BenchRow } from './engine-bench';
 import { snapshotOf, storedForm } from '../../src/lib/storage/portfolio-reader';
+import { inIdOrder, seededIds } from './seeded-ids';
 import {
   describeCharacteristics,
   fillTypedPortfolio,
@@ -41,8 +42,11 @@ import {
 export const BENCH_FIRST_PERIOD = '2024-01';
 
 /**
- * A generated portfolio. With `sink`, each process's studies go to it (as they would arrive from storage a page
- * at a time) and are not kept: the records then hold no study, as in the app's workers.
+ * A generated portfolio, shaped as the app holds it: record ids are random UUIDs (seeded), each record list is in
+ * id order (as IndexedDB returns a table), and the studies arrive by characteristic id (as the study shelves are
+ * read, storage/study-shelves.ts) — so the read model's rows follow the characteristics' ids, and the processes
+ * come in an order of their own. With `sink`, each characteristic's studies go to it (a page at a time) and are
+ * not kept: the records then hold no study, as in the app's workers.
  */
 export function generatePortfolio(
   processCount: number,
@@ -51,17 +55,19 @@ export function generatePortfolio(
 ): PortfolioRecords {
   let s = 12345;
   const u = () => (s = (s * 48271) % 2147483647) / 2147483647;
+  const newId = seededIds(20261205);
   const meta = (id: string) => ({ id, createdAt: '', updatedAt: '', rev: 1, deviceId: 'bench' });
   const contexts = BUILT_IN_PROFILES.map((p) => p.id);
+  const siteIds = Array.from({ length: Math.min(50, processCount) }, newId);
   const processes: Process[] = [];
   const characteristics: Characteristic[] = [];
   const studies: Study[] = [];
   const projects: ImprovementProject[] = [];
   for (let p = 0; p < processCount; p += 1) {
-    const pid = `p${p}`;
+    const pid = newId();
     processes.push({
       ...meta(pid),
-      siteId: `site${p % 50}`,
+      siteId: siteIds[p % 50]!,
       name: `Process ${p}`,
       owner: '',
       contextId: contexts[p % contexts.length] as string,
@@ -72,7 +78,7 @@ export function generatePortfolio(
     // A project on every tenth process, a fifth of them in Control.
     if (p % 10 === 0)
       projects.push({
-        ...meta(`project-${p}`),
+        ...meta(newId()),
         processId: pid,
         title: `Project ${p}`,
         phase: PROJECT_PHASES[(p / 10) % PROJECT_PHASES.length]!,
@@ -81,9 +87,8 @@ export function generatePortfolio(
         expectedAnnualSaving: 10_000
       });
     const counted = p % 3 === 0;
-    const cid = `c${p}`;
     characteristics.push({
-      ...meta(cid),
+      ...meta(newId()),
       processId: pid,
       name: 'c',
       unit: '',
@@ -91,11 +96,14 @@ export function generatePortfolio(
       riskClass: p % 7 === 0 ? 'safety' : 'standard',
       ...(counted ? {} : { lsl: 7, usl: 13 })
     });
+  }
+  inIdOrder(characteristics).forEach((c, i) => {
+    const counted = c.dataKind === 'counted';
     const own: Study[] = [];
     for (let m = 0; m < months; m += 1) {
       own.push({
-        ...meta(`${cid}-${m}`),
-        characteristicId: cid,
+        ...meta(newId()),
+        characteristicId: c.id,
         period: addMonths(BENCH_FIRST_PERIOD, m),
         enteredBy: '',
         data: counted
@@ -103,25 +111,24 @@ export function generatePortfolio(
           : { kind: 'summary', n: 50, mean: 10 + (u() - 0.5), sd: 0.4 + u() * 0.4 }
       });
     }
-    // Through JSON one process at a time: shaped as received, without one giant string at the peak.
+    // Through JSON one characteristic at a time: shaped as received, without one giant string at the peak.
     const received = JSON.parse(JSON.stringify(own)) as Study[];
     if (sink) sink(received);
     else for (const study of received) studies.push(study);
     // The generator's garbage is not the app's: collect it as it goes (when the process allows), so that the
     // peak memory printed is that of the records and the ranking, not of how the bench made them.
-    if (p % 500 === 499) (globalThis as { gc?: () => void }).gc?.();
-  }
-  const sites = Array.from({ length: Math.min(50, processCount) }, (_, i) => ({
-    ...meta(`site${i}`),
-    name: `Site ${i}`,
-    region: '',
-    timeZone: 'UTC'
-  }));
+    if (i % 500 === 499) (globalThis as { gc?: () => void }).gc?.();
+  });
+  const sites = siteIds.map((id, i) => ({ ...meta(id), name: `Site ${i}`, region: '', timeZone: 'UTC' }));
   return {
-    ...(JSON.parse(JSON.stringify({ sites, processes, characteristics, projects })) as Omit<
-      PortfolioRecords,
-      'studies'
-    >),
+    ...(JSON.parse(
+      JSON.stringify({
+        sites: inIdOrder(sites),
+        processes: inIdOrder(processes),
+        characteristics,
+        projects: inIdOrder(projects)
+      })
+    ) as Omit<PortfolioRecords, 'studies'>),
     studies
   };
 }
@@ -139,11 +146,7 @@ export function measureScale(size: number): BenchRow[] {
   // The studies arrive a process at a time and go into the read model and the baseline's arrays; no study
   // object outlives its page, as in the app's workers (storage/portfolio-reader.ts).
   const statistics = new MonthlyStatistics();
-  const typed = typedPortfolioOf(
-    Array.from({ length: size }, (_, p) => `c${p}`),
-    months,
-    BENCH_FIRST_PERIOD
-  );
+  const typed = typedPortfolioOf(size, months, BENCH_FIRST_PERIOD);
   let buildMs = 0;
   const bare = generatePortfolio(size, months, (page) => {
     fillTypedPortfolio(typed, page);

@@ -26,19 +26,18 @@ export interface TypedPortfolio {
   defectives: Float64Array;
 }
 
-/** Empty arrays for these characteristics (ids in row order), months from `firstPeriod`. */
-export function typedPortfolioOf(
-  ids: readonly string[],
-  months: number,
-  firstPeriod: string
-): TypedPortfolio {
-  const chars = ids.length;
+/**
+ * Empty arrays for `chars` characteristics, months from `firstPeriod`. Each characteristic takes the next slot
+ * when its first study is written (fillTypedPortfolio): slots follow the order the studies arrive in, as the
+ * read model's rows do.
+ */
+export function typedPortfolioOf(chars: number, months: number, firstPeriod: string): TypedPortfolio {
   const size = chars * months;
   return {
     chars,
     months,
     firstMonth: monthOrdinal(firstPeriod),
-    index: new Map(ids.map((id, i) => [id, i])),
+    index: new Map(),
     counted: new Uint8Array(chars),
     lsl: new Float64Array(chars).fill(NaN),
     usl: new Float64Array(chars).fill(NaN),
@@ -67,8 +66,12 @@ export function describeCharacteristics(
 /** Writes studies into their cells (the generator hands them over a process at a time). */
 export function fillTypedPortfolio(t: TypedPortfolio, studies: readonly Study[]): void {
   for (const s of studies) {
-    const c = t.index.get(s.characteristicId);
-    if (c === undefined) continue;
+    let c = t.index.get(s.characteristicId);
+    if (c === undefined) {
+      if (t.index.size === t.chars) continue;
+      c = t.index.size;
+      t.index.set(s.characteristicId, c);
+    }
     const k = c * t.months + (monthOrdinal(s.period) - t.firstMonth);
     const d = s.data;
     if (d.kind === 'summary') {

@@ -52,12 +52,16 @@ export class WindowFiguresCache {
       this.#model = model;
     }
     if (this.#size >= TOTAL) this.clear();
-    const kept = this.#byRow[row];
+    const byRow = this.#byRow;
+    // Filled up to the row first: windows come in the order of the processes (by id), not of the model's rows,
+    // and an array written far past its end is kept as a dictionary, where every lookup hashes.
+    while (byRow.length <= row) byRow.push(undefined);
+    const kept = byRow[row];
     if (!kept) {
-      this.#byRow[row] = window;
+      byRow[row] = window;
       this.#size += 1;
     } else if (!Array.isArray(kept)) {
-      this.#byRow[row] = [kept, window];
+      byRow[row] = [kept, window];
       this.#size += 1;
     } else if (kept.length < PER_CHARACTERISTIC) {
       kept.push(window);
