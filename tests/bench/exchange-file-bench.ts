@@ -8,15 +8,15 @@ import { stampNew, type WriteContext } from '../../src/lib/domain/record-meta';
 import { mergeRecordSets } from '../../src/lib/domain/record-set-merge';
 import { changeSetOf, decodeExchangeFile, encodeExchangeFile } from '../../src/lib/exchange/exchange-file';
 import type { BenchRow } from './engine-bench';
+import { seededIds } from './seeded-ids';
 
 const STUDIES = 100_000;
 
 export async function runExchangeFileBench(): Promise<BenchRow[]> {
-  let n = 0;
   const ctx: WriteContext = {
     deviceId: 'bench-device',
     now: () => new Date('2026-06-01T00:00:00Z'),
-    newId: () => `00000000-0000-4000-8000-${String(++n).padStart(12, '0')}`
+    newId: seededIds(20260601)
   };
   const site = stampNew({ name: 'Bench works', region: '', timeZone: 'UTC' }, ctx);
   const processes = Array.from({ length: 500 }, (_, i) =>
