@@ -72,10 +72,21 @@ export async function buildExport(
 /** A file written from a scope (writeExport): its bytes, its name, its header's counts and its high-water mark. */
 export interface ExportedFile {
   bytes: Uint8Array;
+  /**
+   * The same file as a Blob of its media type (exchangeMediaType), made where it was written: the exchange worker
+   * sends it with the bytes, and the page downloads it without copying them (the copy was one task of 37–116 ms on
+   * the page for a company's file of 20 000 processes).
+   */
+  blob?: Blob;
   fileName: string;
   counts: ChangeSet['header']['counts'];
   /** The highest write sequence it holds (CollectedChanges.highWater): what remembering it moves the checkpoint to. */
   highWater: number;
+}
+
+/** Media type of an exchange file as written: gzip-compressed or plain JSON. */
+export function exchangeMediaType(gzip: boolean | undefined): string {
+  return gzip ? 'application/gzip' : 'application/json';
 }
 
 /**

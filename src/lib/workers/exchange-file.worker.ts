@@ -19,6 +19,7 @@ import {
   type DecodeStage
 } from '../exchange/exchange-file';
 import {
+  exchangeMediaType,
   writeExport,
   type ExportedFile,
   type ExportIdentity,
@@ -103,7 +104,9 @@ async function exportFile(request: Extract<ExchangeWorkerRequest, { type: 'expor
     const file = await writeExport(storage, request.scope, request.identity, request.options, () =>
       post({ type: 'stage', stage: 'writing' })
     );
-    post({ type: 'exported', file }, [file.bytes.buffer]);
+    // The Blob copies the bytes here, off the page's thread; posting it passes a handle.
+    const blob = new Blob([file.bytes as BlobPart], { type: exchangeMediaType(request.options.gzip) });
+    post({ type: 'exported', file: { ...file, blob } }, [file.bytes.buffer]);
   } finally {
     storage.close();
   }
