@@ -497,9 +497,12 @@ export function* settleMergeSteps(
     touched.add(id);
   }
   const restoreUnder = (kind: RecordKind, id: string, instants: Set<string>) => {
-    for (const child of work.childrenOf(kind, id)) {
+    const children = work.childrenOf(kind, id);
+    const studiesBack = kind === 'characteristics' ? studiesToRestore(work, children, instants) : undefined;
+    for (const child of children) {
       const r = child.record;
-      if (!isLive(r) && r.deletedAt !== undefined && instants.has(r.deletedAt)) {
+      const deletedWith = !isLive(r) && r.deletedAt !== undefined && instants.has(r.deletedAt);
+      if (deletedWith && (studiesBack === undefined || studiesBack.has(r.id))) {
         put(child.kind, stampRestored(r, ctx));
       }
       if (isLive(current(r.id))) restoreUnder(child.kind, r.id, instants);
@@ -541,8 +544,9 @@ export function* settleMergeSteps(
     const choice: ConflictChoice | 'newer' =
       pick ?? (rule === 'newer' ? 'newer' : rule === 'local' ? 'local' : 'incoming');
     if (c.nature === 'emptied-month') {
-      // Both were deleted by the merge; a family choice may already have brought one back.
-      if (isLive(here) || isLive(there)) continue;
+      // Both were deleted by the merge; a family choice may already have brought one back, or another study of
+      // the month (studiesToRestore).
+      if (work.studiesOfMonth(here.characteristicId, here.period).some(isLive)) continue;
       const [a, b] = [c.local as Study, c.incoming as Study];
       if (choice === 'combine') {
         if (!c.canCombine)
@@ -586,6 +590,35 @@ export function* settleMergeSteps(
   }
   yield* assertConsistent(work, out);
   return out;
+}
+
+/**
+ * Which of a characteristic's studies deleted with its family come back when the family does: at most one per
+ * month, and none where the month holds a live study already. Each device deletes the studies it holds with a
+ * family, so a family brought back can hold two deleted studies of one month — one from each device — and
+ * bringing back both broke "one live study per characteristic and month" (found by the multi-device histories
+ * under seed 20261205: the merge then refused every file from that device). Of a month's deleted studies the
+ * newest edit comes back (ties: the lower id), so every device chooses alike; the others stay deleted, as the
+ * family's deletion left them, behind the family conflict the person was shown.
+ */
+function studiesToRestore(
+  work: RecordIndex,
+  children: readonly IndexedRecord[],
+  instants: ReadonlySet<string>
+): Set<string> {
+  const newest = new Map<string, Study>();
+  for (const { kind, record } of children) {
+    if (kind !== 'studies' || isLive(record) || record.deletedAt === undefined) continue;
+    if (!instants.has(record.deletedAt)) continue;
+    const study = record as Study;
+    const kept = newest.get(study.period);
+    if (!kept || (compareEdits(study, kept) || (study.id < kept.id ? 1 : -1)) > 0)
+      newest.set(study.period, study);
+  }
+  const back = new Set<string>();
+  for (const study of newest.values())
+    if (!work.studiesOfMonth(study.characteristicId, study.period).some(isLive)) back.add(study.id);
+  return back;
 }
 
 /**
