@@ -117,6 +117,28 @@ test('the review of a demo quarter shows the right headline, keeps a note and pr
     'rank,process,site,z-level,z-level basis,required z,gap,ppm,cost per year,currency,weakest,what would help'
   );
 
+  // The sites chart in figures: five numbers per site, its median the sites table's, and the CSV of every
+  // z-level holds as many rows as the sites' counts add up to.
+  const spread = page.getByTestId('site-spread-table');
+  const spreadRows = await spread
+    .locator('tbody tr')
+    .evaluateAll((rows) => rows.map((r) => [...r.children].map((c) => c.textContent?.trim() ?? '')));
+  const siteRows = await page
+    .getByTestId('sites-table')
+    .locator('tbody tr')
+    .evaluateAll((rows) => rows.map((r) => [...r.children].map((c) => c.textContent?.trim() ?? '')));
+  expect(spreadRows.map((r) => [r[0], r[4]])).toEqual(siteRows.map((r) => [r[0], r[4]]));
+  const zCount = spreadRows.reduce((sum, r) => sum + Number(r[1]), 0);
+  expect(zCount).toBeGreaterThan(0);
+  const zCsv = await saved(() =>
+    page
+      .getByRole('button', { name: `CSV of every z-level: download capstan-review-${QUARTER}-z-levels.csv` })
+      .click()
+  );
+  const zLines = zCsv.bytes.toString('utf8').trim().split('\r\n');
+  expect(zLines[0]).toBe('site,process,z-level,z-level basis,status');
+  expect(zLines.length - 1).toBe(zCount);
+
   const pdfPath = join(work, 'review.pdf');
   writeFileSync(pdfPath, await page.pdf({ format: 'A4', printBackground: true }));
   if (process.env.CAPSTAN_KEEP_PDF) writeFileSync(process.env.CAPSTAN_KEEP_PDF, readFileSync(pdfPath));

@@ -33,3 +33,28 @@ export function median(values: ArrayLike<number>): number | undefined {
   const m = Math.floor(n / 2);
   return n % 2 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
 }
+
+/** Lowest, quartiles (quantileType6), median and highest of a set of values. */
+export interface FiveNumbers {
+  lowest: number;
+  lowerQuartile: number;
+  median: number;
+  upperQuartile: number;
+  highest: number;
+}
+
+/**
+ * Tukey's five-number summary with the quartiles by the p(n+1) rule (quantileType6), the median as `median`
+ * gives it (the rule's value at p = ½), for values in any order; undefined for none. NaN-free input assumed.
+ */
+export function fiveNumbers(values: ArrayLike<number>): FiveNumbers | undefined {
+  if (values.length === 0) return undefined;
+  const s = sortedCopy(values);
+  return {
+    lowest: s[0]!,
+    lowerQuartile: quantileType6(s, 0.25),
+    median: quantileType6(s, 0.5),
+    upperQuartile: quantileType6(s, 0.75),
+    highest: s[s.length - 1]!
+  };
+}
