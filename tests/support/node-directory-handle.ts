@@ -24,8 +24,10 @@ export function nodeDirectoryHandle(path: string): SyncDirectory {
       async createWritable() {
         const chunks: Uint8Array[] = [];
         return {
-          async write(data: Uint8Array) {
-            chunks.push(new Uint8Array(data));
+          async write(data: Uint8Array | Blob) {
+            chunks.push(
+              data instanceof Blob ? new Uint8Array(await data.arrayBuffer()) : new Uint8Array(data)
+            );
           },
           async close() {
             await writeFile(join(path, current), Buffer.concat(chunks));

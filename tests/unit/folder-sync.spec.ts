@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { afterAll, afterEach, describe, expect, it } from 'vitest';
 import { changeSetOf, decodeExchangeFile, exchangeText } from '../../src/lib/exchange/exchange-file';
 import { syncWithFolder } from '../../src/lib/exchange/folder-sync';
+import { writeExport } from '../../src/lib/exchange/export-change-set';
 import type { CapstanStorage } from '../../src/lib/storage/storage';
 import { closeDevice, openDevice } from '../support/exchange-harness';
 import { nodeDirectoryHandle } from '../support/node-directory-handle';
@@ -138,6 +139,55 @@ describe('sync through a shared folder', () => {
     const renamed = await sync(north, path);
     expect(renamed.wrote).toBe(true);
     expect(readdirSync(path)).toEqual([expect.stringMatching(/^North-Ridge-lead-\w{8}\.capstan\.json\.gz$/)]);
+  });
+
+  it("writes the export worker's Blob into the folder as it is, not a copy of its bytes", async () => {
+    const path = newFolder();
+    const north = await device('North lead');
+    await north.sites.create({ name: 'North Ridge', timeZone: 'Europe/Oslo', region: 'North' });
+    const disk = nodeDirectoryHandle(path);
+    const written: unknown[] = [];
+    // The folder as the page holds it, noting what each writer is given.
+    const folder = {
+      ...disk,
+      values: () => disk.values(),
+      async getFileHandle(name: string, options?: { create?: boolean }) {
+        const handle = await disk.getFileHandle(name, options);
+        return {
+          ...handle,
+          get name() {
+            return handle.name;
+          },
+          getFile: () => handle.getFile(),
+          move: handle.move && ((to: string) => handle.move!(to)),
+          async createWritable() {
+            const writer = await handle.createWritable();
+            return {
+              write: (data: Uint8Array | Blob) => (written.push(data), writer.write(data)),
+              close: () => writer.close()
+            };
+          }
+        };
+      }
+    };
+    let blob: Blob | undefined;
+    const report = await syncWithFolder({
+      storage: north,
+      folder,
+      appVersion: 'test',
+      // As the page's export worker answers: the bytes and a Blob of them.
+      writeFile: async (scope, identity, options) => {
+        const file = await writeExport(north, scope, identity, options);
+        blob = new Blob([file.bytes as BlobPart]);
+        return { ...file, blob };
+      }
+    });
+    expect(report.wrote).toBe(true);
+    expect(written).toEqual([blob]);
+    expect(written[0]).toBe(blob);
+    const [name] = readdirSync(path);
+    const { records } = await decodeExchangeFile(new Uint8Array(readFileSync(join(path, name!))));
+    expect(records.sites.map((x) => x.name)).toEqual(['North Ridge']);
   });
 
   it('passes on fields written by a newer app version unchanged', async () => {

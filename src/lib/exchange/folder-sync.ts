@@ -38,7 +38,7 @@ export interface SyncDirectory {
 export interface SyncFileHandle {
   readonly name: string;
   getFile(): Promise<Blob & { readonly lastModified: number }>;
-  createWritable(): Promise<{ write(data: Uint8Array): Promise<void>; close(): Promise<void> }>;
+  createWritable(): Promise<{ write(data: Uint8Array | Blob): Promise<void>; close(): Promise<void> }>;
   /** Renames in place (Chromium; in the origin-private file system and for picked folders). */
   move?(newName: string): Promise<void>;
 }
@@ -71,19 +71,19 @@ export interface FolderSyncReport {
 }
 
 /**
- * Writes bytes under a hidden temporary name, then renames them into place, so the sync service never
- * carries half a file. Where renaming is not offered, the file is written in place (Chromium still swaps a
- * complete file in when the writer closes) and the temporary copy removed.
+ * Writes a file (its bytes, or a Blob of them) under a hidden temporary name, then renames it into place, so the
+ * sync service never carries half a file. Where renaming is not offered, the file is written in place (Chromium
+ * still swaps a complete file in when the writer closes) and the temporary copy removed.
  */
 export async function writeFileAtomically(
   folder: SyncDirectory,
   name: string,
-  bytes: Uint8Array
+  content: Uint8Array | Blob
 ): Promise<void> {
   const partName = unfinishedNameOf(name);
   const part = await folder.getFileHandle(partName, { create: true });
   const writer = await part.createWritable();
-  await writer.write(bytes);
+  await writer.write(content);
   await writer.close();
   if (part.move) {
     try {
@@ -95,7 +95,7 @@ export async function writeFileAtomically(
   }
   const final = await folder.getFileHandle(name, { create: true });
   const finalWriter = await final.createWritable();
-  await finalWriter.write(bytes);
+  await finalWriter.write(content);
   await finalWriter.close();
   await folder.removeEntry(partName).catch(() => undefined);
 }
@@ -210,7 +210,9 @@ export async function syncWithFolder(options: FolderSyncOptions): Promise<Folder
       exportedAt: at
     };
     const file = await writeFile(OWN_FILE.scope, identity, OWN_FILE.options);
-    await writeFileAtomically(folder, ownFile, file.bytes);
+    // The Blob the export worker made, where there is one: written from it, the file is not copied on the page's
+    // thread first (a copy of the bytes held the page for tens of milliseconds at company size when downloaded).
+    await writeFileAtomically(folder, ownFile, file.blob ?? file.bytes);
     await rememberExport(storage, file, OWN_FILE.scope, identity, OWN_FILE.options);
     if (previous.ownFile && previous.ownFile !== ownFile) {
       // The device was renamed: its old file would only repeat what the new one holds.
