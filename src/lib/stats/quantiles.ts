@@ -44,8 +44,9 @@ export interface FiveNumbers {
 }
 
 /**
- * Tukey's five-number summary with the quartiles by the p(n+1) rule (quantileType6), the median as `median`
- * gives it (the rule's value at p = ½), for values in any order; undefined for none. NaN-free input assumed.
+ * A five-number summary (after Tukey, with quartiles by the p(n+1) rule, quantileType6, in place of his hinges);
+ * its median is `median`'s (the rule's value at p = ½). Values in any order; undefined for none; NaN-free input
+ * assumed.
  */
 export function fiveNumbers(values: ArrayLike<number>): FiveNumbers | undefined {
   if (values.length === 0) return undefined;
