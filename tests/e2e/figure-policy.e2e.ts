@@ -16,8 +16,11 @@ test.beforeEach(async () => {
 });
 test.afterEach(async () => server.stop());
 
-/** A number in exponent form standing alone ("1.6e-3", "3.05e+4"); not part of a word or an id. */
-const SCIENTIFIC = /(?<![\w.-])\d+(?:[.,]\d+)?[eE][+-]?\d+(?!\w)/;
+/**
+ * A number in exponent form standing alone ("1.6e-3", "3.05e+4"); not part of a word or an id — a device id
+ * shown on a page once began "10780e86-5a6e-…", which read as 10780·10⁸⁶ when only letters and digits ended a match.
+ */
+const SCIENTIFIC = /(?<![\w.-])\d+(?:[.,]\d+)?[eE][+-]?\d+(?![\w-])/;
 const PERCENT = /(\d+)[.,](\d+)\s?%/g;
 const FALSE_PRECISION = /(?<![\d.,])(100|0)[.,]0{3,}\s?%/;
 const NOUNS =

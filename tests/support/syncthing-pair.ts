@@ -1,6 +1,6 @@
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
-import { createServer } from 'node:net';
+import { createServer, type Server } from 'node:net';
 import { join } from 'node:path';
 
 /**
@@ -17,15 +17,29 @@ export interface SyncthingPair {
 
 const CONNECT_MS = 60_000;
 
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const address = server.address();
-      server.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
-    });
+/**
+ * `count` distinct free ports on loopback. Every listener stays open until all are chosen: one closed before the
+ * next was asked for could be handed out again, and once an instance's API port was its own sync port (the API
+ * then failed to start and the pair never connected).
+ */
+async function freePorts(count: number): Promise<number[]> {
+  const servers = await Promise.all(
+    Array.from(
+      { length: count },
+      () =>
+        new Promise<Server>((resolve, reject) => {
+          const server = createServer();
+          server.once('error', reject);
+          server.listen(0, '127.0.0.1', () => resolve(server));
+        })
+    )
+  );
+  const ports = servers.map((server) => {
+    const address = server.address();
+    return typeof address === 'object' && address ? address.port : 0;
   });
+  await Promise.all(servers.map((server) => new Promise((resolve) => server.close(resolve))));
+  return ports;
 }
 
 function configXml(options: {
@@ -79,8 +93,9 @@ export async function startSyncthingPair(work: string): Promise<SyncthingPair> {
     });
     return execFileSync('syncthing', ['serve', `--home=${home}`, '--device-id'], { encoding: 'utf8' }).trim();
   });
-  const ports = [await freePort(), await freePort()];
-  const guiPorts = [await freePort(), await freePort()];
+  const [syncA, syncB, guiA, guiB] = await freePorts(4);
+  const ports = [syncA!, syncB!];
+  const guiPorts = [guiA!, guiB!];
   const children: ChildProcess[] = [];
   for (const i of [0, 1]) {
     // The folder marker Syncthing expects in a folder it did not create.
