@@ -398,16 +398,66 @@ describe('the indexed, cached ranking gives the figures of a plain record-by-rec
           ...structuredClone({ ...records, studies: [] }),
           studies: records.studies
         };
-        const kept = options.cache.size;
+        const computed = options.cache.computed;
         const rows = rankPortfolio(again, BUILT_IN_PROFILES, options);
-        // Nothing computed again: no window was added.
-        expect(options.cache.size).toBe(kept);
+        // Nothing computed again.
+        expect(options.cache.computed).toBe(computed);
         expect(rows).toEqual(first);
         const ownObjects = new Set(again.characteristics);
         for (const row of rows)
           for (const c of row.characteristics) expect(ownObjects.has(c.characteristic)).toBe(true);
       }),
       { numRuns: 60, seed: 20261205 }
+    );
+  });
+
+  it('ranks two record sets of one model alike when they take turns with one cache, one with other limits', () => {
+    // The windows kept are shared by every record set of a model. Record set B edits a characteristic's limits
+    // (a new revision): its window is computed again into the same row, over A's. A, judged again afterwards
+    // (a target change) and asked for its rows, must still give its own figures — as a ranking from scratch does.
+    fc.assert(
+      fc.property(portfolioArb, fc.integer({ min: 2, max: 14 }), fc.nat(), (records, end, which) => {
+        const measured = records.characteristics.filter((c) => c.dataKind === 'measured' && !c.deletedAt);
+        if (measured.length === 0) return;
+        const edited = measured[which % measured.length]!;
+        // Arrays of its own where it differs, and for its processes: each record set keeps its own plan.
+        const b: PortfolioRecords = {
+          ...records,
+          processes: [...records.processes],
+          characteristics: records.characteristics.map((c) =>
+            c === edited ? { ...c, rev: c.rev + 1, lsl: (c.lsl ?? 0) - 0.5, usl: (c.usl ?? 20) + 0.5 } : c
+          )
+        };
+        const options = {
+          endPeriod: MONTHS[end]!,
+          windowMonths: 3,
+          trendMonths: 6,
+          cache: new WindowFiguresCache()
+        };
+        const stricter = BUILT_IN_PROFILES.map((p) => ({
+          ...p,
+          levels: {
+            standard: p.levels.standard * 1.1,
+            key: p.levels.key * 1.1,
+            safety: p.levels.safety * 1.1
+          }
+        }));
+        // From scratch: a read model and plan of its own, so nothing kept for A or B is touched.
+        const fresh = (r: PortfolioRecords, profiles: readonly ContextProfile[]) =>
+          rankPortfolio({ ...r, processes: [...r.processes], studies: [...r.studies] }, profiles, {
+            ...options,
+            cache: new WindowFiguresCache()
+          });
+        const rankedA = rankedPortfolio(records, BUILT_IN_PROFILES, options);
+        expect(rankPortfolio(b, BUILT_IN_PROFILES, options)).toEqual(fresh(b, BUILT_IN_PROFILES));
+        // A's earlier ranking builds its rows from what it judged, with A's own figures.
+        expect(Array.from(rankedA.order, (p) => rankedA.rowAt(p))).toEqual(fresh(records, BUILT_IN_PROFILES));
+        // Each judged again under other targets, in turn.
+        expect(rankPortfolio(b, stricter, options)).toEqual(fresh(b, stricter));
+        expect(rankPortfolio(records, stricter, options)).toEqual(fresh(records, stricter));
+        expect(rankPortfolio(b, BUILT_IN_PROFILES, options)).toEqual(fresh(b, BUILT_IN_PROFILES));
+      }),
+      { numRuns: 80, seed: 20261206 }
     );
   });
 

@@ -3,13 +3,11 @@ import type { Limits } from './specification-history';
 import type { WindowFigures } from './window-figures';
 
 /**
- * What judging a characteristic's window needs that does not depend on the context profile: computed once per
- * window (portfolio-ranking.ts), so that a change of target, weight or order only compares; and kept as it is by
- * the window figures cache (window-figures-cache.ts), which finds it by the window key it carries. One object per
- * characteristic and window: at company size every object kept per window counts (a separate cache entry and an
- * array of cell stamps per window were a sixth of a first ranking, most of it collecting them).
+ * What judging a characteristic's window needs that does not depend on the context profile, as one object: what a
+ * characteristic's row is built from (portfolio-ranking.ts judgePrepared). A ranking keeps the same in columns for
+ * every characteristic (window-figure-columns.ts) and builds these only for the rows asked for.
  */
-export interface JudgeInput extends WindowKey {
+export interface JudgeInput {
   characteristic: Characteristic;
   result: WindowFigures | undefined;
   months: number;
@@ -24,16 +22,4 @@ export interface JudgeInput extends WindowKey {
   limitsChanged: boolean;
   /** Badges that follow from the figures alone, as bits of ROW_BADGE_ORDER (the profile adds its own). */
   badgeMask: number;
-}
-
-/**
- * What a window was computed from: the characteristic's revision, the window's first and last months
- * (portfolio-index monthOrdinal) and the stamp of its row in the read model when computed (MonthlyStatistics
- * rowStamp). NaN for a window judged outside a cache.
- */
-export interface WindowKey {
-  rev: number;
-  first: number;
-  end: number;
-  rowStamp: number;
 }

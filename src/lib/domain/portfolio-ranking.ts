@@ -13,6 +13,7 @@ import { changeInForce, limitsFor, type Limits } from './specification-history';
 import { CELL, periodOfOrdinal, statisticsOf, type MonthlyStatistics } from './monthly-statistics';
 import type { Study, StudyData } from './study';
 import { CountsFold, measuredWindowOf, windowData } from './window-study';
+import { WindowFigureColumns, type JudgedFigures, type PerUnitFigures } from './window-figure-columns';
 
 /**
  * The portfolio: every process judged against the level its industry context requires, on one comparable
@@ -156,12 +157,7 @@ function badgeMaskOf(r: WindowFigures): number {
 }
 
 /** The per-unit figures of a window, as perUnitInto writes them (a bound not known is undefined). */
-interface PerUnit {
-  z: number;
-  zBound: number | undefined;
-  fraction: number;
-  fractionBound: number | undefined;
-}
+type PerUnit = PerUnitFigures;
 
 /**
  * The figures a characteristic is judged on, per unit as its row shows them, written into `out`: the long-term
@@ -207,26 +203,17 @@ export function perUnitFigures(result: WindowFigures): {
 }
 
 /**
- * A window's judging input (judge-input.ts): one object per characteristic and window, kept with the prepared
- * windows and in the window figures cache, written as one literal with every field. `first`, `end` and
- * `rowStamp` are its window key (NaN outside a cache).
+ * A window's judging input (judge-input.ts), for a row to be built from: written as one literal with every field.
  */
-export function judgeInput(
+function judgeInput(
   characteristic: Characteristic,
   result: WindowFigures | undefined,
   months: number,
   period?: string,
-  limitsChanged = false,
-  first = NaN,
-  end = NaN,
-  rowStamp = NaN
+  limitsChanged = false
 ): JudgeInput {
   const unit = result ? perUnitInto(result, perUnitScratch) : undefined;
   return {
-    rev: characteristic.rev,
-    first,
-    end,
-    rowStamp,
     characteristic,
     result,
     months,
@@ -288,7 +275,7 @@ const verdict: Verdict = {
 };
 
 function judgeFigures(
-  result: WindowFigures,
+  result: JudgedFigures,
   unit: PerUnit,
   risk: RiskClass,
   profile: ContextProfile
@@ -430,24 +417,16 @@ function rowBadges(w: JudgeInput, profile: ContextProfile | undefined): Badge[] 
 /** How the judged rows' badges vary with the profile: none without one, else with or without the shift. */
 type BadgeVariant = 'none' | 'long-term' | 'short-term';
 
-/** A process's windows and its monthly trend as long-term z-levels (the context's shift is added when judged). */
+/**
+ * What a process's full row is built from (processRowOf), made when a row is asked for (preparedProcessAt): its
+ * characteristics' windows as objects (from the window's columns) and its monthly trend as long-term z-levels
+ * (the context's shift is added when judged).
+ */
 interface PreparedProcess {
   characteristics: JudgeInput[];
   trend: (number | undefined)[];
   /** Slope of the trend (the same with the context's shift added to every month). */
   trendSlope: number | undefined;
-  riskClass: RiskClass;
-  /** Characteristics with window figures, and the product of their yields. */
-  withData: number;
-  yield: number;
-  /** Long-term z-level of that yield (the context's shift is added when judged). */
-  zLevel: number;
-  /**
-   * The badges of its characteristics with window figures, as masks (processBadges): those that follow from the
-   * figures, and 'limits changed' with 'incomplete' (some characteristic without figures).
-   */
-  figureBadges: number;
-  otherBadges: number;
   /** The trend with a context's shift added, for the last shift asked for (shiftedTrend). */
   shifted: { shift: number; trend: (number | undefined)[] } | undefined;
   /** The characteristic rows (judgePrepared) under the profile with this key, built when a full row is asked for. */
@@ -487,14 +466,14 @@ const INCOMPLETE_BIT = 1 << ROW_BADGE_ORDER.length;
 /**
  * A process's badges under a badge variant: every badge of its rows with window figures, in the rows' order
  * (ROW_BADGE_ORDER; the figures' own only where a profile judges them, the shift convention where it reports
- * short-term), then 'incomplete' where some characteristic has none. From the masks its preparation kept, and
+ * short-term), then 'incomplete' where some characteristic has none. From the masks fillProcess kept, and
  * interned by the resulting mask: a portfolio has a handful of different lists (an array per process was one
  * more object each, and a set per process the first time a twentieth of a first ranking).
  */
-function processBadges(windows: PreparedProcess, variant: BadgeVariant): Badge[] {
-  let mask = windows.otherBadges;
-  if (variant !== 'none') mask |= windows.figureBadges;
-  if (variant === 'short-term' && windows.withData > 0) mask |= SHIFT_BIT;
+function processBadges(window: PreparedWindow, p: number, variant: BadgeVariant): Badge[] {
+  let mask = window.otherBadges[p]!;
+  if (variant !== 'none') mask |= window.figureBadges[p]!;
+  if (variant === 'short-term' && window.withData[p]! > 0) mask |= SHIFT_BIT;
   let list = processBadgeLists[mask];
   if (!list) {
     const badges: Badge[] = [...badgeSet(mask & ~INCOMPLETE_BIT)];
@@ -508,21 +487,32 @@ function processBadges(windows: PreparedProcess, variant: BadgeVariant): Badge[]
 const processBadgeLists: (Badge[] | undefined)[] = [];
 
 /**
- * A window prepared for every process of a plan: each process's windows (by plan position) and, in typed arrays
- * by the same position, what a ranking reads of them — the process's risk class (RISK_CLASSES position), yield
- * and long-term z-level, and how it was last judged (judgeProcess) under a profile with the judging key
+ * A window prepared for every process of a plan: its characteristics' windows in `columns` (by their rows in the
+ * read model `model`), and, in typed arrays by plan position, what a ranking reads of each process — whether it
+ * has been filled from the columns (fillProcess), its risk class (RISK_CLASSES position), the number of its
+ * characteristics with window figures, the product of their yields and its long-term z-level, the badge masks of
+ * its rows (processBadges), and how it was last judged (judgeProcess) under a profile with the judging key
  * `judgedKey[p]` (judgingKeyOf): its status (STATUS_ORDER position; the worst of its characteristics'), its
  * weakest characteristic (smallest gap; an index into its characteristics, −1 for none) with that one's gap
  * (Infinity without a profile), estimate, bound, required level and its z, Cpk and Ppk (NaN where not known), and
- * whether any characteristic with data is not shown to meet its target. In arrays, not in each process's object:
+ * whether any characteristic with data is not shown to meet its target. In arrays, not in an object per process:
  * a recompute after a target change judges every process again, and the list reads them all in ranked order, a
- * shuffle of the order the objects lie in memory (at company size, a cache miss per field read).
+ * shuffle of the order objects would lie in memory (at company size, a cache miss per field read). A process's
+ * objects (`processes`) are made only when its row is asked for.
  */
 interface PreparedWindow {
+  model: MonthlyStatistics;
+  columns: WindowFigureColumns;
+  endPeriod: string;
+  months: RankingMonths;
   processes: (PreparedProcess | undefined)[];
+  filled: Uint8Array;
   risk: Uint8Array;
+  withData: Int32Array;
   yield: Float64Array;
   zLevel: Float64Array;
+  figureBadges: Int32Array;
+  otherBadges: Int32Array;
   judgedKey: (string | undefined)[];
   status: Uint8Array;
   weakest: Int32Array;
@@ -537,14 +527,53 @@ interface PreparedWindow {
 }
 
 /** How a ranked portfolio's processes were judged, by plan position (PreparedWindow's arrays), read only. */
-export type JudgedColumns = Readonly<Omit<PreparedWindow, 'processes' | 'judgedKey'>>;
+export type JudgedColumns = Readonly<
+  Pick<
+    PreparedWindow,
+    | 'risk'
+    | 'yield'
+    | 'zLevel'
+    | 'status'
+    | 'weakest'
+    | 'gap'
+    | 'estimate'
+    | 'bound'
+    | 'required'
+    | 'requiredZ'
+    | 'cpk'
+    | 'ppk'
+    | 'notShown'
+  >
+>;
 
-function preparedWindowOf(count: number): PreparedWindow {
+/** The months of a ranking: its window's first and last, and those of its trend line. */
+interface RankingMonths {
+  end: number;
+  firstMonth: number;
+  trendFirstMonth: number;
+  trendMonths: number;
+}
+
+function preparedWindowOf(
+  count: number,
+  model: MonthlyStatistics,
+  columns: WindowFigureColumns,
+  endPeriod: string,
+  months: RankingMonths
+): PreparedWindow {
   return {
+    model,
+    columns,
+    endPeriod,
+    months,
     processes: new Array<PreparedProcess | undefined>(count),
+    filled: new Uint8Array(count),
     risk: new Uint8Array(count),
+    withData: new Int32Array(count),
     yield: new Float64Array(count),
     zLevel: new Float64Array(count),
+    figureBadges: new Int32Array(count),
+    otherBadges: new Int32Array(count),
     judgedKey: new Array<string | undefined>(count),
     status: new Uint8Array(count),
     weakest: new Int32Array(count),
@@ -562,13 +591,19 @@ function preparedWindowOf(count: number): PreparedWindow {
 /**
  * Prepared windows per ranking plan and window: a change of target, weight or order re-judges these without
  * looking at a study again. A new plan (a study written changes the model's version; new record arrays) starts
- * them again.
+ * them again; the window's columns, kept by the figures cache, are found again by every plan of the same model.
  */
 const preparedWindows = new WeakMap<RankingPlan, Map<string, PreparedWindow>>();
 
 const PREPARED_WINDOWS = 4;
 
-function preparedFor(plan: RankingPlan, window: string): PreparedWindow {
+function preparedFor(
+  plan: RankingPlan,
+  window: string,
+  model: MonthlyStatistics,
+  options: RankingOptions,
+  months: RankingMonths
+): PreparedWindow {
   let byWindow = preparedWindows.get(plan);
   if (!byWindow) preparedWindows.set(plan, (byWindow = new Map()));
   let prepared = byWindow.get(window);
@@ -576,7 +611,12 @@ function preparedFor(plan: RankingPlan, window: string): PreparedWindow {
     // The windows of the last few requests only: the review ranks ten quarters, and keeping every one of them
     // prepared cost hundreds of megabytes at company size; the window figures cache keeps the figures anyway.
     if (byWindow.size >= PREPARED_WINDOWS) byWindow.delete(byWindow.keys().next().value!);
-    byWindow.set(window, (prepared = preparedWindowOf(plan.processes.length)));
+    const columns =
+      options.cache?.columns(model, months.firstMonth, months.end) ??
+      new WindowFigureColumns(months.firstMonth, months.end);
+    columns.ensure(model.rowStamp.length);
+    prepared = preparedWindowOf(plan.processes.length, model, columns, options.endPeriod, months);
+    byWindow.set(window, prepared);
   }
   return prepared;
 }
@@ -632,91 +672,129 @@ function monthlyTrend(
   return Object.freeze(trend) as (number | undefined)[];
 }
 
-/** A process's windows prepared for judging; `rows` and `at` as monthlyTrend reads them. */
-function prepareProcess(
-  chars: readonly Characteristic[],
-  rows: ArrayLike<number>,
-  at: number,
-  model: MonthlyStatistics,
-  options: RankingOptions,
-  months: { end: number; firstMonth: number; trendFirstMonth: number; trendMonths: number }
-): PreparedProcess {
-  // A loop, not a map: a closure per process was one more object each, and a call per characteristic.
-  const prepared = new Array<JudgeInput>(chars.length);
-  for (let i = 0; i < chars.length; i += 1) {
-    const c = chars[i]!;
-    const row = rows[at + i]!;
-    if (row < 0) {
-      prepared[i] = judgeInput(c, undefined, 0, options.endPeriod);
-      continue;
-    }
-    const cache = options.cache;
-    const stamp = model.rowStamp[row]!;
-    const kept = cache?.get(model, row, c.rev, months.firstMonth, months.end, stamp);
-    if (cache && kept) {
-      // The same revision read again as another object (a new record set): the window is kept with this one.
-      if (kept.characteristic !== c) {
-        const again = judgeInput(
-          c,
-          kept.result,
-          kept.months,
-          options.endPeriod,
-          kept.limitsChanged,
-          kept.first,
-          kept.end,
-          kept.rowStamp
-        );
-        cache.replace(row, kept, again);
-        prepared[i] = again;
-      } else prepared[i] = kept;
-      continue;
-    }
-    const cells = windowCellsScratch;
-    const limitsChanged = windowCells(model, row, c, months, options.endPeriod, cells);
-    const figures = figuresOfCells(model, cells, c, options);
-    const input = judgeInput(
-      c,
-      figures.result,
-      figures.months,
-      options.endPeriod,
-      limitsChanged,
-      months.firstMonth,
-      months.end,
-      stamp
-    );
-    prepared[i] = cache ? cache.set(model, row, input) : input;
-  }
-  const trend = monthlyTrend(chars, rows, at, model, months);
+/** The one PerUnit computeWindow writes into (a ranking is synchronous; the columns keep the figures). */
+const unitOfWindow: PerUnit = { z: NaN, zBound: undefined, fraction: NaN, fractionBound: undefined };
+
+/**
+ * Computes a characteristic's window (WINDOW_RULE's months, pooled or analysed: figuresOfCells) into its row of
+ * the window's columns, under the key it was computed from: the characteristic's revision and the row's stamp.
+ */
+function computeWindow(window: PreparedWindow, row: number, c: Characteristic): void {
+  const { model, columns, months, endPeriod } = window;
+  const cells = windowCellsScratch;
+  const limitsChanged = windowCells(model, row, c, months, endPeriod, cells);
+  const { result, months: counted } = figuresOfCells(model, cells, c, endPeriod);
+  columns.write(
+    row,
+    c.rev,
+    model.rowStamp[row]!,
+    result,
+    counted,
+    limitsChanged,
+    result ? perUnitInto(result, unitOfWindow) : undefined,
+    result ? badgeMaskOf(result) : 0
+  );
+}
+
+/**
+ * Fills position p of a prepared window: each of the process's characteristics' windows, computed into the
+ * columns unless they hold it for this revision and row stamp (kept from an earlier ranking, of this record set or
+ * another of the same model), and what a ranking reads of the process — its risk class, how many characteristics
+ * have window figures, the product of their yields and its z-level, and its badge masks. A loop over typed
+ * arrays: no object is made or kept per window or process.
+ */
+function fillProcess(window: PreparedWindow, plan: RankingPlan, p: number): void {
+  const chars = plan.characteristics[p]!;
+  const at = plan.start[p]!;
+  const { model, columns } = window;
   let withData = 0;
   let y = 1;
   let figureBadges = 0;
   let otherBadges = 0;
-  for (const c of prepared)
-    if (c.result) {
-      withData += 1;
-      y *= c.result.yield;
-      figureBadges |= c.badgeMask;
-      if (c.limitsChanged) otherBadges |= LIMITS_BIT;
-    }
-  if (withData && withData < prepared.length) otherBadges |= INCOMPLETE_BIT;
-  return {
-    characteristics: prepared,
+  let risk: RiskClass = 'standard';
+  for (let i = 0; i < chars.length; i += 1) {
+    const c = chars[i]!;
+    if (c.riskClass === 'safety') risk = 'safety';
+    else if (c.riskClass === 'key' && risk === 'standard') risk = 'key';
+    const row = plan.rows[at + i]!;
+    if (row < 0) continue;
+    if (!columns.holds(row, c.rev, model.rowStamp[row]!)) computeWindow(window, row, c);
+    if (columns.kind[row] === 0) continue;
+    withData += 1;
+    y *= columns.yield[row]!;
+    figureBadges |= columns.badgeMask[row]!;
+    if (columns.limitsChanged[row] === 1) otherBadges |= LIMITS_BIT;
+  }
+  if (withData && withData < chars.length) otherBadges |= INCOMPLETE_BIT;
+  window.risk[p] = RISK_CLASSES.indexOf(risk);
+  window.withData[p] = withData;
+  window.yield[p] = y;
+  window.zLevel[p] = normalUpperQuantile(Math.min(1, 1 - y));
+  window.figureBadges[p] = figureBadges;
+  window.otherBadges[p] = otherBadges;
+  window.filled[p] = 1;
+}
+
+/**
+ * Whether every window of process p the columns hold is still the one its characteristics and studies give: the
+ * columns are shared by every plan of the model (the figures cache), so a ranking of another record set — where a
+ * characteristic has another revision — may have computed a row again since p was filled.
+ */
+function processCurrent(window: PreparedWindow, plan: RankingPlan, p: number): boolean {
+  const chars = plan.characteristics[p]!;
+  const at = plan.start[p]!;
+  const { model, columns } = window;
+  for (let i = 0; i < chars.length; i += 1) {
+    const row = plan.rows[at + i]!;
+    if (row >= 0 && !columns.holds(row, chars[i]!.rev, model.rowStamp[row]!)) return false;
+  }
+  return true;
+}
+
+/** Fills position p again (fillProcess) and forgets its objects, made from what the columns held before. */
+function refillProcess(window: PreparedWindow, plan: RankingPlan, p: number): void {
+  window.processes[p] = undefined;
+  fillProcess(window, plan, p);
+}
+
+/**
+ * Process p's objects for its full row (PreparedProcess), made the first time they are asked for: its
+ * characteristics' windows as judging inputs built from the columns (the figures as computed, read back), and
+ * its monthly trend.
+ */
+function preparedProcessAt(window: PreparedWindow, plan: RankingPlan, p: number): PreparedProcess {
+  let prepared = window.processes[p];
+  if (prepared) return prepared;
+  const chars = plan.characteristics[p]!;
+  const at = plan.start[p]!;
+  const { columns, endPeriod, months } = window;
+  // A loop, not a map: a closure per process was one more object each, and a call per characteristic.
+  const inputs = new Array<JudgeInput>(chars.length);
+  for (let i = 0; i < chars.length; i += 1) {
+    const c = chars[i]!;
+    const row = plan.rows[at + i]!;
+    inputs[i] =
+      row < 0
+        ? judgeInput(c, undefined, 0, endPeriod)
+        : judgeInput(
+            c,
+            columns.figuresAt(row),
+            columns.months[row]!,
+            endPeriod,
+            columns.limitsChanged[row] === 1
+          );
+  }
+  const trend = monthlyTrend(chars, plan.rows, at, window.model, months);
+  prepared = {
+    characteristics: inputs,
     trend,
     trendSlope: leastSquaresSlope(trend),
-    riskClass: chars.some((c) => c.riskClass === 'safety')
-      ? 'safety'
-      : chars.some((c) => c.riskClass === 'key')
-        ? 'key'
-        : 'standard',
-    withData,
-    yield: y,
-    zLevel: normalUpperQuantile(Math.min(1, 1 - y)),
-    figureBadges,
-    otherBadges,
     shifted: undefined,
     rowsKey: undefined,
     rows: NO_ROWS
   };
+  window.processes[p] = prepared;
+  return prepared;
 }
 
 /** The rows of a process not judged yet (shared, frozen). */
@@ -761,7 +839,7 @@ function figuresOfCells(
   model: MonthlyStatistics,
   cells: readonly number[],
   c: Characteristic,
-  options: RankingOptions,
+  endPeriod: string,
   bounds: 'all' | 'index' = 'all'
 ): { result: WindowFigures | undefined; months: number } {
   const pooled = pooledWindow(model, cells);
@@ -770,7 +848,7 @@ function figuresOfCells(
   let result: WindowFigures | undefined;
   if (w) {
     try {
-      result = windowFiguresOfStudy({ data: w.data, period: options.endPeriod }, c, w.sdWithin, bounds);
+      result = windowFiguresOfStudy({ data: w.data, period: endPeriod }, c, w.sdWithin, bounds);
     } catch {
       result = undefined;
     }
@@ -803,7 +881,7 @@ function standingOfProcess(
     if (row < 0) continue;
     const c = chars[i]!;
     windowCells(model, row, c, months, options.endPeriod, windowCellsScratch);
-    const { result } = figuresOfCells(model, windowCellsScratch, c, options, bounds);
+    const { result } = figuresOfCells(model, windowCellsScratch, c, options.endPeriod, bounds);
     if (!result) continue;
     withData += 1;
     y *= result.yield;
@@ -886,7 +964,7 @@ function pooledWindow(
 function rankingContext(records: PortfolioRecords, options: RankingOptions) {
   const trendMonths = options.trendMonths ?? 12;
   const end = monthOrdinal(options.endPeriod);
-  const months = {
+  const months: RankingMonths = {
     end,
     firstMonth: end - (options.windowMonths - 1),
     trendFirstMonth: end - (trendMonths - 1),
@@ -896,10 +974,26 @@ function rankingContext(records: PortfolioRecords, options: RankingOptions) {
 }
 
 /** The prepared windows kept for a full ranking's window (the last few asked for; see preparedFor). */
-function preparedOf(options: RankingOptions, plan: RankingPlan) {
+function preparedOf(
+  options: RankingOptions,
+  plan: RankingPlan,
+  model: MonthlyStatistics,
+  months: RankingMonths
+) {
   const key = `${options.endPeriod}|${options.windowMonths}|${options.trendMonths ?? 12}`;
-  return preparedFor(plan, key);
+  return preparedFor(plan, key, model, options, months);
 }
+
+/** The figures judging reads of a window, read from its columns (judgeProcess; a ranking is synchronous). */
+const judgedScratch: JudgedFigures = {
+  kind: 'summary',
+  cpk: undefined,
+  ppk: undefined,
+  cpkLower: undefined,
+  ppkLower: undefined,
+  stable: undefined
+};
+const judgedUnitScratch: PerUnit = { z: NaN, zBound: undefined, fraction: NaN, fractionBound: undefined };
 
 /**
  * A process's characteristics judged under a profile with this judging key, into position p of the window's
@@ -907,8 +1001,8 @@ function preparedOf(options: RankingOptions, plan: RankingPlan) {
  */
 function judgeProcess(
   window: PreparedWindow,
+  plan: RankingPlan,
   p: number,
-  windows: PreparedProcess,
   profile: ContextProfile | undefined,
   key: string
 ): void {
@@ -918,22 +1012,35 @@ function judgeProcess(
   let notShown = 0;
   window.estimate[p] = window.bound[p] = window.required[p] = window.requiredZ[p] = NaN;
   window.cpk[p] = window.ppk[p] = NaN;
-  const chars = windows.characteristics;
+  const chars = plan.characteristics[p]!;
+  const at = plan.start[p]!;
+  const columns = window.columns;
   for (let i = 0; i < chars.length; i += 1) {
-    const w = chars[i]!;
-    const result = w.result;
-    if (!result) continue;
+    const row = plan.rows[at + i]!;
+    if (row < 0 || columns.kind[row] === 0) continue;
     if (!profile) {
       // Figures without a profile: the row shows them, unjudged ('no recent data', no gap).
       if (weakest < 0) {
         weakest = i;
-        window.cpk[p] = result.cpk ?? NaN;
-        window.ppk[p] = result.ppk ?? NaN;
+        window.cpk[p] = columns.cpk[row]!;
+        window.ppk[p] = columns.ppk[row]!;
       }
       notShown = 1;
       continue;
     }
-    const v = judgeFigures(result, w, w.characteristic.riskClass, profile);
+    // The figures as the row would have them: the object itself where the columns could not carry a NaN of its own.
+    const kept = columns.keptAt(row);
+    let figures: JudgedFigures;
+    let unit: PerUnit;
+    if (kept) {
+      figures = kept;
+      unit = perUnitInto(kept, judgedUnitScratch);
+    } else {
+      columns.readJudged(row, judgedScratch, judgedUnitScratch);
+      figures = judgedScratch;
+      unit = judgedUnitScratch;
+    }
+    const v = judgeFigures(figures, unit, chars[i]!.riskClass, profile);
     if (STATUS_RANK[v.status] < STATUS_RANK[status]) status = v.status;
     const zGap = v.zEstimate - v.needZ;
     // The smallest gap; the first of equal ones (a NaN gap never replaces one, as the rows compared them).
@@ -944,8 +1051,8 @@ function judgeProcess(
       window.bound[p] = v.bound ?? NaN;
       window.required[p] = v.required;
       window.requiredZ[p] = v.needZ;
-      window.cpk[p] = result.cpk ?? NaN;
-      window.ppk[p] = result.ppk ?? NaN;
+      window.cpk[p] = figures.cpk ?? NaN;
+      window.ppk[p] = figures.ppk ?? NaN;
     }
     if (v.status !== 'meets, shown') notShown = 1;
   }
@@ -1193,8 +1300,7 @@ export function rankedPortfolio(
   const weights = options.weights ?? DEFAULT_WEIGHTS;
   const { months, model } = rankingContext(records, options);
   const plan = rankingPlan(records, model);
-  const window = preparedOf(options, plan);
-  const prepared = window.processes;
+  const window = preparedOf(options, plan, model, months);
   const count = plan.processes.length;
   const figured = new Uint8Array(count);
   const yields = new Float64Array(count);
@@ -1212,22 +1318,9 @@ export function rankedPortfolio(
     if (key === undefined) keys.set(profile, (key = judgingKeyOf(profile)));
     // Judged again only under a profile that judges differently (the judging is kept, like the windows).
     if (window.judgedKey[p] !== key) {
-      let windows = prepared[p];
-      if (!windows) {
-        const at = plan.start[p]!;
-        prepared[p] = windows = prepareProcess(
-          plan.characteristics[p]!,
-          plan.rows,
-          at,
-          model,
-          options,
-          months
-        );
-        window.risk[p] = RISK_CLASSES.indexOf(windows.riskClass);
-        window.yield[p] = windows.yield;
-        window.zLevel[p] = windows.zLevel;
-      }
-      judgeProcess(window, p, windows, profile, key);
+      if (window.filled[p] === 0) fillProcess(window, plan, p);
+      else if (!processCurrent(window, plan, p)) refillProcess(window, plan, p);
+      judgeProcess(window, plan, p, profile, key);
     }
     const known = window.weakest[p]! >= 0;
     const c = known ? costPerYear(1 - window.yield[p]!, process) : undefined;
@@ -1257,8 +1350,18 @@ export function rankedPortfolio(
     priority,
     profileAt: (p) => profileOf[p],
     judged: window,
-    badgesAt: (p) => processBadges(prepared[p]!, variantOf(profileOf[p])),
-    rowAt: (p) => processRowOf(plan, p, window, profileOf[p], keys.get(profileOf[p])!, priority[p]!)
+    badgesAt: (p) => processBadges(window, p, variantOf(profileOf[p])),
+    rowAt: (p) => {
+      const profile = profileOf[p];
+      const key = keys.get(profile)!;
+      // The columns are shared by every plan of the model: a row computed again since for another record set is
+      // computed again for this one, and the process judged again, before its row is built from them.
+      if (!processCurrent(window, plan, p)) {
+        refillProcess(window, plan, p);
+        judgeProcess(window, plan, p, profile, key);
+      }
+      return processRowOf(plan, p, window, profile, key, priority[p]!);
+    }
   };
 }
 
@@ -1274,13 +1377,13 @@ function processRowOf(
   key: string,
   priority: number
 ): ProcessRow {
-  const windows = window.processes[p]!;
+  const windows = preparedProcessAt(window, plan, p);
   const process = plan.processes[p]!;
   const shift = shortTermShift(profile);
   const charRows = rowsOf(windows, profile, key);
   const w = window.weakest[p]!;
   const weakest = w >= 0 ? charRows[w] : undefined;
-  const y = weakest ? windows.yield : undefined;
+  const y = weakest ? window.yield[p]! : undefined;
   const cost = y !== undefined ? costPerYear(1 - y, process) : undefined;
   const needZ = weakest?.requiredZ;
   const ppmAtTarget = needZ !== undefined ? ppmAtLongTermZ(needZ - shift) : undefined;
@@ -1294,7 +1397,7 @@ function processRowOf(
     status: STATUS_ORDER[window.status[p]!]!,
     yield: y,
     ppm: y !== undefined ? (1 - y) * 1e6 : undefined,
-    zLevel: y !== undefined ? windows.zLevel + shift : undefined,
+    zLevel: y !== undefined ? window.zLevel[p]! + shift : undefined,
     zBasis: zBasisOf(profile),
     weakest,
     zGap: weakest?.zGap,
@@ -1307,10 +1410,10 @@ function processRowOf(
     costPerYear: cost,
     trend: shiftedTrend(windows, shift),
     trendSlope: windows.trendSlope,
-    badges: processBadges(windows, variantOf(profile)),
+    badges: processBadges(window, p, variantOf(profile)),
     projects: plan.openProjects[p] ?? NO_PROJECTS,
     priority,
-    riskClass: windows.riskClass
+    riskClass: RISK_CLASSES[window.risk[p]!]!
   };
 }
 
