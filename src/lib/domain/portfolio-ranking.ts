@@ -719,11 +719,11 @@ function fillProcess(window: PreparedWindow, plan: RankingPlan, p: number): void
     const row = plan.rows[at + i]!;
     if (row < 0) continue;
     if (!columns.holds(row, c.rev, model.rowStamp[row]!)) computeWindow(window, row, c);
-    if (columns.kind[row] === 0) continue;
+    if (!columns.hasFigures(row)) continue;
     withData += 1;
-    y *= columns.yield[row]!;
-    figureBadges |= columns.badgeMask[row]!;
-    if (columns.limitsChanged[row] === 1) otherBadges |= LIMITS_BIT;
+    y *= columns.yieldAt(row);
+    figureBadges |= columns.badgeMaskAt(row);
+    if (columns.limitsChangedAt(row)) otherBadges |= LIMITS_BIT;
   }
   if (withData && withData < chars.length) otherBadges |= INCOMPLETE_BIT;
   window.risk[p] = RISK_CLASSES.indexOf(risk);
@@ -779,9 +779,9 @@ function preparedProcessAt(window: PreparedWindow, plan: RankingPlan, p: number)
         : judgeInput(
             c,
             columns.figuresAt(row),
-            columns.months[row]!,
+            columns.monthsAt(row),
             endPeriod,
-            columns.limitsChanged[row] === 1
+            columns.limitsChangedAt(row)
           );
   }
   const trend = monthlyTrend(chars, plan.rows, at, window.model, months);
@@ -1017,13 +1017,13 @@ function judgeProcess(
   const columns = window.columns;
   for (let i = 0; i < chars.length; i += 1) {
     const row = plan.rows[at + i]!;
-    if (row < 0 || columns.kind[row] === 0) continue;
+    if (row < 0 || !columns.hasFigures(row)) continue;
     if (!profile) {
       // Figures without a profile: the row shows them, unjudged ('no recent data', no gap).
       if (weakest < 0) {
         weakest = i;
-        window.cpk[p] = columns.cpk[row]!;
-        window.ppk[p] = columns.ppk[row]!;
+        window.cpk[p] = columns.numberAt(row, 'cpk');
+        window.ppk[p] = columns.numberAt(row, 'ppk');
       }
       notShown = 1;
       continue;

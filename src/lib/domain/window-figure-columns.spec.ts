@@ -112,7 +112,7 @@ describe('window figure columns', () => {
     expect(columns.holds(2, 2, 7)).toBe(false);
     columns.ensure(10_000);
     expect(columns.holds(3, 2, 7)).toBe(true);
-    expect(columns.limitsChanged[3]).toBe(1);
+    expect(columns.limitsChangedAt(3)).toBe(true);
     expect(columns.figuresAt(3)).toBeUndefined();
     expect(columns.size).toBe(1);
     expect(columns.computed).toBe(1);
