@@ -156,16 +156,13 @@ function badgeMaskOf(r: WindowFigures): number {
   return mask;
 }
 
-/** The per-unit figures of a window, as perUnitInto writes them (a bound not known is undefined). */
-type PerUnit = PerUnitFigures;
-
 /**
  * The figures a characteristic is judged on, per unit as its row shows them, written into `out`: the long-term
  * z-level and its one-sided lower bound, and the fraction of units out of specification (defective) and its
  * one-sided upper bound. For defects, a unit is defective when it has at least one defect: 1 − e^(−DPU). Into an
  * object the caller keeps (a ranking reuses one): an object per window was garbage the size of the portfolio.
  */
-function perUnitInto(result: WindowFigures, out: PerUnit): PerUnit {
+function perUnitInto(result: WindowFigures, out: PerUnitFigures): PerUnitFigures {
   if (result.kind === 'defects') {
     const fraction = 1 - result.yield;
     const dpuBound = result.dpuUpper;
@@ -183,8 +180,8 @@ function perUnitInto(result: WindowFigures, out: PerUnit): PerUnit {
   return out;
 }
 
-/** The one PerUnit a ranking writes into (it is synchronous; nothing keeps it). */
-const perUnitScratch: PerUnit = { z: NaN, zBound: undefined, fraction: NaN, fractionBound: undefined };
+/** The one set of per-unit figures a ranking writes into (it is synchronous; whoever reads it copies what it keeps). */
+const perUnitScratch: PerUnitFigures = { z: NaN, zBound: undefined, fraction: NaN, fractionBound: undefined };
 
 /** The per-unit figures (perUnitInto) as an object of their own, without the bounds not known. */
 export function perUnitFigures(result: WindowFigures): {
@@ -276,7 +273,7 @@ const verdict: Verdict = {
 
 function judgeFigures(
   result: JudgedFigures,
-  unit: PerUnit,
+  unit: PerUnitFigures,
   risk: RiskClass,
   profile: ContextProfile
 ): Verdict {
@@ -597,13 +594,14 @@ const preparedWindows = new WeakMap<RankingPlan, Map<string, PreparedWindow>>();
 
 const PREPARED_WINDOWS = 4;
 
+/** The prepared window of a full ranking's window, kept for the last few asked for. */
 function preparedFor(
   plan: RankingPlan,
-  window: string,
   model: MonthlyStatistics,
   options: RankingOptions,
   months: RankingMonths
 ): PreparedWindow {
+  const window = `${options.endPeriod}|${options.windowMonths}|${options.trendMonths ?? 12}`;
   let byWindow = preparedWindows.get(plan);
   if (!byWindow) preparedWindows.set(plan, (byWindow = new Map()));
   let prepared = byWindow.get(window);
@@ -672,9 +670,6 @@ function monthlyTrend(
   return Object.freeze(trend) as (number | undefined)[];
 }
 
-/** The one PerUnit computeWindow writes into (a ranking is synchronous; the columns keep the figures). */
-const unitOfWindow: PerUnit = { z: NaN, zBound: undefined, fraction: NaN, fractionBound: undefined };
-
 /**
  * Computes a characteristic's window (WINDOW_RULE's months, pooled or analysed: figuresOfCells) into its row of
  * the window's columns, under the key it was computed from: the characteristic's revision and the row's stamp.
@@ -691,7 +686,7 @@ function computeWindow(window: PreparedWindow, row: number, c: Characteristic): 
     result,
     counted,
     limitsChanged,
-    result ? perUnitInto(result, unitOfWindow) : undefined,
+    result ? perUnitInto(result, perUnitScratch) : undefined,
     result ? badgeMaskOf(result) : 0
   );
 }
@@ -973,17 +968,6 @@ function rankingContext(records: PortfolioRecords, options: RankingOptions) {
   return { months, model: statisticsOf(records) };
 }
 
-/** The prepared windows kept for a full ranking's window (the last few asked for; see preparedFor). */
-function preparedOf(
-  options: RankingOptions,
-  plan: RankingPlan,
-  model: MonthlyStatistics,
-  months: RankingMonths
-) {
-  const key = `${options.endPeriod}|${options.windowMonths}|${options.trendMonths ?? 12}`;
-  return preparedFor(plan, key, model, options, months);
-}
-
 /** The figures judging reads of a window, read from its columns (judgeProcess; a ranking is synchronous). */
 const judgedScratch: JudgedFigures = {
   kind: 'summary',
@@ -993,7 +977,6 @@ const judgedScratch: JudgedFigures = {
   ppkLower: undefined,
   stable: undefined
 };
-const judgedUnitScratch: PerUnit = { z: NaN, zBound: undefined, fraction: NaN, fractionBound: undefined };
 
 /**
  * A process's characteristics judged under a profile with this judging key, into position p of the window's
@@ -1030,17 +1013,10 @@ function judgeProcess(
     }
     // The figures as the row would have them: the object itself where the columns could not carry a NaN of its own.
     const kept = columns.keptAt(row);
-    let figures: JudgedFigures;
-    let unit: PerUnit;
-    if (kept) {
-      figures = kept;
-      unit = perUnitInto(kept, judgedUnitScratch);
-    } else {
-      columns.readJudged(row, judgedScratch, judgedUnitScratch);
-      figures = judgedScratch;
-      unit = judgedUnitScratch;
-    }
-    const v = judgeFigures(figures, unit, chars[i]!.riskClass, profile);
+    const figures: JudgedFigures = kept ?? judgedScratch;
+    if (kept) perUnitInto(kept, perUnitScratch);
+    else columns.readJudged(row, judgedScratch, perUnitScratch);
+    const v = judgeFigures(figures, perUnitScratch, chars[i]!.riskClass, profile);
     if (STATUS_RANK[v.status] < STATUS_RANK[status]) status = v.status;
     const zGap = v.zEstimate - v.needZ;
     // The smallest gap; the first of equal ones (a NaN gap never replaces one, as the rows compared them).
@@ -1300,7 +1276,7 @@ export function rankedPortfolio(
   const weights = options.weights ?? DEFAULT_WEIGHTS;
   const { months, model } = rankingContext(records, options);
   const plan = rankingPlan(records, model);
-  const window = preparedOf(options, plan, model, months);
+  const window = preparedFor(plan, model, options, months);
   const count = plan.processes.length;
   const figured = new Uint8Array(count);
   const yields = new Float64Array(count);
