@@ -21,6 +21,12 @@ export interface JudgedFigures {
   stable?: boolean | undefined;
 }
 
+/**
+ * An object type with every field required, those that may be left out given as possibly undefined (mapped over
+ * the names as strings, so that no field keeps its `?`).
+ */
+type Complete<T> = { [K in Extract<keyof T, string>]: T[K] };
+
 /** The fields of an object type whose values are numbers (where present). */
 type NumberFields<T> = { [K in keyof T]-?: NonNullable<T[K]> extends number ? K : never }[keyof T];
 
@@ -271,20 +277,41 @@ export class WindowFigureColumns {
     unit.fractionBound = got(numbers[at + FRACTION_BOUND]!);
   }
 
-  /** A row's window figures as computed (undefined for none): one object, built on each call. */
+  /**
+   * A row's window figures as computed (undefined for none): one object, built on each call, as one literal with
+   * every field (typed so that the compiler refuses one left out): an object given its fields one by one by name
+   * took a review's rows three times as long while the code was new.
+   */
   figuresAt(row: number): WindowFigures | undefined {
     const code = this.#kind[row]!;
     if (code === 0) return undefined;
     const kept = this.keptAt(row);
     if (kept) return kept;
     const stable = this.#stable[row]!;
-    const out = {
-      kind: KINDS[code - 1]!,
-      model: modelNames[this.#model[row]!]!,
-      stable: stable < 0 ? undefined : stable === 1
-    } as WindowFigures;
+    const numbers = this.#numbers;
     const at = row * STRIDE;
-    for (let i = 0; i < FIGURES.length; i += 1) out[FIGURES[i]!] = got(this.#numbers[at + i]!)!;
-    return out;
+    const figures: Complete<WindowFigures> = {
+      kind: KINDS[code - 1]!,
+      n: numbers[at + SLOT.n]!,
+      mean: got(numbers[at + SLOT.mean]!),
+      sdOverall: got(numbers[at + SLOT.sdOverall]!),
+      sdWithin: got(numbers[at + SLOT.sdWithin]!),
+      cpk: got(numbers[at + SLOT.cpk]!),
+      ppk: got(numbers[at + SLOT.ppk]!),
+      p: got(numbers[at + SLOT.p]!),
+      dpu: got(numbers[at + SLOT.dpu]!),
+      dpmo: got(numbers[at + SLOT.dpmo]!),
+      ppmTotal: got(numbers[at + SLOT.ppmTotal]!),
+      yield: numbers[at + SLOT.yield]!,
+      zLevel: numbers[at + SLOT.zLevel]!,
+      model: modelNames[this.#model[row]!]!,
+      stable: stable < 0 ? undefined : stable === 1,
+      cpkLower: got(numbers[at + SLOT.cpkLower]!),
+      ppkLower: got(numbers[at + SLOT.ppkLower]!),
+      zLevelLower: got(numbers[at + SLOT.zLevelLower]!),
+      fractionUpper: got(numbers[at + SLOT.fractionUpper]!),
+      dpuUpper: got(numbers[at + SLOT.dpuUpper]!)
+    };
+    return figures;
   }
 }
