@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { changeSetOf, decodeExchangeFile, encodeExchangeFile } from '../lib/exchange/exchange-file';
 import { sha256Hex, useExchangeHost, type ExchangeHost } from '../lib/exchange/exchange-host';
 import { demoRecordSet, testFileHeader } from '../../tests/support/demo-change-set';
+import { writtenFileFacts } from '../lib/exchange/written-file-facts';
 import { FAST_EXCHANGE_HOST } from './fast-exchange-host';
 
 /**
@@ -31,6 +32,24 @@ async function outcome(host: ExchangeHost, bytes: Uint8Array): Promise<unknown> 
   }
 }
 
+/**
+ * The command line's host with its second thread as the main thread sees it (written-facts-thread.ts): the facts
+ * taken from a copy of the bytes and handed back through a structured clone, after the main thread has gone on.
+ */
+const THREADED_HOST: ExchangeHost = {
+  ...FAST_EXCHANGE_HOST,
+  writtenFacts: async (bytes) => {
+    const copy = bytes.slice();
+    await new Promise((resolve) => setTimeout(resolve, 1));
+    return structuredClone(await writtenFileFacts(new TextDecoder().decode(copy), copy));
+  }
+};
+/** The same host when its thread could not start or failed: the main thread takes the facts itself. */
+const FAILED_THREAD_HOST: ExchangeHost = {
+  ...FAST_EXCHANGE_HOST,
+  writtenFacts: () => Promise.reject(new Error('the thread failed'))
+};
+
 describe('the command line reads exchange files as the app does', () => {
   it('hashes to the published SHA-256 of "abc" (FIPS 180-2, appendix B.1) on both hosts', async () => {
     const abc = 'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad';
@@ -48,6 +67,8 @@ describe('the command line reads exchange files as the app does', () => {
     const bytes = new Uint8Array(readFileSync(new URL(file, corpus)));
     const app = await outcome(webHost, bytes);
     expect(await outcome(FAST_EXCHANGE_HOST, bytes)).toEqual(app);
+    expect(await outcome(THREADED_HOST, bytes)).toEqual(app);
+    expect(await outcome(FAILED_THREAD_HOST, bytes)).toEqual(app);
   });
 
   it('reads a valid file, written by either host, into the same records', async () => {
@@ -59,5 +80,7 @@ describe('the command line reads exchange files as the app does', () => {
     const app = (await outcome(webHost, written)) as { records?: unknown };
     expect(app).toHaveProperty('records');
     expect(await outcome(FAST_EXCHANGE_HOST, written)).toEqual(app);
+    expect(await outcome(THREADED_HOST, written)).toEqual(app);
+    expect(await outcome(FAILED_THREAD_HOST, written)).toEqual(app);
   });
 });

@@ -1,6 +1,7 @@
 /** Entry point of `npm run -s cli -- …` (compiled by src/build/cli.mjs). */
 import { useExchangeHost } from '../lib/exchange/exchange-host';
 import { EXCHANGE_COMMANDS, runCli } from './run-cli';
+import { writtenFactsThread } from './written-facts-thread';
 
 // A reader that stops early (`… | head`) closes the pipe: that is not an error, so stop quietly, as Unix tools do.
 process.stdout.on('error', (error: NodeJS.ErrnoException) => {
@@ -9,9 +10,13 @@ process.stdout.on('error', (error: NodeJS.ErrnoException) => {
 });
 
 const argv = process.argv.slice(2);
-// Loaded only for the commands that use it: it loads zod, which the usage text does not need.
-if (EXCHANGE_COMMANDS.has(argv[0] ?? ''))
-  useExchangeHost((await import('./fast-exchange-host')).FAST_EXCHANGE_HOST);
+// Loaded only for the commands that use it: it loads zod, which the usage text does not need. The written
+// facts' thread is started first, so that it starts up while zod loads and the file is read; it is the compiled
+// worker beside this file (src/build/cli.mjs builds both).
+if (EXCHANGE_COMMANDS.has(argv[0] ?? '')) {
+  const writtenFacts = writtenFactsThread(new URL('./written-facts-worker.js', import.meta.url));
+  useExchangeHost({ ...(await import('./fast-exchange-host')).FAST_EXCHANGE_HOST, writtenFacts });
+}
 
 const code = await runCli(argv, {
   stdout: (text) => process.stdout.write(`${text}\n`),

@@ -1,8 +1,9 @@
-import { execFileSync, spawnSync } from 'node:child_process';
+import { execFile, execFileSync, spawnSync } from 'node:child_process';
 import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { cliNodeArguments } from '../../tests/support/cli-node-arguments';
 import { checkValues, expectAbsolute, furnaceThickness } from '../../tests/support/reference-data';
 import { canonicalJson } from '../lib/domain/canonical-json';
 import { runCli } from './run-cli';
@@ -549,6 +550,42 @@ describe('capstan check and merge', async () => {
     expect(conflict.status).toBe(3);
     expect(conflict.stdout).toMatch(/1 conflict:/);
   });
+
+  it('check in a real process, its second thread counting keys and hashing, refuses every file of the bad-file corpus as the app does', async () => {
+    const corpus = new URL('../../tests/fixtures/bad-exchange-files/', import.meta.url);
+    const files = readdirSync(corpus).filter((f) => f.includes('.capstan.json'));
+    const verdictHere = async (path: string) => {
+      try {
+        await decodeExchangeFile(new Uint8Array(readFileSync(path)));
+        return 'valid';
+      } catch (e) {
+        return e instanceof Error ? e.message : String(e);
+      }
+    };
+    const verdictThere = (path: string) =>
+      new Promise<string>((resolve) => {
+        // As the npm script starts it (package.json), without npm's own start.
+        const node = execFile(
+          process.execPath,
+          [...cliNodeArguments(), 'check', path],
+          { encoding: 'utf8' },
+          (error, _out, err) => {
+            const code = node.exitCode ?? (error ? 1 : 0);
+            resolve(code === 0 ? 'valid' : err.trim().replace(`capstan check: '${path}': `, ''));
+          }
+        );
+      });
+    const paths = files.map((f) => new URL(f, corpus).pathname);
+    const there: string[] = [];
+    // Two at a time: the machine has two cores, and each command uses both.
+    for (let i = 0; i < paths.length; i += 2)
+      there.push(...(await Promise.all(paths.slice(i, i + 2).map(verdictThere))));
+    const here = await Promise.all(paths.map(verdictHere));
+    // A message that quotes this device's clock quotes each process's own moment.
+    const withoutNow = (v: string) => v.replace(/against \d{4}-\d\d-\d\dT[\d:.]+Z/, 'against (now)');
+    expect(there.map(withoutNow)).toEqual(here.map(withoutNow));
+    expect(here.filter((v) => v === 'valid').length).toBeLessThan(here.length / 4);
+  }, 60_000);
 });
 
 function demoFile() {

@@ -16,6 +16,7 @@ import { fileURLToPath } from 'node:url';
 import { emptyRecords, parentIdOf, RECORD_KINDS } from '../../src/lib/domain/record-kinds';
 import type { RecordMeta } from '../../src/lib/domain/record-meta';
 import { changeSetOf, decodeExchangeFile, encodeExchangeFile } from '../../src/lib/exchange/exchange-file';
+import { cliNodeArguments } from '../support/cli-node-arguments';
 import { companyPortfolioFile } from './company-portfolio-file';
 import type { BenchRow } from './engine-bench';
 
@@ -75,10 +76,11 @@ export async function runCommandLineBench(): Promise<BenchRow[]> {
     ]);
     const check = medianRun('npm', ['run', '-s', 'cli', '--', 'check', file]);
     const rank = medianRun('npm', ['run', '-s', 'cli', '--', 'rank', file]);
-    // The same commands started as the baseline is, by node itself: npm's own start (the start row's baseline)
-    // is the same for every command and is not the work of reading a file.
-    const checkByNode = medianRun(process.execPath, ['src/build/cli.mjs', 'check', file]);
-    const rankByNode = medianRun(process.execPath, ['src/build/cli.mjs', 'rank', file]);
+    // The same commands started as the baseline is, by node itself, with the options the npm script gives it:
+    // npm's own start (the start row's baseline) is the same for every command and is not the work of reading a
+    // file.
+    const checkByNode = medianRun(process.execPath, [...cliNodeArguments(), 'check', file]);
+    const rankByNode = medianRun(process.execPath, [...cliNodeArguments(), 'rank', file]);
     const folder = join(dir, 'shared');
     mkdirSync(folder);
     const deviceFiles = await writeSiteDeviceFiles(readFileSync(file), folder);
@@ -110,13 +112,13 @@ export async function runCommandLineBench(): Promise<BenchRow[]> {
         target: '≤ 2×'
       },
       {
-        name: '`check` of a 2 000-process exchange file (72 000 studies), `node src/build/cli.mjs check FILE`',
+        name: `\`check\` of a 2 000-process exchange file (72 000 studies), \`node ${cliNodeArguments().join(' ')} check FILE\``,
         ms: checkByNode,
         ...parseBase,
         target: '≤ 2.5×'
       },
       {
-        name: '`rank` of the same file, `node src/build/cli.mjs rank FILE`',
+        name: `\`rank\` of the same file, \`node ${cliNodeArguments().join(' ')} rank FILE\``,
         ms: rankByNode,
         ...parseBase,
         target: '≤ 2.5×'

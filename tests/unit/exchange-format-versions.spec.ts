@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { decodeExchangeFile, EXCHANGE_FORMAT_VERSIONS_READ } from '../../src/lib/exchange/exchange-file';
+import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
+import { EXCHANGE_FORMAT_VERSIONS_READ } from '../../src/lib/exchange/exchange-format-versions';
 
 /**
  * Every format version ever shipped is read: one good file of each (tests/fixtures/exchange-format), with its

@@ -6,7 +6,8 @@ import type { Study } from '../domain/study';
 import { liveMonthClashes } from '../domain/study-month';
 import { durationWords, isAheadOfClock, timeAheadOfClock } from '../domain/time-bounds';
 import { printable } from './exchange-guards';
-import { bookkeepingProblem, type ExchangeHeader } from './exchange-schema';
+import type { ExchangeHeader } from './exchange-schema';
+import { bookkeepingProblem } from './record-bookkeeping';
 
 /**
  * Checks of a change set that the schema cannot express: each record's bookkeeping against itself, time stamps

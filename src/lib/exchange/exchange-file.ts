@@ -3,15 +3,22 @@ import { laterStamp } from '../domain/hybrid-clock';
 import { countRecords, RECORD_KINDS, type RecordKind, type RecordsByKind } from '../domain/record-kinds';
 import type { RecordMeta } from '../domain/record-meta';
 import { changeSetProblem, recordPlace, restoreUnknownFields } from './change-set-checks';
-import { duplicateKeyProblem, pathText, printable, walkStructure } from './exchange-guards';
-import { hostSchema, sha256Hex } from './exchange-host';
+import {
+  duplicateKeyProblem,
+  MAX_RECORDS_PER_KIND,
+  pathText,
+  printable,
+  walkStructure
+} from './exchange-guards';
+import { EXCHANGE_FORMAT_VERSIONS_READ, RESTORE_FROM } from './exchange-format-versions';
+import { hostSchema, sha256Hex, writtenFactsElsewhere } from './exchange-host';
 import {
   EXCHANGE_FORMAT,
   EXCHANGE_FORMAT_VERSION,
   exchangeFileSchema,
-  MAX_RECORDS_PER_KIND,
   type ExchangeHeader
 } from './exchange-schema';
+import { writtenFileFacts, type WrittenFileFacts, type WrittenHash } from './written-file-facts';
 
 /**
  * The exchange file, format version 1 (README, "Exchange file format"): one JSON object
@@ -228,6 +235,12 @@ export async function decodeExchangeFile(
     );
   }
   onStage('parsing');
+  // Asked for before this thread parses: another thread, or Web Crypto, works meanwhile.
+  const elsewhere = writtenFactsElsewhere(bytes)?.catch(() => undefined);
+  const facts = elsewhere
+    ? elsewhere.then((f) => f ?? writtenFileFacts(text, bytes))
+    : writtenFileFacts(text, bytes);
+  facts.catch(() => undefined); // not waited for when the text is not JSON
   let parsed: unknown;
   try {
     parsed = JSON.parse(text);
@@ -235,35 +248,7 @@ export async function decodeExchangeFile(
     throw new ExchangeFileError(jsonProblem(text, e));
   }
   onStage('verifying');
-  return checkParsed(parsed, text, bytes, nowMs);
-}
-
-/**
- * The SHA-256 of the bytes the writer hashed, when the file is exactly as written: everything before the final
- * `,"sha256":"…"}`, closed with `}`. Hashing the file's own bytes spares encoding the text again (a fifth of
- * `check`'s time on a 30 MB file) and re-serialising it. The closing brace is written for a moment over the
- * tail's first byte, so that the digest reads one view of the file (it copies its input as it is called) and no
- * 30 MB copy is made here; the byte is put back before anything else runs. Undefined when the file was
- * re-indented or otherwise rewritten, or ends in white space other than ASCII: the canonical form then gives
- * the answer. `bytes` is valid UTF-8 (the text was decoded from it strictly), so these are the bytes of that
- * text.
- */
-async function writtenHash(bytes: Uint8Array, sha256: string): Promise<string | undefined> {
-  const start = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
-  let end = bytes.length;
-  while (end > start && [0x20, 0x09, 0x0a, 0x0d].includes(bytes[end - 1]!)) end -= 1;
-  const tail = new TextEncoder().encode(`,"sha256":"${sha256}"}`);
-  const bodyEnd = end - tail.length;
-  if (bodyEnd <= start) return undefined;
-  for (let i = 0; i < tail.length; i += 1) if (bytes[bodyEnd + i] !== tail[i]) return undefined;
-  let digest: Promise<string>;
-  bytes[bodyEnd] = 0x7d; // }
-  try {
-    digest = sha256Hex(bytes.subarray(start, bodyEnd + 1));
-  } finally {
-    bytes[bodyEnd] = tail[0]!;
-  }
-  return digest;
+  return checkParsed(parsed, text, nowMs, facts);
 }
 
 /** Path of a schema problem, naming the record (kind, index and id) when it lies inside one. */
@@ -277,95 +262,86 @@ function problemPlace(parsed: unknown, path: readonly (string | number)[]): stri
   return pathText(path);
 }
 
+/** The envelope: what the file says it is (format and version) and that it carries a content hash. */
+function envelopeProblem(top: Record<string, unknown>): string | undefined {
+  if (top.kind === 'capstan-demo-portfolio') {
+    return 'This is the demo portfolio file, not an exchange file — load the demo from the start page';
+  }
+  if (top.format !== EXCHANGE_FORMAT) {
+    return `The file is JSON but not a Capstan exchange file ("format" is not "${EXCHANGE_FORMAT}")`;
+  }
+  if (typeof top.formatVersion !== 'number' || !Number.isInteger(top.formatVersion)) {
+    return 'formatVersion must be a whole number: the file is damaged or was edited by hand';
+  }
+  if (top.formatVersion > EXCHANGE_FORMAT_VERSION) {
+    return `The file has format version ${top.formatVersion}, made by a newer Capstan; this app reads version ${EXCHANGE_FORMAT_VERSION} — update the app, then import it`;
+  }
+  if (!RESTORE_FROM[top.formatVersion]) {
+    return `Format version ${top.formatVersion} is not one Capstan ever wrote (this app reads ${EXCHANGE_FORMAT_VERSIONS_READ.join(', ')})`;
+  }
+  if (typeof top.sha256 !== 'string' || !/^[0-9a-f]{64}$/.test(top.sha256)) {
+    return 'The file has no valid content hash (sha256): it is damaged or was edited by hand';
+  }
+  return undefined;
+}
+
+function refuse(problem: string | undefined): void {
+  if (problem) throw new ExchangeFileError(problem);
+}
+
+const HASH_MISMATCH =
+  'The content hash does not match: the file was changed or damaged after it was exported';
+
+/**
+ * The hash check of a file whose `sha256` is well formed: undefined when it matches, else the line refusing the
+ * file. A file exactly as written is judged by the digest of its bytes; a rewritten one in canonical form.
+ */
+async function hashProblem(
+  top: Record<string, unknown>,
+  sha256: string,
+  written: WrittenHash | undefined
+): Promise<string | undefined> {
+  if (written?.claimed === sha256 && written.digest === sha256) return undefined;
+  let body: string;
+  try {
+    const { sha256: _hash, ...rest } = top;
+    body = canonicalJson(rest, 64);
+  } catch (e) {
+    return e instanceof Error ? e.message : String(e);
+  }
+  return (await sha256Hex(body)) === sha256 ? undefined : HASH_MISMATCH;
+}
+
+/** The checks after parsing, each refusing the file with one line, in the order decodeExchangeFile gives. */
 async function checkParsed(
   parsed: unknown,
   text: string,
-  bytes: Uint8Array,
-  nowMs: number
+  nowMs: number,
+  facts: Promise<WrittenFileFacts>
 ): Promise<ChangeSet> {
   const walk = walkStructure(parsed, MAX_RECORDS_PER_KIND);
-  const structural = walk.problem ?? duplicateKeyProblem(text, walk.keys);
-  if (structural) throw new ExchangeFileError(structural);
+  refuse(walk.problem);
+  const { keysWritten, written } = await facts;
+  refuse(duplicateKeyProblem(text, walk.keys, keysWritten));
   const top = parsed as Record<string, unknown>;
-  if (top.kind === 'capstan-demo-portfolio') {
-    throw new ExchangeFileError(
-      'This is the demo portfolio file, not an exchange file — load the demo from the start page'
-    );
-  }
-  if (top.format !== EXCHANGE_FORMAT) {
-    throw new ExchangeFileError(
-      `The file is JSON but not a Capstan exchange file ("format" is not "${EXCHANGE_FORMAT}")`
-    );
-  }
-  if (typeof top.formatVersion !== 'number' || !Number.isInteger(top.formatVersion)) {
-    throw new ExchangeFileError(
-      'formatVersion must be a whole number: the file is damaged or was edited by hand'
-    );
-  }
-  if (top.formatVersion > EXCHANGE_FORMAT_VERSION) {
-    throw new ExchangeFileError(
-      `The file has format version ${top.formatVersion}, made by a newer Capstan; this app reads version ${EXCHANGE_FORMAT_VERSION} — update the app, then import it`
-    );
-  }
-  const restore = RESTORE_FROM[top.formatVersion];
-  if (!restore) {
-    throw new ExchangeFileError(
-      `Format version ${top.formatVersion} is not one Capstan ever wrote (this app reads ${EXCHANGE_FORMAT_VERSIONS_READ.join(', ')})`
-    );
-  }
-  if (typeof top.sha256 !== 'string' || !/^[0-9a-f]{64}$/.test(top.sha256)) {
-    throw new ExchangeFileError(
-      'The file has no valid content hash (sha256): it is damaged or was edited by hand'
-    );
-  }
-  const { sha256, ...rest } = top;
-  // In the browser the digest of the bytes as written runs off this thread (Web Crypto) while the schema is
-  // checked; the command line's hash (exchange-host.ts) is done before. Either way the schema's verdict is given
-  // only once the hash has been found to match — a damaged file is named as damaged first.
-  const writtenDigest = writtenHash(bytes, sha256);
-  const result = hostSchema(exchangeFileSchema).safeParse(restore(parsed as Record<string, unknown>));
-  let matches = (await writtenDigest) === sha256;
-  if (!matches) {
-    let body: string;
-    try {
-      body = canonicalJson(rest, 64);
-    } catch (e) {
-      throw new ExchangeFileError(e instanceof Error ? e.message : String(e));
-    }
-    matches = (await sha256Hex(body)) === sha256;
-  }
-  if (!matches) {
-    throw new ExchangeFileError(
-      'The content hash does not match: the file was changed or damaged after it was exported'
-    );
-  }
+  refuse(envelopeProblem(top));
+  // A rewritten file's canonical form is hashed while the schema is checked (in the browser, off this thread).
+  // The schema's verdict is given only once the hash has been found to match: a damaged file is named first.
+  const hash = hashProblem(top, top.sha256 as string, written);
+  const restore = RESTORE_FROM[top.formatVersion as number]!;
+  const result = hostSchema(exchangeFileSchema).safeParse(restore(top));
+  refuse(await hash);
   if (!result.success) {
     const issues = result.error.issues;
     const first = issues[0]!;
     const more =
       issues.length > 1 ? ` (and ${issues.length - 1} more problem${issues.length > 2 ? 's' : ''})` : '';
-    throw new ExchangeFileError(
-      `${problemPlace(parsed, first.path as (string | number)[])}: ${first.message}${more}`
-    );
+    refuse(`${problemPlace(parsed, first.path as (string | number)[])}: ${first.message}${more}`);
   }
   const { header, records } = result.data as unknown as ChangeSet;
-  const problem = restoreUnknownFields(parsed, records) ?? changeSetProblem(header, records, nowMs);
-  if (problem) throw new ExchangeFileError(problem);
+  refuse(restoreUnknownFields(parsed, records) ?? changeSetProblem(header, records, nowMs));
   return { header, records };
 }
-
-/**
- * Reading older format versions: each version Capstan ever wrote maps to a function that turns a file of that
- * version (after its hash is checked) into the current shape — fill defaults, rename, move — before the schema
- * validates it; fields a newer version adds to records are kept by `restoreUnknownFields`. Version 1 is the
- * current one, so it is read as it is. A new version adds its entry here and a fixture file under
- * tests/fixtures/exchange-format/.
- */
-const RESTORE_FROM: Record<number, (file: Record<string, unknown>) => unknown> = {
-  1: (file) => file
-};
-
-export const EXCHANGE_FORMAT_VERSIONS_READ = Object.keys(RESTORE_FROM).map(Number);
 
 /** Suggested file name: who, what and when, safe on every file system. */
 export function exchangeFileName(header: ExchangeHeader, gzip: boolean): string {

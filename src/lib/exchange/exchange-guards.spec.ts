@@ -1,6 +1,12 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { duplicateKeyProblem, structuralProblem, walkStructure } from './exchange-guards';
+import {
+  duplicateKeyProblem,
+  MAX_NESTING,
+  structuralProblem,
+  walkNamingProblems,
+  walkStructure
+} from './exchange-guards';
 
 /** JSON text, and whether one of its objects writes a key twice. */
 interface Written {
@@ -80,5 +86,72 @@ describe('the structure of a parsed file', () => {
       'records.sites[1].constructor: the key "constructor" is not allowed in a Capstan file'
     );
     expect(structuralProblem([[[]]], 10)).toBeUndefined();
+  });
+});
+
+/**
+ * Parsed values of every structural kind: objects under keys that are allowed, forbidden or name measurement
+ * lists, lists longer than the bound, and nesting past MAX_NESTING (written as text and parsed, so that
+ * `__proto__` is an own key, as JSON.parse makes it).
+ */
+const structureKey = fc.constantFrom(
+  'a',
+  'b',
+  'values',
+  'subgroups',
+  '__proto__',
+  'constructor',
+  'prototype',
+  'x'
+);
+const structured: fc.Arbitrary<string> = fc.letrec<{ value: string; object: string; list: string }>(
+  (tie) => ({
+    value: fc.oneof(
+      { depthSize: 'small', maxDepth: MAX_NESTING + 3 },
+      fc.integer().map(String),
+      fc.constant('null'),
+      tie('list'),
+      tie('object')
+    ),
+    list: fc.array(tie('value'), { maxLength: 5 }).map((xs) => `[${xs.join(',')}]`),
+    object: fc
+      .uniqueArray(fc.tuple(structureKey, tie('value')), { maxLength: 4, selector: ([k]) => k })
+      .map((pairs) => `{${pairs.map(([k, v]) => `${JSON.stringify(k)}:${v}`).join(',')}}`)
+  })
+).value;
+
+describe('the quick walk of a parsed file', () => {
+  it('finds a problem exactly where the naming walk does, and counts the same keys (property)', () => {
+    let problems = 0;
+    fc.assert(
+      fc.property(structured, fc.integer({ min: 1, max: 4 }), (text, maxArray) => {
+        const value: unknown = JSON.parse(text);
+        const named = walkNamingProblems(value, maxArray);
+        expect(walkStructure(value, maxArray)).toEqual(named);
+        if (named.problem) problems += 1;
+      }),
+      { numRuns: 3000, seed: 20261205 }
+    );
+    // Both kinds of value were tried.
+    expect(problems).toBeGreaterThan(300);
+    expect(problems).toBeLessThan(2700);
+  });
+
+  it('finds nesting past the bound and a measurement list holding a list', () => {
+    let deep = '1';
+    for (let i = 0; i < MAX_NESTING + 1; i++) deep = `{"a":${deep}}`;
+    expect(walkStructure(JSON.parse(deep), 10).problem).toMatch(/nested more than 16 levels deep$/);
+    expect(walkStructure({ s: [{ values: [1, 2, { n: 3 }] }] }, 10).problem).toBe(
+      's[0].values[2] must be a number, not a list or object'
+    );
+    expect(walkStructure({ s: [{ values: [1, 2, 3, 4, 5] }] }, 2)).toEqual({ problem: undefined, keys: 2 });
+    // A measurement list at each depth about the bound: the walks agree where the bound falls.
+    for (let levels = MAX_NESTING - 3; levels <= MAX_NESTING + 1; levels++) {
+      let text = '{"values":[1,2]}';
+      for (let i = 0; i < levels; i++) text = `{"a":${text}}`;
+      const value: unknown = JSON.parse(text);
+      expect(walkStructure(value, 10)).toEqual(walkNamingProblems(value, 10));
+      expect(walkStructure(value, 10).problem !== undefined).toBe(levels + 1 >= MAX_NESTING);
+    }
   });
 });

@@ -1,4 +1,5 @@
 import type { z } from 'zod';
+import type { WrittenFileFacts } from './written-file-facts';
 
 /**
  * The two heavy steps of reading and writing an exchange file that a host can do faster its own way: the SHA-256
@@ -12,6 +13,12 @@ export interface ExchangeHost {
   sha256Hex(bytes: Uint8Array): Promise<string>;
   /** The schema as this host runs it: the schema itself, or a compiled parser that gives the same verdicts. */
   prepareSchema<T extends z.ZodType>(schema: T): T;
+  /**
+   * Takes a file's written facts (written-file-facts.ts: keys its text writes, the digest of its bytes) on
+   * another thread while the reading thread parses it, given the bytes as decoded (the reader's own copy is not
+   * touched). Resolves to undefined when that thread could not answer: the reading thread then takes them itself.
+   */
+  writtenFacts?(bytes: Uint8Array): Promise<WrittenFileFacts | undefined>;
 }
 
 async function webCryptoSha256Hex(bytes: Uint8Array): Promise<string> {
@@ -37,6 +44,11 @@ export function useExchangeHost(replacement: ExchangeHost): ExchangeHost {
 
 export function sha256Hex(content: string | Uint8Array): Promise<string> {
   return host.sha256Hex(typeof content === 'string' ? new TextEncoder().encode(content) : content);
+}
+
+/** The written facts of a file's bytes from the host's other thread, or undefined when it has none. */
+export function writtenFactsElsewhere(bytes: Uint8Array): Promise<WrittenFileFacts | undefined> | undefined {
+  return host.writtenFacts?.(bytes);
 }
 
 /** The schema as the host runs it, prepared on first use (compiling costs tens of milliseconds, once). */

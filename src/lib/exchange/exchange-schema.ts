@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { characteristicFieldsSchema } from '../domain/characteristic-schema';
 import { contextProfileFieldsSchema } from '../domain/context-profile-record-schema';
-import { isClockStamp, parseStamp, type ClockParts } from '../domain/hybrid-clock';
+import { isClockStamp } from '../domain/hybrid-clock';
 import { improvementProjectFieldsSchema } from '../domain/improvement-project-schema';
 import { processFieldsSchema } from '../domain/process-schema';
 import { quarterReviewFieldsSchema } from '../domain/quarter-review-record-schema';
@@ -9,6 +9,7 @@ import { RECORD_KINDS } from '../domain/record-kinds';
 import { DEVICE_ID_RULE } from '../domain/device-id';
 import { deviceIdSchema, isoTime, recordMetaSchema } from '../domain/record-meta-schema';
 import { siteFieldsSchema } from '../domain/site-schema';
+import { MAX_RECORDS_PER_KIND } from './exchange-guards';
 import { studyFieldsSchema } from '../domain/study-schema';
 
 /**
@@ -18,9 +19,6 @@ import { studyFieldsSchema } from '../domain/study-schema';
  */
 export const EXCHANGE_FORMAT = 'capstan-exchange';
 export const EXCHANGE_FORMAT_VERSION = 1;
-
-/** Per kind; a file holding more is refused before validation so that it cannot exhaust memory. */
-export const MAX_RECORDS_PER_KIND = 1_000_000;
 
 const deviceId = deviceIdSchema;
 
@@ -43,37 +41,6 @@ const exchangeMeta = recordMetaSchema.extend({
     .string({ error: 'clock is required' })
     .refine(isClockStamp, { error: 'clock is not a clock stamp' })
 });
-
-/**
- * A validated record's bookkeeping must agree with itself: `rev` is the vector's total, the last writer
- * (`deviceId`) has at least one write in it, and the clock stamp names that writer. A record that disagrees
- * would break the merge's arithmetic, so it is refused rather than repaired. Returns the field and message.
- */
-export function bookkeepingProblem(
-  r: {
-    rev: number;
-    deviceId: string;
-    vv: Record<string, number>;
-    clock: string;
-  },
-  stamp: ClockParts | undefined = parseStamp(r.clock)
-): { field: string; message: string } | undefined {
-  let total = 0;
-  for (const n of Object.values(r.vv)) total += n;
-  if (r.rev !== total)
-    return {
-      field: 'rev',
-      message: `rev ${r.rev} disagrees with the version vector, which counts ${total} writes`
-    };
-  if (!Object.hasOwn(r.vv, r.deviceId))
-    return { field: 'deviceId', message: `the last writer ${r.deviceId} has no write in the version vector` };
-  if (stamp?.deviceId !== r.deviceId)
-    return {
-      field: 'clock',
-      message: `the clock stamp names another device than the last writer ${r.deviceId}`
-    };
-  return undefined;
-}
 
 const withMeta = <S extends z.ZodObject>(schema: S) => schema.extend(exchangeMeta.shape);
 

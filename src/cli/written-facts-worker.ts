@@ -1,0 +1,33 @@
+/**
+ * The command line's second thread (written-facts-thread.ts): takes an exchange file's written facts — the keys
+ * its text writes and the SHA-256 of its bytes (written-file-facts.ts) — while the main thread parses the same
+ * bytes. Answers each request with the facts, or with none when it could not (the main thread then takes them).
+ */
+import { parentPort } from 'node:worker_threads';
+import { useExchangeHost } from '../lib/exchange/exchange-host';
+import { writtenFileFacts, type WrittenFileFacts } from '../lib/exchange/written-file-facts';
+import { nodeSha256Hex } from './node-sha256';
+
+export interface WrittenFactsRequest {
+  id: number;
+  /** The file's bytes as the main thread decoded them: this thread's own copy, handed over. */
+  bytes: ArrayBuffer;
+}
+
+export interface WrittenFactsAnswer {
+  id: number;
+  facts: WrittenFileFacts | undefined;
+}
+
+useExchangeHost({ sha256Hex: nodeSha256Hex, prepareSchema: (schema) => schema });
+
+parentPort?.on('message', ({ id, bytes }: WrittenFactsRequest) => {
+  const answer = (facts: WrittenFileFacts | undefined) =>
+    parentPort?.postMessage({ id, facts } satisfies WrittenFactsAnswer);
+  try {
+    const view = new Uint8Array(bytes);
+    writtenFileFacts(new TextDecoder('utf-8').decode(view), view).then(answer, () => answer(undefined));
+  } catch {
+    answer(undefined);
+  }
+});
