@@ -1,8 +1,7 @@
-import { readFile } from 'node:fs/promises';
 import { effectiveProfiles } from '../lib/domain/context-profile-record';
 import { isLive } from '../lib/domain/record-meta';
 import { EXCHANGE_FORMAT } from '../lib/exchange/exchange-schema';
-import { readExchangeFile } from './exchange-file-input';
+import { readExchangeFile, readFileShared } from './exchange-file-input';
 import { BUILT_IN_PROFILES } from '../lib/domain/context-profile';
 import { parseDemoPortfolio } from '../lib/domain/demo-portfolio-schema';
 import { isPeriod, periodsOfQuarter } from '../lib/domain/period';
@@ -118,7 +117,7 @@ const EXCHANGE_START = new RegExp(`^\\uFEFF?\\s*\\{\\s*"format"\\s*:\\s*"${EXCHA
 async function readPortfolio(file: string) {
   let bytes: Buffer;
   try {
-    bytes = await readFile(file);
+    bytes = await readFileShared(file);
   } catch {
     throw new UsageError(`Cannot read '${file}': no such file or not readable`);
   }

@@ -36,13 +36,19 @@ export function writtenFactsThread(workerFile: URL): NonNullable<ExchangeHost['w
     const thread = worker;
     if (!thread) return Promise.resolve(undefined);
     const id = next++;
-    // The thread's own copy, handed over rather than copied again: it writes a byte of it for a moment while
-    // hashing, which this thread's copy must never see.
-    const copy = bytes.slice();
+    // Shared memory is read there as it is (the thread copies it for itself); other bytes are copied here and the
+    // copy handed over: the thread writes a byte of it for a moment while hashing.
+    const request: WrittenFactsRequest =
+      bytes.buffer instanceof SharedArrayBuffer
+        ? { id, bytes: bytes.buffer, offset: bytes.byteOffset, length: bytes.byteLength }
+        : (() => {
+            const copy = bytes.slice();
+            return { id, bytes: copy.buffer, offset: 0, length: copy.byteLength };
+          })();
     thread.ref();
     return new Promise((resolve) => {
       pending.set(id, resolve);
-      thread.postMessage({ id, bytes: copy.buffer } satisfies WrittenFactsRequest, [copy.buffer]);
+      thread.postMessage(request, request.bytes instanceof SharedArrayBuffer ? [] : [request.bytes]);
     });
   };
 }

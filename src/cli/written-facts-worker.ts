@@ -10,8 +10,14 @@ import { nodeSha256Hex } from './node-sha256';
 
 export interface WrittenFactsRequest {
   id: number;
-  /** The file's bytes as the main thread decoded them: this thread's own copy, handed over. */
-  bytes: ArrayBuffer;
+  /**
+   * The file's bytes as the main thread decoded them: a copy handed over, or memory both threads share (then
+   * copied here first, off the main thread: hashing writes a byte for a moment, which the main thread's bytes
+   * must never see).
+   */
+  bytes: ArrayBuffer | SharedArrayBuffer;
+  offset: number;
+  length: number;
 }
 
 export interface WrittenFactsAnswer {
@@ -21,11 +27,12 @@ export interface WrittenFactsAnswer {
 
 useExchangeHost({ sha256Hex: nodeSha256Hex, prepareSchema: (schema) => schema });
 
-parentPort?.on('message', ({ id, bytes }: WrittenFactsRequest) => {
+parentPort?.on('message', ({ id, bytes, offset, length }: WrittenFactsRequest) => {
   const answer = (facts: WrittenFileFacts | undefined) =>
     parentPort?.postMessage({ id, facts } satisfies WrittenFactsAnswer);
   try {
-    const view = new Uint8Array(bytes);
+    const given = new Uint8Array(bytes, offset, length);
+    const view = bytes instanceof SharedArrayBuffer ? given.slice() : given;
     writtenFileFacts(new TextDecoder('utf-8').decode(view), view).then(answer, () => answer(undefined));
   } catch {
     answer(undefined);

@@ -1,7 +1,13 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { isDeviceId } from './device-id';
-import { parseStamp, STAMP_PATTERN } from './hybrid-clock';
+import {
+  checkedStampNames,
+  checkedStampWallMs,
+  formatStamp,
+  parseStamp,
+  STAMP_PATTERN
+} from './hybrid-clock';
 
 /** The reading by expression that parseStamp replaced, kept here as its specification. */
 function byPattern(stamp: string) {
@@ -41,5 +47,31 @@ describe('reading a clock stamp', () => {
     });
     expect(parseStamp('1764633600000-0003-site\na')).toBeUndefined();
     expect(parseStamp('176463360000٠-0003-site-a')).toBeUndefined();
+  });
+});
+
+describe('reading a stamp already checked', () => {
+  it("gives parseStamp's wall-clock time and writer on every stamp (property)", () => {
+    const deviceId = fc.oneof(
+      fc.string({ unit: fc.constantFrom(...'abcdef0123456789-'), minLength: 1, maxLength: 40 }),
+      fc.constantFrom('site-a', 'site-ab', 'site', 'a')
+    );
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 0, max: 9_999_999_999_999 }),
+        fc.integer({ min: 0, max: 9999 }),
+        deviceId,
+        deviceId,
+        (wallMs, counter, writer, other) => {
+          const stamp = formatStamp({ wallMs, counter, deviceId: writer });
+          const parts = parseStamp(stamp);
+          if (!parts) return; // not a stamp (a device id the rule refuses): never checked
+          expect(checkedStampWallMs(stamp)).toBe(parts.wallMs);
+          expect(checkedStampNames(stamp, writer)).toBe(true);
+          expect(checkedStampNames(stamp, other)).toBe(parts.deviceId === other);
+        }
+      ),
+      { numRuns: 3000, seed: 20261205 }
+    );
   });
 });

@@ -61,6 +61,24 @@ const DASH = 45;
 const ZERO = 48;
 const NINE = 57;
 
+/**
+ * What bookkeeping reads of a stamp already found to be one (isClockStamp): its wall-clock milliseconds, and
+ * whether it names `deviceId` as its writer — read by position, without the strings parseStamp makes of its parts.
+ * A company's file carries 76 000 stamps, each checked by the schema first; parsing each again was a fifth of the
+ * change-set checks. For a stamp, the same as parseStamp's wallMs and `deviceId ===` (property-tested).
+ */
+export function checkedStampWallMs(stamp: ClockStamp): number {
+  let ms = 0;
+  for (let i = 0; i < WALL_DIGITS; i += 1) ms = ms * 10 + (stamp.charCodeAt(i) - ZERO);
+  return ms;
+}
+
+/** Whether a stamp already found to be one (isClockStamp) names `deviceId` as its writer (see checkedStampWallMs). */
+export function checkedStampNames(stamp: ClockStamp, deviceId: string): boolean {
+  const idStart = WALL_DIGITS + COUNTER_DIGITS + 2;
+  return stamp.length === idStart + deviceId.length && stamp.startsWith(deviceId, idStart);
+}
+
 export function isClockStamp(value: unknown): value is ClockStamp {
   return typeof value === 'string' && value.length <= 120 && parseStamp(value) !== undefined;
 }

@@ -22,7 +22,11 @@ export interface ExchangeHost {
 }
 
 async function webCryptoSha256Hex(bytes: Uint8Array): Promise<string> {
-  const digest = await crypto.subtle.digest('SHA-256', bytes as BufferSource);
+  // Web Crypto refuses views of shared memory, which the command line reads files into: those are copied first.
+  // (A page that is not cross-origin isolated has no SharedArrayBuffer at all.)
+  const shared = typeof SharedArrayBuffer !== 'undefined' && bytes.buffer instanceof SharedArrayBuffer;
+  const input = shared ? bytes.slice() : bytes;
+  const digest = await crypto.subtle.digest('SHA-256', input as BufferSource);
   return Array.from(new Uint8Array(digest), (b) => b.toString(16).padStart(2, '0')).join('');
 }
 
