@@ -136,10 +136,20 @@ test('2 000 processes: received, ranked and reviewed without a long task on the 
 
   // Every chart is drawn, those of every process too (their points handed over in one typed array each), and a
   // point of the movement chart still names its process when pointed at, though the points carry no names.
+  // The sections come one per task, so the number of charts is read again at each look: read once, it was
+  // taken while a section was still to come (five charts counted, six drawn).
   const charts = page.getByTestId('chart');
-  await expect(page.locator('[data-testid="chart"] svg')).toHaveCount(await charts.count(), {
-    timeout: 30_000
-  });
+  const drawn = page.locator('[data-testid="chart"] svg');
+  await expect
+    .poll(
+      async () => {
+        const all = await charts.count();
+        return all > 0 && (await drawn.count()) === all;
+      },
+      { timeout: 30_000 }
+    )
+    .toBe(true);
+  await expect(page.getByTestId('chart').filter({ hasNot: page.locator('svg') })).toHaveCount(0);
   const movement = page.locator('figure', { hasText: 'above the diagonal improved' }).getByTestId('chart');
   const svg = movement.locator('svg');
   await movement.scrollIntoViewIfNeeded();
