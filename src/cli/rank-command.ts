@@ -115,12 +115,7 @@ const EXCHANGE_START = new RegExp(`^\\uFEFF?\\s*\\{\\s*"format"\\s*:\\s*"${EXCHA
  * or the demo portfolio file.
  */
 async function readPortfolio(file: string) {
-  let bytes: Buffer;
-  try {
-    bytes = await readFileShared(file);
-  } catch {
-    throw new UsageError(`Cannot read '${file}': no such file or not readable`);
-  }
+  const bytes = await readFileShared(file);
   const gzip = bytes[0] === 0x1f && bytes[1] === 0x8b;
   let json: unknown;
   // An exchange file as written (or re-indented) starts with its format: read it once, by the exchange reader,

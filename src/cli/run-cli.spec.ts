@@ -255,6 +255,23 @@ describe('capstan rank', () => {
   });
 });
 
+describe('capstan reading a path that is not a file', () => {
+  it('refuses a folder and a missing file with one line and exit 2, never a stack trace', async () => {
+    for (const command of ['check', 'rank', 'merge']) {
+      const args = command === 'merge' ? [dir, dir, '-o', join(dir, 'out.json')] : [dir];
+      const r = await run(command, ...args);
+      expect(r.code).toBe(2);
+      expect(r.err.trim()).toBe(`capstan ${command}: '${dir}' is a folder, not a file`);
+    }
+    const missing = join(dir, 'no-such-file.capstan.json');
+    for (const command of ['check', 'rank']) {
+      const r = await run(command, missing);
+      expect(r.code).toBe(2);
+      expect(r.err.trim()).toBe(`capstan ${command}: Cannot read '${missing}': no such file or not readable`);
+    }
+  });
+});
+
 describe('capstan check and merge', async () => {
   const { readFileSync, existsSync } = await import('node:fs');
   const { changeSetOf, encodeExchangeFile, decodeExchangeFile } =
