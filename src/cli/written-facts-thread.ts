@@ -38,17 +38,18 @@ export function writtenFactsThread(workerFile: URL): NonNullable<ExchangeHost['w
     const id = next++;
     // Shared memory is read there as it is (the thread copies it for itself); other bytes are copied here and the
     // copy handed over: the thread writes a byte of it for a moment while hashing.
-    const request: WrittenFactsRequest =
-      bytes.buffer instanceof SharedArrayBuffer
-        ? { id, bytes: bytes.buffer, offset: bytes.byteOffset, length: bytes.byteLength }
-        : (() => {
-            const copy = bytes.slice();
-            return { id, bytes: copy.buffer, offset: 0, length: copy.byteLength };
-          })();
+    const shared = bytes.buffer instanceof SharedArrayBuffer;
+    const given = shared ? bytes : bytes.slice();
+    const request: WrittenFactsRequest = {
+      id,
+      bytes: given.buffer,
+      offset: given.byteOffset,
+      length: given.byteLength
+    };
     thread.ref();
     return new Promise((resolve) => {
       pending.set(id, resolve);
-      thread.postMessage(request, request.bytes instanceof SharedArrayBuffer ? [] : [request.bytes]);
+      thread.postMessage(request, shared ? [] : [given.buffer as ArrayBuffer]);
     });
   };
 }
