@@ -27,6 +27,11 @@ export interface WrittenFactsAnswer {
 
 useExchangeHost({ sha256Hex: nodeSha256Hex, prepareSchema: (schema) => schema });
 
+// The time-zone data, loaded once per process by whichever thread asks first: here, while the main thread still
+// reads the file, rather than there, when it checks the sites' time zones (11 ms on the main thread, under 1 ms
+// once loaded).
+new Intl.DateTimeFormat('en', { timeZone: 'UTC' });
+
 parentPort?.on('message', ({ id, bytes, offset, length }: WrittenFactsRequest) => {
   const answer = (facts: WrittenFileFacts | undefined) =>
     parentPort?.postMessage({ id, facts } satisfies WrittenFactsAnswer);
