@@ -1,5 +1,6 @@
 /**
- * `npm run bench`: runs every benchmark and prints one table. Figures only; nothing here passes or fails.
+ * `npm run bench`: runs every benchmark and prints one table, each section's rows as soon as the section ends (a
+ * full run takes minutes). Figures only; nothing here passes or fails.
  * `npm run bench -- --json` prints one JSON object per row instead (name, size, ms, baselineMs, ratio, peakMB),
  * one per line, for tools that compare runs.
  */
@@ -25,13 +26,13 @@ function printJson(rows: BenchRow[]): void {
     );
 }
 
+const TABLE_HEAD = ['benchmark', 'time (ms)', 'baseline', 'baseline (ms)', 'ratio', 'peak MB', 'target'];
+const tableLine = (cells: string[]) => `| ${cells.join(' | ')} |`;
+
 function print(rows: BenchRow[]): void {
-  const line = (cells: string[]) => `| ${cells.join(' | ')} |`;
-  console.log(line(['benchmark', 'time (ms)', 'baseline', 'baseline (ms)', 'ratio', 'peak MB', 'target']));
-  console.log(line(['---', '---:', '---', '---:', '---:', '---:', '---']));
   for (const r of rows) {
     console.log(
-      line([
+      tableLine([
         r.name,
         r.ms.toFixed(1),
         r.baselineName ?? '–',
@@ -44,14 +45,34 @@ function print(rows: BenchRow[]): void {
   }
 }
 
+/** The benchmarks in the order they run and print: each section's rows are printed as soon as it ends. */
+const SECTIONS: [string, () => BenchRow[] | Promise<BenchRow[]>][] = [
+  ['engine', runEngineBench],
+  ['CSV import', runCsvImportBench],
+  ['master list', runMasterListBench],
+  ['ranking and review', runRankingBench],
+  ['command line', runCommandLineBench],
+  ['exchange file', runExchangeFileBench],
+  ['browser', runBrowserBench]
+];
+
 const json = process.argv.includes('--json');
-if (!json) console.log(`Capstan benchmarks — Node ${process.version}, ${new Date().toISOString()}`);
-(json ? printJson : print)([
-  ...runEngineBench(),
-  ...runCsvImportBench(),
-  ...runMasterListBench(),
-  ...(await runRankingBench()),
-  ...(await runCommandLineBench()),
-  ...(await runExchangeFileBench()),
-  ...(await runBrowserBench())
-]);
+let running: string | undefined = SECTIONS[0]![0];
+// A section waiting on something that can never happen (a child or a browser gone without a word) leaves Node
+// with nothing to do, and it ends (code 13) without a word of where: say which section.
+process.on('beforeExit', () => {
+  if (running === undefined) return;
+  console.error(`bench: stopped while the ${running} section had not finished`);
+  process.exitCode = 1;
+  running = undefined;
+});
+if (!json) {
+  console.log(`Capstan benchmarks — Node ${process.version}, ${new Date().toISOString()}`);
+  console.log(tableLine(TABLE_HEAD));
+  console.log(tableLine(['---', '---:', '---', '---:', '---:', '---:', '---']));
+}
+for (const [name, section] of SECTIONS) {
+  running = name;
+  (json ? printJson : print)(await section());
+}
+running = undefined;
