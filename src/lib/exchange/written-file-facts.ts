@@ -5,7 +5,7 @@ import { sha256Hex } from './exchange-host';
  * What an exchange file's text and bytes tell before they are parsed: how many keys the text writes (set against
  * the keys the parsed value holds, it shows a key written twice: exchange-guards.ts) and the SHA-256 of the
  * bytes as written. Both scan all 30 MB of a company's file without needing its parse, so the command line takes
- * them on a second thread while the first parses (exchange-host.ts, src/cli/text-checks-thread.ts); the app takes
+ * them on a second thread while the first parses (exchange-host.ts, src/cli/written-facts-thread.ts); the app takes
  * them itself, asking for the digest first so that Web Crypto hashes off the page's thread meanwhile.
  */
 export interface WrittenFileFacts {
