@@ -11,7 +11,7 @@
  * parse. `check` of the 2 000-process file: 769 ms with the option against 825 without (medians of nine
  * alternating runs, Node 20). The option only raises that first limit; memory is still taken as it is used.
  */
-import { existsSync, mkdirSync, readdirSync, renameSync, rmSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
@@ -33,7 +33,12 @@ function newestSource(dir) {
 const sources = ['src/cli', 'src/lib/stats', 'src/lib/domain', 'src/lib/exchange', 'src/lib/spreadsheet'];
 // One folder per state of the sources, named by the newest source's time: a build never changes a folder a
 // running command may still load chunks from, and two calls starting together at worst both build it.
-const build = join(cache, String(Math.round(Math.max(...sources.map((s) => newestSource(join(root, s)))))));
+// This launcher counts as a source too: how it builds changes what is built.
+const launcherMs = statSync(fileURLToPath(import.meta.url)).mtimeMs;
+const build = join(
+  cache,
+  String(Math.round(Math.max(launcherMs, ...sources.map((s) => newestSource(join(root, s))))))
+);
 const entry = join(build, 'main.js');
 if (!existsSync(entry)) {
   const esbuild = await import('esbuild');
@@ -51,6 +56,11 @@ if (!existsSync(entry)) {
     banner: { js: "import { createRequire as __capstanRequire } from 'node:module'; const require = __capstanRequire(import.meta.url);" },
     logLevel: 'error'
   });
+  // Node looks for the package.json that says how to read a .js file no higher than node_modules, so it found none
+  // for these chunks and compiled each first as CommonJS to detect that it is a module (Node 20.19 detects module
+  // syntax by default). Said here, every chunk is compiled once: `check` of the 2 000-process file 582 against 603
+  // ms (medians of eleven alternating runs of the same build with and without this file).
+  writeFileSync(join(partial, 'package.json'), '{ "type": "module" }\n');
   try {
     renameSync(partial, build);
   } catch {

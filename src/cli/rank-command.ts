@@ -1,7 +1,8 @@
 import { effectiveProfiles } from '../lib/domain/context-profile-record';
 import { isLive } from '../lib/domain/record-meta';
 import { EXCHANGE_FORMAT } from '../lib/exchange/exchange-schema';
-import { readExchangeFile, readFileShared } from './exchange-file-input';
+import { readExchangeFile } from './exchange-file-input';
+import { readFileShared } from './shared-file-read';
 import { BUILT_IN_PROFILES } from '../lib/domain/context-profile';
 import { parseDemoPortfolio } from '../lib/domain/demo-portfolio-schema';
 import { isPeriod, periodsOfQuarter } from '../lib/domain/period';

@@ -29,6 +29,12 @@ export const EXCHANGE_COMMANDS: ReadonlySet<string> = new Set([
   'portfolio'
 ]);
 
+/**
+ * The commands whose first argument, when it is not an option, is the exchange file they read first: main.ts starts
+ * reading it while the command's modules load (shared-file-read.ts). A guess that names no file costs nothing.
+ */
+export const FILE_FIRST_COMMANDS: ReadonlySet<string> = new Set(['rank', 'check', 'merge']);
+
 export const USAGE = `Capstan command line — capability figures with their assumptions
 
   analyze FILE.csv --lsl L --usl U [--target T] [--subgroup-size K | --subgroup-column NAME]

@@ -5,9 +5,12 @@ import type { RecordMeta } from '../domain/record-meta';
 import { changeSetProblem, recordPlace, restoreUnknownFields } from './change-set-checks';
 import {
   duplicateKeyProblem,
+  MAX_EXCHANGE_BYTES,
   MAX_RECORDS_PER_KIND,
+  mb,
   pathText,
   printable,
+  sizeProblem,
   walkStructure
 } from './exchange-guards';
 import { EXCHANGE_FORMAT_VERSIONS_READ, RESTORE_FROM } from './exchange-format-versions';
@@ -47,25 +50,7 @@ export class ExchangeFileError extends Error {
   }
 }
 
-/**
- * Largest file (and, for a compressed file, largest unpacked text) Capstan reads: 512 MiB. A company of 20 000
- * characteristics × 36 months writes some 290 MB, and a shared folder's files each hold everything a device has
- * (folder-sync.ts): such a file was received, checked and merged in Chromium (`npm run bench`, the 20 000-process
- * browser rows). The bound keeps a compressed file from unpacking without end.
- */
-export const MAX_EXCHANGE_BYTES = 512 * 1024 * 1024;
-
 const GZIP_MAGIC = [0x1f, 0x8b];
-
-const mb = (bytes: number) => `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
-
-export function sizeProblem(bytes: number): string | undefined {
-  if (bytes === 0) return 'The file is empty (0 bytes): nothing to import';
-  if (bytes > MAX_EXCHANGE_BYTES) {
-    return `The file is ${mb(bytes)}; Capstan reads exchange files up to ${mb(MAX_EXCHANGE_BYTES)} — export per site or as changes since the last file instead`;
-  }
-  return undefined;
-}
 
 /** Header fields the exporter supplies; counts and latest clock are filled in from the records. */
 export type HeaderInput = Omit<ExchangeHeader, 'counts' | 'latestClock'>;

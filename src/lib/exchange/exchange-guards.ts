@@ -8,6 +8,26 @@
  * renders stored text as markup (pages interpolate it as text, charts draw it as text) and neutralises
  * formula-like cells in the CSV files it writes (exchange/spreadsheet-csv.ts).
  */
+/**
+ * Largest file (and, for a compressed file, largest unpacked text) Capstan reads: 512 MiB. A company of 20 000
+ * characteristics × 36 months writes some 290 MB, and a shared folder's files each hold everything a device has
+ * (folder-sync.ts): such a file was received, checked and merged in Chromium (`npm run bench`, the 20 000-process
+ * browser rows). The bound keeps a compressed file from unpacking without end.
+ */
+export const MAX_EXCHANGE_BYTES = 512 * 1024 * 1024;
+
+/** A size as the messages about sizes give it. */
+export const mb = (bytes: number) => `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
+
+/** Why a file of `bytes` bytes is refused before a byte of it is read, or undefined when its size is fine. */
+export function sizeProblem(bytes: number): string | undefined {
+  if (bytes === 0) return 'The file is empty (0 bytes): nothing to import';
+  if (bytes > MAX_EXCHANGE_BYTES) {
+    return `The file is ${mb(bytes)}; Capstan reads exchange files up to ${mb(MAX_EXCHANGE_BYTES)} — export per site or as changes since the last file instead`;
+  }
+  return undefined;
+}
+
 export const MAX_NESTING = 16;
 /** Records per kind; a file holding more is refused before validation so that it cannot exhaust memory. */
 export const MAX_RECORDS_PER_KIND = 1_000_000;

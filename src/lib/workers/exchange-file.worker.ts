@@ -12,12 +12,8 @@
  * transaction is aborted and nothing is written.
  */
 import type { MergeChoices } from '../domain/change-set-merge';
-import {
-  decodeExchangeFile,
-  ExchangeFileError,
-  sizeProblem,
-  type DecodeStage
-} from '../exchange/exchange-file';
+import { decodeExchangeFile, ExchangeFileError, type DecodeStage } from '../exchange/exchange-file';
+import { sizeProblem } from '../exchange/exchange-guards';
 import {
   exchangeMediaType,
   writeExport,
