@@ -329,6 +329,8 @@ export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): St
   for (const study of monthsToCheck) {
     if (pause()) yield;
     if (seenMonths.has(study)) continue;
+    // A month of one study cannot hold two: most of a file's months, answered without building their lists.
+    if (planned.studyCountOfMonth(study.characteristicId, study.period) < 2) continue;
     const peers = planned
       .studiesOfMonth(study.characteristicId, study.period)
       .filter((st) => isLive(st) || restorable.has(st.id) || mayRevive.has(st.id));
@@ -358,6 +360,17 @@ export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): St
     if (pause()) yield;
     if (!isLive(study)) continue;
     if (seenMonths.has(study)) continue;
+    // Answered without building the month's list where it is plain: no study of the month here, or this very
+    // study live here in the same month (a device's whole file received again, as folder sync does).
+    if (local.studyCountOfMonth(study.characteristicId, study.period) === 0) continue;
+    const same = local.record(study.id) as Study | undefined;
+    if (
+      same &&
+      isLive(same) &&
+      same.characteristicId === study.characteristicId &&
+      same.period === study.period
+    )
+      continue;
     const here = local.studiesOfMonth(study.characteristicId, study.period).filter(isLive);
     if (here.length === 0 || here.some((h) => h.id === study.id)) continue;
     const after = planned
@@ -382,10 +395,16 @@ export function* planMergeSteps(local: RecordIndex, incoming: RecordsByKind): St
   plan.counts.conflict = plan.conflicts.length;
 
   const missing = new Map<RecordKind, number>();
+  // Parents found, asked again from this small set: a characteristic is asked for by each of its studies.
+  const found = new Set<string>();
   for (const { kind, record } of plan.incoming.values()) {
     if (pause()) yield;
     const parent = parentIdOf(kind, record);
-    if (parent === undefined || !isLive(record) || planned.get(parent)) continue;
+    if (parent === undefined || !isLive(record) || found.has(parent)) continue;
+    if (planned.get(parent)) {
+      found.add(parent);
+      continue;
+    }
     missing.set(kind, (missing.get(kind) ?? 0) + 1);
   }
   for (const [kind, n] of missing) {

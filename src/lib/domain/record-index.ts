@@ -107,6 +107,11 @@ export class RecordIndex {
     return out;
   }
 
+  /** How many studies (live or not) one characteristic and month holds, without looking them up. */
+  studyCountOfMonth(characteristicId: string, period: string): number {
+    return this.monthIds({ characteristicId, period }, false)?.length ?? 0;
+  }
+
   /** Studies (live or not) of one characteristic and month. */
   studiesOfMonth(characteristicId: string, period: string): Study[] {
     const ids = this.monthIds({ characteristicId, period }, false);
