@@ -533,8 +533,16 @@ export function* settleMergeSteps(
       deleteUnder(child.kind, child.record.id, at);
     }
   };
+  // Grouped by kind once (a record's kind never changes): each kind's pass then meets only its own records, not
+  // every record the merge wrote (a company's file: 762 000, four times over).
+  const touchedOfKind = new Map<RecordKind, string[]>(PARENT_KINDS.map((k) => [k, []]));
+  for (const id of touched) {
+    if (pause()) yield;
+    const kind = work.get(id)?.kind;
+    if (kind !== undefined) touchedOfKind.get(kind)?.push(id);
+  }
   for (const parentKind of PARENT_KINDS) {
-    for (const id of touched) {
+    for (const id of touchedOfKind.get(parentKind)!) {
       if (pause()) yield;
       const p = work.get(id);
       if (!p || p.kind !== parentKind) continue;
@@ -647,11 +655,15 @@ function studiesToRestore(
  */
 function* assertConsistent(work: RecordIndex, writes: readonly IndexedRecord[]): Steps<void> {
   const pause = pauseEvery();
+  // Parents found live, asked again from this small set (a characteristic is the parent of each of its studies);
+  // `work` does not change here.
+  const liveParents = new Set<string>();
   for (const { kind, record } of writes) {
     if (pause()) yield;
     if (!isLive(record)) continue;
     const parentId = parentIdOf(kind, record);
-    const parent = parentId === undefined ? undefined : work.record(parentId);
+    const parent = parentId === undefined || liveParents.has(parentId) ? undefined : work.record(parentId);
+    if (parent && isLive(parent)) liveParents.add(parentId!);
     if (parent && !isLive(parent)) {
       throw new MergeRefused(
         `Merging would leave ${KIND_LABEL[kind]} ${record.id} under a deleted ${KIND_LABEL[PARENT_OF[kind]!.kind]}; nothing was written (please report this)`
@@ -659,6 +671,8 @@ function* assertConsistent(work: RecordIndex, writes: readonly IndexedRecord[]):
     }
     if (kind === 'studies') {
       const s = record as Study;
+      // A month of one study cannot hold two live ones: answered without building the month's list.
+      if (work.studyCountOfMonth(s.characteristicId, s.period) < 2) continue;
       const live = work.studiesOfMonth(s.characteristicId, s.period).filter(isLive);
       if (live.length > 1) {
         throw new MergeRefused(
