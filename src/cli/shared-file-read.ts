@@ -10,7 +10,8 @@ const readsAhead = new Map<string, Promise<Buffer | undefined>>();
  * (zod and the exchange schema, some 60 ms in which the main thread has no file to work on; reading a 30 MB file
  * takes some 20 ms on another thread). Nothing is decided here: a read that fails, or of a file the exchange
  * reader refuses by its size (looked at first, so that no oversized file is read), leaves nothing, and the command
- * reads the file itself and gives its own message. A path the command does not read is never asked for.
+ * reads the file itself and gives its own message. A read the command never asks for (the first argument was not
+ * its file) is left unused.
  */
 export function readAhead(path: string): void {
   readsAhead.set(
