@@ -21,7 +21,7 @@ import {
   exchangeFileSchema,
   type ExchangeHeader
 } from './exchange-schema';
-import { writtenFileFacts, type WrittenFileFacts, type WrittenHash } from './written-file-facts';
+import { TAIL_LENGTH, writtenFileFacts, type WrittenFileFacts, type WrittenHash } from './written-file-facts';
 
 /**
  * The exchange file, format version 1 (README, "Exchange file format"): one JSON object
@@ -82,7 +82,7 @@ async function exchangeBytes(changeSet: ChangeSet): Promise<Uint8Array> {
   // Text of ASCII characters alone (as a company's usually is) is written straight into the file's buffer, with
   // room for the hash's key: one 300 MB buffer instead of the encoded body and a copy of it with the key, and
   // `encodeInto` took half the time of `encode` (Chromium, 114 MB). Other text is encoded whole, then copied.
-  const room = new Uint8Array(text.length + HASH_KEY_BYTES - 1);
+  const room = new Uint8Array(text.length + TAIL_LENGTH - 1);
   const { read, written } = encoder.encodeInto(text, room);
   const ascii = read === text.length && written === text.length;
   const body = ascii ? room.subarray(0, text.length) : encoder.encode(text);
@@ -92,9 +92,6 @@ async function exchangeBytes(changeSet: ChangeSet): Promise<Uint8Array> {
   out.set(tail, body.byteLength - 1);
   return out;
 }
-
-/** The hash's key as written after the body: `,"sha256":"` and 64 hexadecimal digits, then `"}`. */
-const HASH_KEY_BYTES = ',"sha256":"'.length + 64 + '"}'.length;
 
 /** The canonical text (what `exchangeBytes` encodes), for tests and tools that compare files as text. */
 export async function exchangeText(changeSet: ChangeSet): Promise<string> {

@@ -23,8 +23,8 @@ export interface WrittenHash {
 const ASCII_SPACE = [0x20, 0x09, 0x0a, 0x0d];
 const TAIL_START = new TextEncoder().encode(',"sha256":"');
 const HEX_DIGITS = 64;
-/** `,"sha256":"` + the 64 hexadecimal digits of a hash + `"}`. */
-const TAIL_LENGTH = TAIL_START.length + HEX_DIGITS + 2;
+/** `,"sha256":"` + the 64 hexadecimal digits of a hash + `"}`: the hash's key as a file ends with it. */
+export const TAIL_LENGTH = TAIL_START.length + HEX_DIGITS + 2;
 
 /**
  * The hash a file written by Capstan ends with, and the SHA-256 of the bytes the writer hashed: everything
