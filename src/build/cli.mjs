@@ -40,6 +40,32 @@ const build = join(
   String(Math.round(Math.max(launcherMs, ...sources.map((s) => newestSource(join(root, s))))))
 );
 const entry = join(build, 'main.js');
+/**
+ * `zod` as the command line uses it: the namespace `z` of zod's classic schemas, checks, errors and parsing, without
+ * the 60-odd locales, JSON Schema conversion and the rest of what `zod`'s index gathers. Rollup shakes those out of
+ * the app (zod's index is written for it), but esbuild keeps every module a namespace object re-exports, so each
+ * `check` and `rank` loaded and compiled 665 KB of zod. Its English messages come with the schemas (the classic
+ * ZodType registers them when the first schema is built), so the messages are the same.
+ */
+const zodClassicOnly = {
+  name: 'zod-classic-only',
+  setup(build) {
+    const classic = join(root, 'node_modules/zod/v4/classic');
+    build.onResolve({ filter: /^zod$/ }, () => ({ path: 'zod', namespace: 'capstan-zod' }));
+    build.onResolve({ filter: /^capstan-zod-members$/ }, () => ({ path: 'members', namespace: 'capstan-zod' }));
+    build.onLoad({ filter: /^zod$/, namespace: 'capstan-zod' }, () => ({
+      contents: "import * as z from 'capstan-zod-members';\nexport { z };\nexport * from 'capstan-zod-members';\n",
+      resolveDir: classic
+    }));
+    build.onLoad({ filter: /^members$/, namespace: 'capstan-zod' }, () => ({
+      contents: ['schemas', 'checks', 'errors', 'parse', 'compat']
+        .map((m) => `export * from './${m}.js';\n`)
+        .join(''),
+      resolveDir: classic
+    }));
+  }
+};
+
 if (!existsSync(entry)) {
   const esbuild = await import('esbuild');
   const partial = `${build}.${process.pid}.tmp`;
@@ -54,6 +80,7 @@ if (!existsSync(entry)) {
     target: 'node20',
     // jStat and Papa Parse are CommonJS: give each file a `require` of its own.
     banner: { js: "import { createRequire as __capstanRequire } from 'node:module'; const require = __capstanRequire(import.meta.url);" },
+    plugins: [zodClassicOnly],
     logLevel: 'error'
   });
   // Node looks for the package.json that says how to read a .js file no higher than node_modules, so it found none
