@@ -36,8 +36,9 @@ export async function rankCommand(argv: readonly string[], io: CliIo): Promise<n
   const window = integerFlag(args, 'window') ?? (quarterMonths ? 3 : 1);
   if (window < 1 || window > 120)
     throw new UsageError(`--window must be between 1 and 120 months, got ${window}`);
+  const endPeriod = period ?? quarterMonths?.[2];
   const report = await reportOfFile(file, {
-    ...(period !== undefined || quarterMonths ? { endPeriod: period ?? quarterMonths![2] } : {}),
+    ...(endPeriod !== undefined ? { endPeriod } : {}),
     windowMonths: window,
     json: args.flags.has('json')
   });

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
+import type { Characteristic } from './characteristic';
 import { RecordIndex } from './record-index';
 import type { Study } from './study';
 
@@ -45,6 +46,15 @@ describe('the record index', () => {
   });
 });
 
+const characteristic = (id: string, processId: string): Characteristic => ({
+  ...meta(id),
+  processId,
+  name: id,
+  unit: '',
+  dataKind: 'measured',
+  riskClass: 'standard'
+});
+
 describe('a copy of the record index', () => {
   // A write: a study (of one of three characteristics and months, so that months fill, empty and hold two) or a
   // characteristic (of one of two processes), by one of a few ids so that writes replace one another.
@@ -65,14 +75,7 @@ describe('a copy of the record index', () => {
   const apply = (index: RecordIndex, w: Write) =>
     w.kind === 'studies'
       ? index.set('studies', study(w.id, w.characteristicId, w.period))
-      : index.set('characteristics', {
-          ...meta(w.id),
-          processId: w.processId,
-          name: w.id,
-          unit: '',
-          dataKind: 'measured',
-          riskClass: 'standard'
-        });
+      : index.set('characteristics', characteristic(w.id, w.processId));
   /** Everything the index answers, for the ids and months the writes use. */
   const seen = (index: RecordIndex) => ({
     records: ['s1', 's2', 's3', 's4', 's5', 'c1', 'c2', 'c3'].map((id) => index.get(id) ?? null),
