@@ -85,17 +85,20 @@ export function rankReport(
     'site',
     'weakest'
   ];
-  lines.push(printed.map((k) => (k === 'zLevel' ? 'z-level (LT/ST)' : portfolioColumn(k).label)).join('\t'));
+  // The printed columns, looked up once for every row.
+  const columns = printed.map(portfolioColumn);
+  const zText = (z: number) => formatIndex(z, PRINTED);
+  lines.push(columns.map((c) => (c.key === 'zLevel' ? 'z-level (LT/ST)' : c.label)).join('\t'));
   rows.forEach((row, i) => {
     lines.push(
-      printed
-        .map((k) => {
-          if (k === 'zLevel') return zWithBasis(row, (z) => formatIndex(z, PRINTED));
-          if (k === 'costPerYear')
+      columns
+        .map((c) => {
+          if (c.key === 'zLevel') return zWithBasis(row, zText);
+          if (c.key === 'costPerYear')
             return row.costPerYear === undefined
               ? '–'
               : `${formatCount(row.costPerYear, PRINTED)} ${row.process.currency}`;
-          return writtenCell(portfolioColumn(k), row, i + 1, PRINTED) || '–';
+          return writtenCell(c, row, i + 1, PRINTED) || '–';
         })
         .join('\t')
     );
