@@ -5,10 +5,12 @@ import { countOf, PRINTED } from '../lib/domain/figure-format';
 import { KIND_LABEL, type RecordsByKind } from '../lib/domain/record-kinds';
 import { RecordIndex } from '../lib/domain/record-index';
 import { gatherRecordSets, type GatherSource } from '../lib/domain/record-set-gather';
+import { sizeProblem } from '../lib/exchange/exchange-guards';
 import { exchangeNamesIn } from '../lib/exchange/folder-names';
 import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
 import { readExchangeFile } from './exchange-file-input';
+import { readFileShared } from './shared-file-read';
 import { CONFLICT_EXIT, PREFER } from './merge-command';
 import { mergedChangeSet, writeExchangeOutput } from './merged-output';
 
@@ -53,9 +55,20 @@ export async function gatherCommand(argv: readonly string[], io: CliIo): Promise
 
   const sources: GatherSource[] = [];
   const skipped: { name: string; problem: string }[] = [];
-  for (const name of names) {
+  // Each file is read while the one before it is checked: read one after the other, the main thread waited for
+  // every file's bytes. The read's outcome is kept, so that a failed read is reported in its file's turn.
+  const readOf = (name: string) =>
+    readFileShared(join(folder, name), sizeProblem).then(
+      (bytes) => ({ bytes }),
+      (error: unknown) => ({ error })
+    );
+  let reading = names.length > 0 ? readOf(names[0]!) : undefined;
+  for (const [i, name] of names.entries()) {
+    const read = await reading!;
+    reading = i + 1 < names.length ? readOf(names[i + 1]!) : undefined;
     try {
-      const changeSet = await readExchangeFile(join(folder, name));
+      if ('error' in read) throw read.error;
+      const changeSet = await readExchangeFile(join(folder, name), read.bytes);
       sources.push({ name, records: changeSet.records });
     } catch (error) {
       if (!(error instanceof UsageError)) throw error;

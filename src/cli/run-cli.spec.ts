@@ -440,15 +440,18 @@ describe('capstan check and merge', async () => {
         '~syncthing~site.capstan.json.tmp': whole.subarray(0, 50),
         'site.capstan.json.part': whole.subarray(0, 50),
         'notes.txt': new TextEncoder().encode('not an exchange file'),
-        'cut-off.capstan.json.gz': whole.subarray(0, whole.length - 30)
+        'cut-off.capstan.json.gz': whole.subarray(0, whole.length - 30),
+        // Refused before it is read, while the file before it is checked: named in its turn all the same.
+        'empty.capstan.json': new Uint8Array(0)
       });
       const out = join(folder, 'office.capstan.json');
       const r = await run('gather', folder, '-o', out);
       expect(r.code).toBe(0);
       expect(r.err.trim().split('\n')).toEqual([
-        expect.stringMatching(/^capstan gather: skipped 'cut-off\.capstan\.json\.gz': /)
+        expect.stringMatching(/^capstan gather: skipped 'cut-off\.capstan\.json\.gz': /),
+        "capstan gather: skipped 'empty.capstan.json': The file is empty (0 bytes): nothing to import"
       ]);
-      expect(r.out).toMatch(/from 2 files, 1 damaged file skipped/);
+      expect(r.out).toMatch(/from 2 files, 2 damaged files skipped/);
       const merged = await recordsIn(out);
       expect(merged.sites.find((x) => x.id === base.sites[0]!.id)?.name).toBe('Renamed at HQ');
       expect(merged.studies).toHaveLength(base.studies.length);
