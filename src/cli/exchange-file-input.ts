@@ -11,11 +11,16 @@ import { readFileShared } from './shared-file-read';
  */
 export async function readExchangeFile(path: string, bytes?: Uint8Array): Promise<ChangeSet> {
   // A view of the Buffer read, not a copy of it (30 MB for a company's file).
-  const buffer = bytes ?? (await readFileShared(path, sizeProblem));
+  const buffer = bytes ?? (await readExchangeBytes(path));
   try {
     return await decodeExchangeFile(new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength));
   } catch (error) {
     if (error instanceof ExchangeFileError) throw new UsageError(`'${path}': ${error.message}`);
     throw error;
   }
+}
+
+/** An exchange file's bytes, its size looked at before a byte is read; refusals as UsageErrors naming the file. */
+export function readExchangeBytes(path: string): Promise<Buffer> {
+  return readFileShared(path, sizeProblem);
 }

@@ -5,12 +5,10 @@ import { countOf, PRINTED } from '../lib/domain/figure-format';
 import { KIND_LABEL, type RecordsByKind } from '../lib/domain/record-kinds';
 import { RecordIndex } from '../lib/domain/record-index';
 import { gatherRecordSets, type GatherSource } from '../lib/domain/record-set-gather';
-import { sizeProblem } from '../lib/exchange/exchange-guards';
 import { exchangeNamesIn } from '../lib/exchange/folder-names';
 import { parseArguments, rejectUnknown, stringFlag, UsageError } from './cli-arguments';
 import type { CliIo } from './cli-io';
-import { readExchangeFile } from './exchange-file-input';
-import { readFileShared } from './shared-file-read';
+import { readExchangeBytes, readExchangeFile } from './exchange-file-input';
 import { CONFLICT_EXIT, PREFER } from './merge-command';
 import { mergedChangeSet, writeExchangeOutput } from './merged-output';
 
@@ -58,7 +56,7 @@ export async function gatherCommand(argv: readonly string[], io: CliIo): Promise
   // Each file is read while the one before it is checked: read one after the other, the main thread waited for
   // every file's bytes. The read's outcome is kept, so that a failed read is reported in its file's turn.
   const readOf = (name: string) =>
-    readFileShared(join(folder, name), sizeProblem).then(
+    readExchangeBytes(join(folder, name)).then(
       (bytes) => ({ bytes }),
       (error: unknown) => ({ error })
     );
