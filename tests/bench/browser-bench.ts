@@ -14,6 +14,7 @@ import { startStaticServer, waitForServiceWorker } from '../e2e/static-server';
 import type { BenchRow } from './engine-bench';
 import { masterListText } from './master-list-rows';
 import { companyPortfolioFile } from './company-portfolio-file';
+import type { FirstRanking } from './ranking-scale';
 import { installPageClock, pageClockMs, restartPageClock, SIGHTS, type Sight } from './page-clock';
 import { createServer } from 'node:net';
 
@@ -113,6 +114,92 @@ async function masterListRows(browser: Browser): Promise<BenchRow[]> {
     await context.close();
     await app.stop();
   }
+}
+
+/** The size and number of fresh browsers of firstRankingInWorkerRows. */
+const WORKER_RANKING_SIZE = 20_000;
+const WORKER_RANKING_BROWSERS = 5;
+
+/**
+ * The first ranking at 20 000 processes in a dedicated worker of Chromium, where the app ranks (the Node rows of
+ * ranking-bench.ts stand in for it, on Node's older V8): one worker in each of five freshly launched browsers
+ * (so no compiled code is kept from one to the next), each timing the ranking against the typed-array baseline
+ * in the same worker (browser/first-ranking-entry.ts). Rows: the median first ranking against the median of the
+ * workers' baseline medians (the target's row), and against the baseline's own first, cold, runs.
+ */
+async function firstRankingInWorkerRows(work: string): Promise<BenchRow[]> {
+  const dir = join(work, 'first-ranking');
+  await build({
+    entryPoints: [join(ROOT, 'tests/bench/browser/first-ranking-entry.ts')],
+    bundle: true,
+    format: 'iife',
+    outfile: join(dir, 'first-ranking.js'),
+    logLevel: 'error'
+  });
+  writeFileSync(join(dir, 'index.html'), '<!doctype html><title>first ranking</title>');
+  const server = await startStaticServer(dir);
+  const runs: FirstRanking[] = [];
+  try {
+    for (let i = 0; i < WORKER_RANKING_BROWSERS; i += 1) {
+      // The generator lets go of its garbage as it goes where it can (gc), as in the Node rows.
+      const browser = await chromium.launch({
+        executablePath: CHROMIUM_PATH,
+        args: [...CHROMIUM_ARGS, '--js-flags=--expose-gc']
+      });
+      try {
+        const page = await browser.newPage();
+        await page.goto(server.url);
+        runs.push(
+          await page.evaluate(
+            (size) =>
+              new Promise<FirstRanking>((resolve, reject) => {
+                const worker = new Worker('first-ranking.js');
+                worker.onmessage = (e: MessageEvent<FirstRanking>) => resolve(e.data);
+                worker.onerror = (e) => reject(new Error(e.message));
+                worker.postMessage(size);
+              }),
+            WORKER_RANKING_SIZE
+          )
+        );
+      } finally {
+        await browser.close();
+      }
+    }
+  } finally {
+    await server.stop();
+  }
+  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
+  const range = (xs: number[], digits: number, unit: string) =>
+    `${Math.min(...xs).toFixed(digits)}–${Math.max(...xs).toFixed(digits)}${unit}`;
+  const first = runs.map((r) => r.first);
+  const ratios = (of: (r: FirstRanking) => number) =>
+    range(
+      runs.map((r) => of(r) / r.baseline),
+      1,
+      '×'
+    );
+  const label = `${WORKER_RANKING_SIZE.toLocaleString('en')} processes × 36 months`;
+  return [
+    {
+      name: `ranking ${label} in a Chromium worker (where the app ranks), first computation as in the Node rows, median of ${runs.length} fresh browsers (runs ${range(first, 0, ' ms')}; each against its own worker's baseline median: ${ratios((r) => r.first)}; the same computation again with the code warm: ${ratios((r) => r.again)})`,
+      size: WORKER_RANKING_SIZE,
+      ms: median(first),
+      baselineName: 'typed-array loop in the same worker, one ranking (median of the workers’ medians)',
+      baselineMs: median(runs.map((r) => r.baseline)),
+      target: '≤ 10×'
+    },
+    {
+      name: `  … the same first computations against the baseline's own first (cold) run in each worker (${range(
+        runs.map((r) => r.first / r.baselineFirst),
+        1,
+        '×'
+      )})`,
+      size: WORKER_RANKING_SIZE,
+      ms: median(first),
+      baselineName: 'typed-array loop, its first run (median of the workers’)',
+      baselineMs: median(runs.map((r) => r.baselineFirst))
+    }
+  ];
 }
 
 /** Installs a long-task observer and a heap sampler in a page; `read` returns and resets them. */
@@ -615,6 +702,7 @@ export async function runBrowserBench(): Promise<BenchRow[]> {
       ms: r.exchange.importMs
     });
 
+    rows.push(...(await firstRankingInWorkerRows(work)));
     rows.push(...(await firstLoadRows(browser)));
     rows.push(...(await masterListRows(browser)));
     rows.push(...(await companyScaleRows(browser, work)));

@@ -7,206 +7,37 @@
  * a file), and strings built by template literals are slower to compare than parsed ones, which would flatter
  * or blame the code for the generator's doing.
  */
-import { WindowFiguresCache } from '../../src/lib/domain/window-figures-cache';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import type { Characteristic } from '../../src/lib/domain/characteristic';
+import { WindowFiguresCache } from '../../src/lib/domain/window-figures-cache';
 import { BUILT_IN_PROFILES } from '../../src/lib/domain/context-profile';
-import { PROJECT_PHASES, type ImprovementProject } from '../../src/lib/domain/improvement-project';
 import { addMonths } from '../../src/lib/domain/period';
 import {
   DEFAULT_WEIGHTS,
-  processTrends,
-  rankedPortfolio,
   rankPortfolio,
-  type FiguresCache,
-  type PortfolioRecords,
-  type RankingOptions
+  rankedPortfolio,
+  type FiguresCache
 } from '../../src/lib/domain/portfolio-ranking';
 import { MonthlyStatistics } from '../../src/lib/domain/monthly-statistics';
 import { listColumnsOf } from '../../src/lib/domain/portfolio-list-of-ranking';
 import { listRowAt } from '../../src/lib/domain/portfolio-list-columns';
-import type { Process } from '../../src/lib/domain/process';
 import { buildQuarterReview } from '../../src/lib/domain/quarter-review';
-import type { Study } from '../../src/lib/domain/study';
 import type { BenchRow } from './engine-bench';
 import { snapshotOf, storedForm } from '../../src/lib/storage/portfolio-reader';
-import { inIdOrder, seededIds } from './seeded-ids';
 import {
-  describeCharacteristics,
-  fillTypedPortfolio,
-  typedPortfolioOf,
-  typedRanking
-} from './typed-array-baseline';
-
-export const BENCH_FIRST_PERIOD = '2024-01';
-
-/**
- * A generated portfolio, shaped as the app holds it: record ids are random UUIDs (seeded), each record list is in
- * id order (as IndexedDB returns a table), and the studies arrive by characteristic id (as the study shelves are
- * read, storage/study-shelves.ts) — so the read model's rows follow the characteristics' ids, and the processes
- * come in an order of their own. With `sink`, each characteristic's studies go to it (a page at a time) and are
- * not kept: the records then hold no study, as in the app's workers.
- */
-export function generatePortfolio(
-  processCount: number,
-  months: number,
-  sink?: (studies: Study[]) => void
-): PortfolioRecords {
-  let s = 12345;
-  const u = () => (s = (s * 48271) % 2147483647) / 2147483647;
-  const newId = seededIds(20261205);
-  const meta = (id: string) => ({ id, createdAt: '', updatedAt: '', rev: 1, deviceId: 'bench' });
-  const contexts = BUILT_IN_PROFILES.map((p) => p.id);
-  const siteIds = Array.from({ length: Math.min(50, processCount) }, newId);
-  const processes: Process[] = [];
-  const characteristics: Characteristic[] = [];
-  const studies: Study[] = [];
-  const projects: ImprovementProject[] = [];
-  for (let p = 0; p < processCount; p += 1) {
-    const pid = newId();
-    processes.push({
-      ...meta(pid),
-      siteId: siteIds[p % 50]!,
-      name: `Process ${p}`,
-      owner: '',
-      contextId: contexts[p % contexts.length] as string,
-      monthlyVolume: 1000 + p,
-      costPerDefective: 5,
-      currency: 'EUR'
-    });
-    // A project on every tenth process, a fifth of them in Control.
-    if (p % 10 === 0)
-      projects.push({
-        ...meta(newId()),
-        processId: pid,
-        title: `Project ${p}`,
-        phase: PROJECT_PHASES[(p / 10) % PROJECT_PHASES.length]!,
-        owner: '',
-        startDate: '2025-04-01',
-        expectedAnnualSaving: 10_000
-      });
-    const counted = p % 3 === 0;
-    characteristics.push({
-      ...meta(newId()),
-      processId: pid,
-      name: 'c',
-      unit: '',
-      dataKind: counted ? 'counted' : 'measured',
-      riskClass: p % 7 === 0 ? 'safety' : 'standard',
-      ...(counted ? {} : { lsl: 7, usl: 13 })
-    });
-  }
-  inIdOrder(characteristics).forEach((c, i) => {
-    const counted = c.dataKind === 'counted';
-    const own: Study[] = [];
-    for (let m = 0; m < months; m += 1) {
-      own.push({
-        ...meta(newId()),
-        characteristicId: c.id,
-        period: addMonths(BENCH_FIRST_PERIOD, m),
-        enteredBy: '',
-        data: counted
-          ? { kind: 'defectives', units: 2000, defectives: Math.floor(u() * 20) }
-          : { kind: 'summary', n: 50, mean: 10 + (u() - 0.5), sd: 0.4 + u() * 0.4 }
-      });
-    }
-    // Through JSON one characteristic at a time: shaped as received, without one giant string at the peak.
-    const received = JSON.parse(JSON.stringify(own)) as Study[];
-    if (sink) sink(received);
-    else for (const study of received) studies.push(study);
-    // The generator's garbage is not the app's: collect it as it goes (when the process allows), so that the
-    // peak memory printed is that of the records and the ranking, not of how the bench made them.
-    if (i % 500 === 499) (globalThis as { gc?: () => void }).gc?.();
-  });
-  const sites = siteIds.map((id, i) => ({ ...meta(id), name: `Site ${i}`, region: '', timeZone: 'UTC' }));
-  return {
-    ...(JSON.parse(
-      JSON.stringify({
-        sites: inIdOrder(sites),
-        processes: inIdOrder(processes),
-        characteristics,
-        projects: inIdOrder(projects)
-      })
-    ) as Omit<PortfolioRecords, 'studies'>),
-    studies
-  };
-}
-
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  return s[Math.floor(s.length / 2)] as number;
-}
+  BENCH_FIRST_PERIOD,
+  firstRankingAgain,
+  firstRankingInThisProcess,
+  median,
+  MONTHS,
+  ON_SCREEN,
+  preparedScale,
+  timed,
+  type FirstRanking
+} from './ranking-scale';
+import { typedRanking } from './typed-array-baseline';
 
 const fmt = (n: number) => n.toLocaleString('en-GB').replace(/,/g, ' ');
-
-const MONTHS = 36;
-/** A tall window shows some 30 rows of the list; their trend lines are drawn as they come into view. */
-const ON_SCREEN = 40;
-
-/**
- * A portfolio of `size` processes generated into the read model and the baseline's arrays, the baseline timed
- * five times (its median is what every ranking row is measured against; its first run, cold as the ranking's
- * first computation is, is kept beside it), and the ranking as the app's worker does it.
- */
-function preparedScale(size: number) {
-  // The studies arrive a process at a time and go into the read model and the baseline's arrays; no study
-  // object outlives its page, as in the app's workers (storage/portfolio-reader.ts).
-  const statistics = new MonthlyStatistics();
-  const typed = typedPortfolioOf(size, MONTHS, BENCH_FIRST_PERIOD);
-  let buildMs = 0;
-  const bare = generatePortfolio(size, MONTHS, (page) => {
-    fillTypedPortfolio(typed, page);
-    buildMs += timed(() => statistics.appendNew(page));
-  });
-  describeCharacteristics(typed, bare.characteristics);
-  (globalThis as { gc?: () => void }).gc?.();
-  const records: PortfolioRecords = { ...bare, studies: [], statistics };
-  const end = MONTHS - 1;
-  const baselineRuns = [0, 1, 2, 3, 4].map(() => timed(() => typedRanking(typed, end, 3)));
-  // As the portfolio's worker ranks (workers/portfolio-ranking.worker.ts): without trend lines, into the list's
-  // columns it sends the page, then the lines of the rows on screen.
-  const asTheAppRanks = (profiles: typeof BUILT_IN_PROFILES, options: RankingOptions, of = records) => {
-    const list = listColumnsOf(rankedPortfolio(of, profiles, { ...options, trendMonths: 0 }));
-    return processTrends(of, profiles, list.processIds.slice(0, ON_SCREEN), options);
-  };
-  return {
-    records,
-    statistics,
-    typed,
-    end,
-    buildMs,
-    baselineRuns,
-    baseline: median(baselineRuns),
-    asTheAppRanks
-  };
-}
-
-/** The record arrays of a portfolio copied (the records themselves shared): to the ranking, a new record set. */
-function newRecordArrays(records: PortfolioRecords): Omit<PortfolioRecords, 'studies' | 'statistics'> {
-  return {
-    sites: [...records.sites],
-    processes: [...records.processes],
-    characteristics: [...records.characteristics],
-    projects: [...records.projects]
-  };
-}
-
-/** What one fresh process measures of a first ranking (firstRankingInFreshProcess). */
-interface FirstRanking {
-  first: number;
-  baseline: number;
-  baselineFirst: number;
-}
-
-/** The first ranking alone, in this process: what the fresh processes of runRankingBench each measure. */
-function firstRankingInThisProcess(size: number): FirstRanking {
-  const { asTheAppRanks, end, baseline, baselineRuns } = preparedScale(size);
-  const cache: FiguresCache = new WindowFiguresCache();
-  const options = { endPeriod: addMonths(BENCH_FIRST_PERIOD, end), windowMonths: 3, cache };
-  const first = timed(() => asTheAppRanks(BUILT_IN_PROFILES, options));
-  return { first, baseline, baselineFirst: baselineRuns[0]! };
-}
 
 /** Every row of one size, measured in this process. */
 export function measureScale(size: number): BenchRow[] {
@@ -284,19 +115,9 @@ export function measureScale(size: number): BenchRow[] {
   const listCopy = median([0, 1, 2].map(() => timed(() => structuredClone(list))));
   const rowsCopy = median([0, 1, 2].map(() => timed(() => structuredClone(listAsRows))));
   const listPeakMB = process.resourceUsage().maxRSS / 1024;
-  // The same first computation again, in this process, on new record arrays and an empty figures cache: nothing
-  // of the first is kept (plan, prepared windows, window figures), but the code has run — as it has for the
-  // baseline's median, which the first computation is measured against. Last, so that the peak memory of the
-  // rows above is not raised by what these three leave for the collector.
-  (globalThis as { gc?: () => void }).gc?.();
-  const firstWarm = median(
-    [0, 1, 2].map(() => {
-      const copy = { ...records, ...newRecordArrays(records) };
-      return timed(() =>
-        asTheAppRanks(BUILT_IN_PROFILES, { ...options, cache: new WindowFiguresCache() }, copy)
-      );
-    })
-  );
+  // The same first computation again with the code warm (firstRankingAgain). Last, so that the peak memory of
+  // the rows above is not raised by what its three runs leave for the collector.
+  const firstWarm = firstRankingAgain(records, asTheAppRanks, options);
   const label = `${fmt(size)} processes × ${months} months`;
   const base = { size, baselineName: 'typed-array loop, one ranking', baselineMs: baseline };
   const reviewBase = { size, baselineName: 'typed-array loop, ten rankings', baselineMs: reviewBaseline };
@@ -374,12 +195,6 @@ export function measureScale(size: number): BenchRow[] {
       peakMB: process.resourceUsage().maxRSS / 1024
     }
   ];
-}
-
-function timed(fn: () => unknown): number {
-  const t = performance.now();
-  fn();
-  return performance.now() - t;
 }
 
 /**
