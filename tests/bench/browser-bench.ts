@@ -256,12 +256,15 @@ function storedReadModelExists(): Promise<boolean> {
 }
 
 /**
- * In the page: whether everything is drawn — no review section still waiting for its turn, no month's figures
+ * In the page: whether everything is drawn — no review section still waiting for its turn (to be drawn, or to
+ * take new figures), no month's figures
  * still computing (the process page), and every chart on the page with its drawing.
  */
 function everythingDrawn(): boolean {
   const pending =
     document.querySelector('[data-testid="figures-pending"]') !== null ||
+    // A review section still showing figures before the latest (it takes them in its turn).
+    document.querySelector('section[aria-busy="true"]') !== null ||
     [...document.querySelectorAll('[role=status]')].some((e) =>
       e.textContent?.includes('Drawing this section')
     );

@@ -239,11 +239,12 @@ test('another quarter chosen: every chart is drawn again, for that quarter', asy
   const axisQuarters = async () =>
     (await trend.locator('svg text').allTextContents()).filter((t) => /^\d{4}-Q[1-4]$/.test(t));
   await expect.poll(async () => (await axisQuarters()).at(-1)).toBe(QUARTER);
-  // A year back. Each chart draws its new figures in a task of its own (ChartPanel), busy until then: none may
-  // be left showing the quarter before.
+  // A year back. Each section after the headline takes the new figures in a task of its own, and each chart draws
+  // them in a task of its own (ChartPanel), each busy until then: none may be left showing the quarter before.
   const earlier = `${Number(QUARTER.slice(0, 4)) - 1}${QUARTER.slice(4)}`;
   await page.getByTestId('quarter').selectOption(earlier);
   await expect(page.getByTestId('headline-table')).toContainText(`${earlier} (this quarter)`);
+  await expect(page.locator('section[aria-busy="true"]')).toHaveCount(0);
   await expect(page.locator('[data-testid="chart"][aria-busy="true"]')).toHaveCount(0);
   await expect(page.locator('[data-testid="chart"] svg')).toHaveCount(await charts.count());
   expect((await axisQuarters()).at(-1)).toBe(earlier);
