@@ -10,7 +10,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { build } from 'esbuild';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../support/chromium.mjs';
-import { startStaticServer, waitForServiceWorker } from '../e2e/static-server';
+import { startStaticServer, waitForServiceWorker, type RunningServer } from '../e2e/static-server';
 import type { BenchRow } from './engine-bench';
 import { masterListText } from './master-list-rows';
 import { companyPortfolioFile } from './company-portfolio-file';
@@ -116,6 +116,27 @@ async function masterListRows(browser: Browser): Promise<BenchRow[]> {
   }
 }
 
+/**
+ * A bench entry of `tests/bench/browser/` bundled into `dir` as `bench.js`, beside a blank page of that origin that
+ * loads it (`page`) or leaves it for a worker to load (`worker`), served from `dir`.
+ */
+async function servedBenchEntry(
+  entry: string,
+  dir: string,
+  loaded: 'page' | 'worker'
+): Promise<RunningServer> {
+  await build({
+    entryPoints: [join(ROOT, 'tests/bench/browser', entry)],
+    bundle: true,
+    format: 'iife',
+    outfile: join(dir, 'bench.js'),
+    logLevel: 'error'
+  });
+  const script = loaded === 'page' ? '<script src="bench.js"></script>' : '';
+  writeFileSync(join(dir, 'index.html'), `<!doctype html><title>bench</title>${script}`);
+  return startStaticServer(dir);
+}
+
 /** The size and number of fresh browsers of firstRankingInWorkerRows. */
 const WORKER_RANKING_SIZE = 20_000;
 const WORKER_RANKING_BROWSERS = 5;
@@ -128,16 +149,7 @@ const WORKER_RANKING_BROWSERS = 5;
  * workers' baseline medians (the target's row), and against the baseline's own first, cold, runs.
  */
 async function firstRankingInWorkerRows(work: string): Promise<BenchRow[]> {
-  const dir = join(work, 'first-ranking');
-  await build({
-    entryPoints: [join(ROOT, 'tests/bench/browser/first-ranking-entry.ts')],
-    bundle: true,
-    format: 'iife',
-    outfile: join(dir, 'first-ranking.js'),
-    logLevel: 'error'
-  });
-  writeFileSync(join(dir, 'index.html'), '<!doctype html><title>first ranking</title>');
-  const server = await startStaticServer(dir);
+  const server = await servedBenchEntry('first-ranking-entry.ts', join(work, 'first-ranking'), 'worker');
   const runs: FirstRanking[] = [];
   try {
     for (let i = 0; i < WORKER_RANKING_BROWSERS; i += 1) {
@@ -153,7 +165,7 @@ async function firstRankingInWorkerRows(work: string): Promise<BenchRow[]> {
           await page.evaluate(
             (size) =>
               new Promise<FirstRanking>((resolve, reject) => {
-                const worker = new Worker('first-ranking.js');
+                const worker = new Worker('bench.js');
                 worker.onmessage = (e: MessageEvent<FirstRanking>) => resolve(e.data);
                 worker.onerror = (e) => reject(new Error(e.message));
                 worker.postMessage(size);
@@ -637,18 +649,7 @@ export async function runBrowserBench(): Promise<BenchRow[]> {
   const work = mkdtempSync(join(tmpdir(), 'capstan-browser-bench-'));
   try {
     // IndexedDB: a blank page of our own origin with the bench bundle.
-    await build({
-      entryPoints: [join(ROOT, 'tests/bench/browser/indexeddb-bench-entry.ts')],
-      bundle: true,
-      format: 'iife',
-      outfile: join(work, 'bench.js'),
-      logLevel: 'error'
-    });
-    writeFileSync(
-      join(work, 'index.html'),
-      '<!doctype html><title>bench</title><script src="bench.js"></script>'
-    );
-    const benchServer = await startStaticServer(work);
+    const benchServer = await servedBenchEntry('indexeddb-bench-entry.ts', work, 'page');
     const page = await browser.newPage();
     await page.goto(benchServer.url);
     const r = await page.evaluate(() =>
