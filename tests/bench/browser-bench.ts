@@ -14,7 +14,7 @@ import { startStaticServer, waitForServiceWorker, type RunningServer } from '../
 import type { BenchRow } from './engine-bench';
 import { masterListText } from './master-list-rows';
 import { companyPortfolioFile } from './company-portfolio-file';
-import type { FirstRanking } from './ranking-scale';
+import { median, MONTHS, spanOf, type FirstRanking } from './ranking-scale';
 import { installPageClock, pageClockMs, restartPageClock, SIGHTS, type Sight } from './page-clock';
 import { createServer } from 'node:net';
 
@@ -180,20 +180,23 @@ async function firstRankingInWorkerRows(work: string): Promise<BenchRow[]> {
   } finally {
     await server.stop();
   }
-  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
-  const range = (xs: number[], digits: number, unit: string) =>
-    `${Math.min(...xs).toFixed(digits)}–${Math.max(...xs).toFixed(digits)}${unit}`;
   const first = runs.map((r) => r.first);
-  const ratios = (of: (r: FirstRanking) => number) =>
-    range(
-      runs.map((r) => of(r) / r.baseline),
+  const ratios = (of: (r: FirstRanking) => number, by: (r: FirstRanking) => number) =>
+    spanOf(
+      runs.map((r) => of(r) / by(r)),
       1,
       '×'
     );
-  const label = `${WORKER_RANKING_SIZE.toLocaleString('en')} processes × 36 months`;
+  const label = `${WORKER_RANKING_SIZE.toLocaleString('en')} processes × ${MONTHS} months`;
   return [
     {
-      name: `ranking ${label} in a Chromium worker (where the app ranks), first computation as in the Node rows, median of ${runs.length} fresh browsers (runs ${range(first, 0, ' ms')}; each against its own worker's baseline median: ${ratios((r) => r.first)}; the same computation again with the code warm: ${ratios((r) => r.again)})`,
+      name: `ranking ${label} in a Chromium worker (where the app ranks), first computation as in the Node rows, median of ${runs.length} fresh browsers (runs ${spanOf(first, 0, ' ms')}; each against its own worker's baseline median: ${ratios(
+        (r) => r.first,
+        (r) => r.baseline
+      )}; the same computation again with the code warm: ${ratios(
+        (r) => r.again,
+        (r) => r.baseline
+      )})`,
       size: WORKER_RANKING_SIZE,
       ms: median(first),
       baselineName: 'typed-array loop in the same worker, one ranking (median of the workers’ medians)',
@@ -201,10 +204,9 @@ async function firstRankingInWorkerRows(work: string): Promise<BenchRow[]> {
       target: '≤ 10×'
     },
     {
-      name: `  … the same first computations against the baseline's own first (cold) run in each worker (${range(
-        runs.map((r) => r.first / r.baselineFirst),
-        1,
-        '×'
+      name: `  … the same first computations against the baseline's own first (cold) run in each worker (${ratios(
+        (r) => r.first,
+        (r) => r.baselineFirst
       )})`,
       size: WORKER_RANKING_SIZE,
       ms: median(first),
@@ -269,8 +271,8 @@ function storedReadModelExists(): Promise<boolean> {
 
 /**
  * In the page: whether everything is drawn — no review section still waiting for its turn (to be drawn, or to
- * take new figures), no month's figures
- * still computing (the process page), and every chart on the page with its drawing.
+ * take new figures), no month's figures still computing (the process page), and every chart on the page with its
+ * drawing.
  */
 function everythingDrawn(): boolean {
   const pending =

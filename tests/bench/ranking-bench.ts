@@ -32,6 +32,7 @@ import {
   MONTHS,
   ON_SCREEN,
   preparedScale,
+  spanOf,
   timed,
   type FirstRanking
 } from './ranking-scale';
@@ -249,14 +250,12 @@ export async function runRankingBench(sizes: readonly number[] = [2000, 5000, 20
   }
   const ratios = firsts.map((f) => f.first / f.baseline).sort((a, b) => a - b);
   const coldRatios = firsts.map((f) => f.first / f.baselineFirst).sort((a, b) => a - b);
-  const range = (xs: number[], digits: number, unit: string) =>
-    `${Math.min(...xs).toFixed(digits)}–${Math.max(...xs).toFixed(digits)}${unit}`;
   const label = `${fmt(FRESH_SIZE)} processes × ${MONTHS} months`;
   const firstMs = firsts.map((f) => f.first);
   return [
     ...rows,
     {
-      name: `ranking ${label}, first computation as above, median of ${FRESH_PROCESSES} fresh processes (runs ${range(firstMs, 0, ' ms')}; each against its own process's baseline median: ${range(ratios, 1, '×')})`,
+      name: `ranking ${label}, first computation as above, median of ${FRESH_PROCESSES} fresh processes (runs ${spanOf(firstMs, 0, ' ms')}; each against its own process's baseline median: ${spanOf(ratios, 1, '×')})`,
       size: FRESH_SIZE,
       ms: median(firstMs),
       baselineName: 'typed-array loop, one ranking (median of the processes’ medians)',
@@ -264,7 +263,7 @@ export async function runRankingBench(sizes: readonly number[] = [2000, 5000, 20
       target: '≤ 10×'
     },
     {
-      name: `ranking ${label}, the same ${FRESH_PROCESSES} first computations against the baseline's own first (cold) run in each process (${range(coldRatios, 1, '×')})`,
+      name: `ranking ${label}, the same ${FRESH_PROCESSES} first computations against the baseline's own first (cold) run in each process (${spanOf(coldRatios, 1, '×')})`,
       size: FRESH_SIZE,
       ms: median(firstMs),
       baselineName: 'typed-array loop, its first run (median of the processes’)',

@@ -127,6 +127,11 @@ export function median(xs: number[]): number {
   return s[Math.floor(s.length / 2)] as number;
 }
 
+/** The smallest and largest of some figures as a row's name gives them: `12.5–16.8×`. */
+export function spanOf(xs: number[], digits: number, unit: string): string {
+  return `${Math.min(...xs).toFixed(digits)}–${Math.max(...xs).toFixed(digits)}${unit}`;
+}
+
 export const MONTHS = 36;
 /** A tall window shows some 30 rows of the list; their trend lines are drawn as they come into view. */
 export const ON_SCREEN = 40;

@@ -90,7 +90,7 @@ export class RecordIndex {
   /** Stores (or replaces) a record and keeps the look-ups current. */
   set(kind: RecordKind, record: RecordMeta): void {
     const before = this.byId.get(record.id)?.record;
-    this.#writes += 1;
+    this.countWrite();
     if (before && kind === 'studies') {
       const ids = this.monthIds(before as Study, false);
       const at = ids ? ids.indexOf(before.id) : -1;
