@@ -8,7 +8,7 @@ import type {
   RowAsked,
   TrendsAsked
 } from '../workers/portfolio-ranking.worker';
-import type { PortfolioWorkerRequest } from '../workers/portfolio-worker-loop';
+import type { PortfolioWorkerRequest, ReadAheadRequest } from '../workers/portfolio-worker-loop';
 import { workerService } from './worker-service';
 
 type Done = Extract<PortfolioRankingMessage, { type: 'done' }>;
@@ -26,6 +26,10 @@ export interface PortfolioRanker {
   csv: (databaseName: string, filters: PortfolioFilters) => Promise<string>;
   /** The monthly trend lines of these processes, as of the last ranking. */
   trends: (databaseName: string, processIds: string[]) => Promise<Map<string, ProcessTrend>>;
+  /** Starts the worker now (its code loads while the page gets ready). */
+  start: () => void;
+  /** Has the worker read the records now, ahead of the first ranking (portfolio-read-ahead.svelte.ts). */
+  readAhead: (databaseName: string) => void;
   close: () => void;
 }
 
@@ -35,7 +39,8 @@ export interface PortfolioRanker {
  */
 export function portfolioRankingWorker(): PortfolioRanker {
   const service = workerService<
-    Omit<PortfolioWorkerRequest, 'id'> & (RankingAsked | RowAsked | CsvAsked | TrendsAsked),
+    | (Omit<PortfolioWorkerRequest, 'id'> & (RankingAsked | RowAsked | CsvAsked | TrendsAsked))
+    | Omit<ReadAheadRequest, 'id'>,
     Done
   >(
     () => new Worker(new URL('../workers/portfolio-ranking.worker.ts', import.meta.url), { type: 'module' }),
@@ -56,6 +61,10 @@ export function portfolioRankingWorker(): PortfolioRanker {
           }
         ).trends
       ),
+    start: service.start,
+    // A failure here is the first ranking's to report: it reads again.
+    readAhead: (databaseName) =>
+      void service.ask({ databaseName, reload: true, readAhead: true }).catch(() => undefined),
     close: service.close
   };
 }

@@ -2,12 +2,14 @@ import { appendPart, type AnswerPart } from '../workers/answer-parts';
 /**
  * A background worker that lives as long as a page and answers requests in the order they were made — for
  * work whose worker keeps something between requests (the ranking's window figures, the records it read).
- * One-off jobs use worker-job.ts instead. The worker starts on the first request (never while a page is
- * prerendered); `close` ends it when the page goes. Messages carry an `id`; an answer `{ id, type: 'error',
- * message }` rejects its request with `failed` before the message.
+ * One-off jobs use worker-job.ts instead. The worker starts on the first request or on `start` (never while a
+ * page is prerendered); `close` ends it when the page goes. Messages carry an `id`; an answer `{ id, type:
+ * 'error', message }` rejects its request with `failed` before the message.
  */
 export interface WorkerService<Request, Answer> {
   ask: (request: Request) => Promise<Answer>;
+  /** Starts the worker now, ahead of its first request, so that its code loads while the page gets ready. */
+  start: () => void;
   close: () => void;
 }
 
@@ -26,7 +28,7 @@ export function workerService<Request extends object, Answer extends { id: numbe
     waiting.clear();
     parts.clear();
   };
-  const start = (): Worker => {
+  const launch = (): Worker => {
     const w = create();
     w.onmessage = (
       event: MessageEvent<Answer | AnswerPart | { id: number; type: 'error'; message: string }>
@@ -63,11 +65,14 @@ export function workerService<Request extends object, Answer extends { id: numbe
   return {
     ask: (request) =>
       new Promise((resolve, reject) => {
-        worker ??= start();
+        worker ??= launch();
         next += 1;
         waiting.set(next, { resolve, reject });
         worker.postMessage({ ...request, id: next });
       }),
+    start: () => {
+      worker ??= launch();
+    },
     close: () => {
       worker?.terminate();
       worker = undefined;
