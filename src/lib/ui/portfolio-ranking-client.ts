@@ -9,6 +9,7 @@ import type {
   TrendsAsked
 } from '../workers/portfolio-ranking.worker';
 import type { PortfolioWorkerRequest, ReadAheadRequest } from '../workers/portfolio-worker-loop';
+import { sendReadAhead } from './portfolio-read-ahead.svelte';
 import { workerService } from './worker-service';
 
 type Done = Extract<PortfolioRankingMessage, { type: 'done' }>;
@@ -62,9 +63,7 @@ export function portfolioRankingWorker(): PortfolioRanker {
         ).trends
       ),
     start: service.start,
-    // A failure here is the first ranking's to report: it reads again.
-    readAhead: (databaseName) =>
-      void service.ask({ databaseName, reload: true, readAhead: true }).catch(() => undefined),
+    readAhead: (databaseName) => sendReadAhead(service, databaseName),
     close: service.close
   };
 }

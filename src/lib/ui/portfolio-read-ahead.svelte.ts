@@ -1,4 +1,6 @@
 import type { CapstanStorage } from '../storage/storage';
+import type { ReadAheadRequest } from '../workers/portfolio-worker-loop';
+import type { WorkerService } from './worker-service';
 
 /**
  * A portfolio page's worker (the ranking's, the review's) started as the page opens, and asked to read the
@@ -22,4 +24,12 @@ export function readAheadOnOpen(
     asked = true;
     worker.readAhead(open.databaseName);
   });
+}
+
+/** Sends a portfolio worker its read-ahead. A failure is the first request's to report: it reads again. */
+export function sendReadAhead(
+  service: WorkerService<Omit<ReadAheadRequest, 'id'>, unknown>,
+  databaseName: string
+): void {
+  void service.ask({ databaseName, reload: true, readAhead: true }).catch(() => undefined);
 }

@@ -1,5 +1,6 @@
 import type { QuarterReviewMessage, QuarterReviewRequest } from '../workers/quarter-review.worker';
 import type { ReadAheadRequest } from '../workers/portfolio-worker-loop';
+import { sendReadAhead } from './portfolio-read-ahead.svelte';
 import { workerService, type WorkerService } from './worker-service';
 
 export type QuarterReviewAnswer = Extract<QuarterReviewMessage, { type: 'done' }>;
@@ -21,8 +22,6 @@ export function quarterReviewWorker(): WorkerService<
   );
   return {
     ...service,
-    // A failure here is the first review's to report: it reads again.
-    readAhead: (databaseName) =>
-      void service.ask({ databaseName, reload: true, readAhead: true }).catch(() => undefined)
+    readAhead: (databaseName) => sendReadAhead(service, databaseName)
   };
 }
