@@ -3,6 +3,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { companyPortfolioFile } from '../bench/company-portfolio-file';
+import { drawEveryChart } from './charts-in-view';
 import { startStaticServer, type RunningServer } from './static-server';
 
 /**
@@ -138,17 +139,11 @@ test('2 000 processes: received, ranked and reviewed without a long task on the 
   // point of the movement chart still names its process when pointed at, though the points carry no names.
   // The sections come one per task, so the number of charts is read again at each look: read once, it was
   // taken while a section was still to come (five charts counted, six drawn).
-  const charts = page.getByTestId('chart');
-  const drawn = page.locator('[data-testid="chart"] svg');
-  await expect
-    .poll(
-      async () => {
-        const all = await charts.count();
-        return all > 0 && (await drawn.count()) === all;
-      },
-      { timeout: 30_000 }
-    )
-    .toBe(true);
+  // Each chart is drawn as it comes near the view (src/lib/ui/near-view.ts): brought into view one by one.
+  await expect(page.getByRole('status').filter({ hasText: 'Drawing this section' })).toHaveCount(0, {
+    timeout: 30_000
+  });
+  expect(await drawEveryChart(page)).toBeGreaterThan(0);
   await expect(page.getByTestId('chart').filter({ hasNot: page.locator('svg') })).toHaveCount(0);
   const movement = page.locator('figure', { hasText: 'above the diagonal improved' }).getByTestId('chart');
   const svg = movement.locator('svg');

@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { canonicalJson } from '../../src/lib/domain/canonical-json';
 import { decodeExchangeFile } from '../../src/lib/exchange/exchange-file';
+import { drawEveryChart } from './charts-in-view';
 import { QUIET_MONTH } from './demo-dates';
 import { deviceProfiles, editVehicleKeyTarget, nav } from './device-profiles';
 import { startStaticServer, type RunningServer } from './static-server';
@@ -259,8 +260,9 @@ test('text from an imported file is shown as text everywhere, never as markup', 
   await expect(page.getByText('<i id="x-ch">Bore</i>').first()).toBeVisible();
   // Hover every chart so that tooltips are drawn, then look again.
   const charts = page.getByTestId('chart');
-  await expect(charts.first().locator('svg')).toBeVisible();
+  await drawEveryChart(page);
   for (let i = 0; i < (await charts.count()); i++) {
+    await charts.nth(i).scrollIntoViewIfNeeded();
     const box = await charts.nth(i).boundingBox();
     if (box) await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
     await page.waitForTimeout(150);

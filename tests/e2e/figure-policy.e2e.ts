@@ -1,6 +1,7 @@
 import { DEMO_QUARTER } from './demo-dates';
 import { expect, test, type Page } from '@playwright/test';
 import { startStaticServer, type RunningServer } from './static-server';
+import { drawEveryChart } from './charts-in-view';
 
 /**
  * Every main page with the demo loaded, at a laptop's 1366 px and a phone's 390 px, read as a practitioner reads
@@ -103,7 +104,7 @@ for (const [label, width, height] of [
         'process page',
         async () => {
           await page.getByTestId('portfolio-table').locator('tbody tr').first().locator('a').first().click();
-          await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
+          await drawEveryChart(page);
           // Every month's figures in (they are computed in the background): the checks read them all.
           await expect(page.getByTestId('figures-pending')).toHaveCount(0);
         }
@@ -135,7 +136,7 @@ for (const [label, width, height] of [
         async () => {
           await nav('Quarterly review');
           await page.getByTestId('quarter').selectOption(DEMO_QUARTER);
-          await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
+          await drawEveryChart(page);
         }
       ],
       ['set-up', async () => nav('Set-up')],

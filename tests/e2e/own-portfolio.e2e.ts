@@ -1,6 +1,7 @@
 import { expect, test, type Page } from '@playwright/test';
 import { lastCompletePeriod } from '../../src/lib/domain/period';
 import { startStaticServer, waitForServiceWorker } from './static-server';
+import { drawnChart } from './charts-in-view';
 
 /**
  * A company's own portfolio from an empty profile, offline: sites, processes and characteristics by hand, a
@@ -177,7 +178,7 @@ test('a company sets up its own portfolio offline from an empty profile and keep
   // The logged month's figures, computed by the page's worker from the company's own record.
   await expect(page.getByTestId('figures-pending')).toHaveCount(0);
   await expect(page.locator('td[data-label="Yield"]').first()).toBeVisible();
-  await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
+  await drawnChart(page.getByTestId('chart').first());
   const viewport = page.viewportSize();
   for (const [width, height] of [
     [1366, 900],

@@ -2,6 +2,7 @@ import { DEMO_QUARTER, demoAsLoaded } from './demo-dates';
 import { expect, test } from '@playwright/test';
 import { readFileSync } from 'node:fs';
 import { startStaticServer, type RunningServer } from './static-server';
+import { drawnChart } from './charts-in-view';
 
 const demo = JSON.parse(
   readFileSync(new URL('../../seed-data/demo-portfolio.json', import.meta.url), 'utf8')
@@ -75,7 +76,7 @@ test('every area of the navigation shows stored data, and charts arrive only whe
   await page.getByRole('link', { name: 'Quarterly review' }).click();
   await page.getByTestId('quarter').selectOption(DEMO_QUARTER);
   await expect(page.getByTestId('reporting-share')).toContainText('%');
-  await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
+  await drawnChart(page.getByTestId('chart').first());
   expect(scripts.length).toBeGreaterThan(beforeReview);
 
   await page.getByRole('link', { name: 'File exchange' }).click();

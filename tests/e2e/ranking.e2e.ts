@@ -1,5 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { startStaticServer, type RunningServer } from './static-server';
+import { drawEveryChart, drawnChart } from './charts-in-view';
 
 let server: RunningServer;
 test.beforeEach(async () => {
@@ -87,7 +88,7 @@ test('the ranked portfolio follows a context target change, and a click leads to
   // The process page draws its charts.
   await page.getByTestId('row-detail').getByRole('link', { name }).click();
   await expect(page.getByRole('heading', { level: 1 })).toHaveText(name);
-  await expect(page.getByTestId('chart').first().locator('svg')).toBeVisible();
+  await drawnChart(page.getByTestId('chart').first());
   expect(await page.getByTestId('chart').count()).toBeGreaterThanOrEqual(1);
 });
 
@@ -106,9 +107,10 @@ test('a measured process page shows history, histogram, probability plot and con
   const models = page.getByRole('region', { name: /Models compared for Journal diameter/ });
   await expect(models).toContainText(/Anderson–Darling A² [\d.]+, p [<\d.]/);
   await expect(page.getByText(/Journal diameter, \d{4}-\d{2}: control chart/)).toBeVisible();
-  await expect(page.getByTestId('chart').nth(3).locator('svg')).toBeVisible();
   // The control chart draws both panels: the location and the spread, each with its limits.
   const control = page.getByTestId('chart').nth(3);
+  await drawnChart(control);
   await expect(control.locator('svg text', { hasText: 'UCL' })).toHaveCount(2);
+  await drawEveryChart(page);
   await page.screenshot({ path: 'tests/e2e/.output/pages/1280-process-charts.png', fullPage: true });
 });

@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { BUILT_IN_PROFILES } from '../../src/lib/domain/context-profile';
 import { periodsOfQuarter } from '../../src/lib/domain/period';
+import { drawEveryChart, drawnChart } from './charts-in-view';
 import { DEMO_QUARTER, demoAsLoaded } from './demo-dates';
 import { rankPortfolio } from '../../src/lib/domain/portfolio-ranking';
 import { startStaticServer, type RunningServer } from './static-server';
@@ -77,13 +78,21 @@ test('the review of a demo quarter shows the right headline, keeps a note and pr
     'Share meeting target held; cost fell at two sites.'
   );
 
-  // Every chart drawn before printing. The sections after the headline are drawn one per task: counted once
-  // none is still waiting, or the count can be taken while the last ones are still coming.
+  // The sections after the headline are drawn one per task: counted once none is still waiting, or the count
+  // can be taken while the last ones are still coming. A chart is drawn only in or near the view: the last one,
+  // pages below, waits (busy, with no drawing) until the reader comes to it.
   await expect(page.getByRole('status').filter({ hasText: 'Drawing this section' })).toHaveCount(0);
   const charts = page.getByTestId('chart');
   const count = await charts.count();
   expect(count).toBeGreaterThanOrEqual(6);
-  await expect(page.locator('[data-testid="chart"] svg')).toHaveCount(count);
+  const last = charts.last();
+  await page.waitForTimeout(500);
+  await expect(last).toHaveAttribute('aria-busy', 'true');
+  await expect(last.locator('svg')).toHaveCount(0);
+  await last.scrollIntoViewIfNeeded();
+  await expect(last.locator('svg')).toHaveCount(1);
+  await expect(last).toHaveAttribute('aria-busy', 'false');
+  await page.evaluate(() => window.scrollTo(0, 0));
 
   // A chart as SVG and as PNG, a table as CSV.
   const saved = async (trigger: () => Promise<void>) => {
@@ -94,6 +103,7 @@ test('the review of a demo quarter shows the right headline, keeps a note and pr
     };
   };
   const section = page.getByTestId('section-shortfalls');
+  await drawnChart(section.getByTestId('chart').first());
   const svg = await saved(() =>
     section
       .getByRole('button', { name: /as SVG$/ })
@@ -139,8 +149,14 @@ test('the review of a demo quarter shows the right headline, keeps a note and pr
   expect(zLines[0]).toBe('site,process,z-level,z-level basis,status');
   expect(zLines.length - 1).toBe(zCount);
 
+  // Printed with charts not yet scrolled to: printing draws every chart.
   const pdfPath = join(work, 'review.pdf');
+  await page.evaluate(() => window.scrollTo(0, 0));
+  const undrawn = await page.locator('[data-testid="chart"][aria-busy="true"]').count();
+  expect(undrawn).toBeGreaterThan(0);
   writeFileSync(pdfPath, await page.pdf({ format: 'A4', printBackground: true }));
+  await expect(page.locator('[data-testid="chart"] svg')).toHaveCount(count);
+  await expect(page.locator('[data-testid="chart"][aria-busy="true"]')).toHaveCount(0);
   if (process.env.CAPSTAN_KEEP_PDF) writeFileSync(process.env.CAPSTAN_KEEP_PDF, readFileSync(pdfPath));
   const info = execFileSync('pdfinfo', [pdfPath], { encoding: 'utf8' });
   const pages = Number(/Pages:\s+(\d+)/.exec(info)?.[1]);
@@ -238,6 +254,7 @@ test('another quarter chosen: every chart is drawn again, for that quarter', asy
   // The trend's quarters as its axis writes them: the last one is the quarter reviewed.
   const axisQuarters = async () =>
     (await trend.locator('svg text').allTextContents()).filter((t) => /^\d{4}-Q[1-4]$/.test(t));
+  await drawnChart(trend);
   await expect.poll(async () => (await axisQuarters()).at(-1)).toBe(QUARTER);
   // A year back. Each section after the headline takes the new figures in a task of its own, and each chart draws
   // them in a task of its own (ChartPanel), each busy until then: none may be left showing the quarter before.
@@ -245,6 +262,9 @@ test('another quarter chosen: every chart is drawn again, for that quarter', asy
   await page.getByTestId('quarter').selectOption(earlier);
   await expect(page.getByTestId('headline-table')).toContainText(`${earlier} (this quarter)`);
   await expect(page.locator('section[aria-busy="true"]')).toHaveCount(0);
+  // The charts in view take the new quarter at once; those further down as the reader comes to them.
+  await expect.poll(async () => (await axisQuarters()).at(-1)).toBe(earlier);
+  expect(await drawEveryChart(page)).toBe(await charts.count());
   await expect(page.locator('[data-testid="chart"][aria-busy="true"]')).toHaveCount(0);
   await expect(page.locator('[data-testid="chart"] svg')).toHaveCount(await charts.count());
   expect((await axisQuarters()).at(-1)).toBe(earlier);
@@ -283,7 +303,7 @@ test('on a phone, the cost charts write their legend clear of their axis names',
   // The demo reports costs in three currencies: one chart each.
   expect(count).toBe(3);
   for (let i = 0; i < count; i += 1) {
-    const svg = costCharts.nth(i).locator('[data-testid="chart"] svg');
+    const svg = await drawnChart(costCharts.nth(i).locator('[data-testid="chart"]'));
     // Drawn: the right axis's name is written.
     await expect(svg.locator('text').filter({ hasText: /^%$/ })).toHaveCount(1);
     // Every text the chart writes level (the process names below are slanted on purpose): no two may overlap.
@@ -301,7 +321,7 @@ test('on a phone, the z-level chart leaves its bars room beside the names, and t
     .locator('figure')
     .filter({ has: page.locator('figcaption', { hasText: /^z-level against the required level/ }) })
     .locator('[data-testid="chart"]');
-  const svg = chart.locator('svg');
+  const svg = await drawnChart(chart);
   await expect(svg.locator('text').filter({ hasText: /^z-level$/ })).toHaveCount(1);
   // The names once took all but a few pixels: the scale's numbers ran into one another and the bars were slivers.
   expect(await overlappingTexts(svg)).toEqual(['several level texts']);
@@ -317,10 +337,12 @@ test('on a phone, the z-level chart leaves its bars room beside the names, and t
   expect(room.names).toBeGreaterThan(10);
   expect(room.right - room.left).toBeLessThan(room.width * 0.5);
   // The movement chart names its across quarter within the chart (at the axis's end it ran off a phone's edge).
-  const movement = page
-    .locator('figure')
-    .filter({ has: page.locator('figcaption', { hasText: /\(across\) against/ }) })
-    .locator('[data-testid="chart"] svg');
+  const movement = await drawnChart(
+    page
+      .locator('figure')
+      .filter({ has: page.locator('figcaption', { hasText: /\(across\) against/ }) })
+      .locator('[data-testid="chart"]')
+  );
   const across = movement.locator('text').filter({ hasText: /^\d{4}-Q\d$/ });
   await expect(across).toHaveCount(2);
   const inside = await movement.evaluate((element) => {
@@ -333,10 +355,12 @@ test('on a phone, the z-level chart leaves its bars room beside the names, and t
   // The sites chart names every site down its side (across it, a phone showed the first and the last only).
   const siteNames = await page.getByTestId('sites-table').locator('tbody th[scope="row"]').allTextContents();
   expect(siteNames.length).toBeGreaterThan(2);
-  const sitesSvg = page
-    .locator('figure')
-    .filter({ has: page.locator('figcaption', { hasText: /^z-levels of each site's processes/ }) })
-    .locator('[data-testid="chart"] svg');
+  const sitesSvg = await drawnChart(
+    page
+      .locator('figure')
+      .filter({ has: page.locator('figcaption', { hasText: /^z-levels of each site's processes/ }) })
+      .locator('[data-testid="chart"]')
+  );
   await expect(sitesSvg.locator('text').filter({ hasText: /^z-level$/ })).toHaveCount(1);
   const written = await sitesSvg.locator('text').allTextContents();
   // Long names end in an ellipsis where the room runs out: their first ten characters are written.
