@@ -10,6 +10,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { build } from 'esbuild';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../support/chromium.mjs';
+import { drawEveryChart } from '../e2e/charts-in-view';
 import { startStaticServer, waitForServiceWorker, type RunningServer } from '../e2e/static-server';
 import type { BenchRow } from './engine-bench';
 import { masterListText } from './master-list-rows';
@@ -275,7 +276,7 @@ function storedReadModelExists(): Promise<boolean> {
  * or to take new figures), no month's figures still computing (the process page), and every chart in or near the
  * view showing its current figures (`reach`: src/lib/ui/near-view.ts, where a chart is drawn only there; one
  * pixel inside its edge, where the browser's own test may fall either way). Charts further down are drawn as a
- * reader comes to them (untilEachChartDrawn).
+ * reader comes to them (drawEveryChart, tests/e2e/charts-in-view.ts).
  */
 function everythingInReachDrawn(reach: number): boolean {
   const pending =
@@ -304,35 +305,6 @@ async function untilEverythingDrawn(page: Page, patience: number, what: string):
     await page.waitForTimeout(100);
   }
   return Date.now() - t;
-}
-
-/**
- * Brings each chart of the page to the middle of the view in turn, as a reader scrolling down does, each once the
- * one before shows its figures; returns how long until the last one does, and how many there were.
- */
-async function untilEachChartDrawn(
-  page: Page,
-  patience: number,
-  what: string
-): Promise<{ ms: number; charts: number }> {
-  const t = Date.now();
-  const charts = await page.getByTestId('chart').count();
-  for (let i = 0; i < charts; i += 1) {
-    await page.evaluate(
-      (at) => document.querySelectorAll('[data-testid="chart"]')[at]?.scrollIntoView({ block: 'center' }),
-      i
-    );
-    while (
-      !(await page.evaluate((at) => {
-        const chart = document.querySelectorAll('[data-testid="chart"]')[at];
-        return chart?.getAttribute('aria-busy') === 'false' && chart.querySelector('svg') !== null;
-      }, i))
-    ) {
-      if (Date.now() - t > patience) throw new Error(`${what}: chart ${i + 1} was not drawn`);
-      await page.waitForTimeout(50);
-    }
-  }
-  return { ms: Date.now() - t, charts };
 }
 
 /** The demo's process with two characteristics of raw values, one of them not normal. */
@@ -527,7 +499,9 @@ export async function companyScaleRows(
     }
     // Then every chart, as a reader scrolls down to each (timed from the first scroll to the last chart drawn).
     {
-      const { ms, charts } = await untilEachChartDrawn(page, patience, 'the review');
+      const t = Date.now();
+      const charts = await drawEveryChart(page, patience);
+      const ms = Date.now() - t;
       seen = await watch.read();
       rows.push({
         name: `  … then each of its ${charts} charts brought into view in turn, as a reader scrolls down, and drawn: ${taskWords(seen.longTasks)}`,
