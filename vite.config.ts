@@ -4,6 +4,7 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
 import { chartCompileHint } from './src/build/chart-compile-hint';
+import { prebuiltParsers } from './src/build/prebuilt-parsers';
 
 const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as {
   version: string;
@@ -22,10 +23,12 @@ export default defineConfig({
     ]
   },
   // Workers are ES modules so that they can import the same code the page uses.
-  worker: { format: 'es' },
+  // Workers are bundled apart, with plugins of their own: the exchange worker imports the prebuilt parsers.
+  worker: { format: 'es', plugins: () => [prebuiltParsers()] },
   plugins: [
     sveltekit(),
     chartCompileHint(),
+    prebuiltParsers(),
     SvelteKitPWA({
       // base and scope fixed at the root: deep links must not register the worker at their own path.
       base: '/',

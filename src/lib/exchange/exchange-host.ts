@@ -30,7 +30,8 @@ async function webCryptoSha256Hex(bytes: Uint8Array): Promise<string> {
   return Array.from(new Uint8Array(digest), (b) => b.toString(16).padStart(2, '0')).join('');
 }
 
-const WEB_HOST: ExchangeHost = { sha256Hex: webCryptoSha256Hex, prepareSchema: (schema) => schema };
+/** What every host has: Web Crypto's digest, and the schema as written. */
+export const WEB_HOST: ExchangeHost = { sha256Hex: webCryptoSha256Hex, prepareSchema: (schema) => schema };
 
 let host: ExchangeHost = WEB_HOST;
 let prepared = new WeakMap<z.ZodType, z.ZodType>();

@@ -14,6 +14,7 @@
 import type { MergeChoices } from '../domain/change-set-merge';
 import { decodeExchangeFile, ExchangeFileError, type DecodeStage } from '../exchange/exchange-file';
 import { sizeProblem } from '../exchange/exchange-guards';
+import { useExchangeHost } from '../exchange/exchange-host';
 import {
   exchangeMediaType,
   writeExport,
@@ -28,7 +29,11 @@ import {
   type ReceivePreview,
   type ReceiveSession
 } from '../exchange/receive-session';
+import { PREBUILT_EXCHANGE_HOST } from '../exchange/prebuilt-exchange-host';
 import { openStorage, type CapstanStorage } from '../storage/storage';
+
+// The exchange schema checked by zod's parser for it, built ahead of time: the page's policy forbids compiling.
+useExchangeHost(PREBUILT_EXCHANGE_HOST);
 
 export type ExchangeWorkerRequest =
   | {
