@@ -1,9 +1,10 @@
 import { readdirSync, readFileSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { changeSetOf, decodeExchangeFile, encodeExchangeFile } from '../lib/exchange/exchange-file';
-import { sha256Hex, useExchangeHost, type ExchangeHost } from '../lib/exchange/exchange-host';
+import { afterAll, describe, expect, it } from 'vitest';
+import { changeSetOf, encodeExchangeFile } from '../lib/exchange/exchange-file';
+import { sha256Hex, useExchangeHost, WEB_HOST, type ExchangeHost } from '../lib/exchange/exchange-host';
 import { exchangeFileSchema } from '../lib/exchange/exchange-schema';
 import { demoRecordSet, testFileHeader } from '../../tests/support/demo-change-set';
+import { verdictWithHost } from '../../tests/support/host-verdict';
 import { writtenFileFacts } from '../lib/exchange/written-file-facts';
 import { FAST_EXCHANGE_HOST } from './fast-exchange-host';
 
@@ -14,24 +15,9 @@ import { FAST_EXCHANGE_HOST } from './fast-exchange-host';
 const corpus = new URL('../../tests/fixtures/bad-exchange-files/', import.meta.url);
 // One moment for both hosts: the reader refuses clocks ahead of it.
 const now = Date.now();
-let webHost: ExchangeHost;
-beforeAll(() => {
-  webHost = useExchangeHost(FAST_EXCHANGE_HOST);
-  useExchangeHost(webHost);
-});
+const webHost = WEB_HOST;
 afterAll(() => void useExchangeHost(webHost));
-
-async function outcome(host: ExchangeHost, bytes: Uint8Array): Promise<unknown> {
-  useExchangeHost(host);
-  try {
-    // A copy each time: the reader writes a byte over the file's tail for a moment while hashing.
-    return { records: (await decodeExchangeFile(bytes.slice(), undefined, now)).records };
-  } catch (e) {
-    return { refused: e instanceof Error ? e.message : String(e) };
-  } finally {
-    useExchangeHost(webHost);
-  }
-}
+const outcome = (host: ExchangeHost, bytes: Uint8Array) => verdictWithHost(host, bytes, now);
 
 /**
  * The command line's host with its second thread as the main thread sees it (written-facts-thread.ts): the facts

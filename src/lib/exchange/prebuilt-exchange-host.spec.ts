@@ -3,7 +3,8 @@ import { prebuiltParsers } from 'virtual:capstan-prebuilt-parsers';
 import { z } from 'zod';
 import { afterAll, describe, expect, it } from 'vitest';
 import { demoRecordSet, testFileHeader } from '../../../tests/support/demo-change-set';
-import { changeSetOf, decodeExchangeFile, encodeExchangeFile } from './exchange-file';
+import { verdictWithHost } from '../../../tests/support/host-verdict';
+import { changeSetOf, encodeExchangeFile } from './exchange-file';
 import { useExchangeHost, WEB_HOST, type ExchangeHost } from './exchange-host';
 import { exchangeFileSchema } from './exchange-schema';
 import { generatedParserKey, generatedParserSources, withPrebuiltParser } from './generated-parser';
@@ -42,16 +43,7 @@ function hasInstalledParser(schema: z.ZodType): boolean {
   return (schema._zod.bag as { fallbackRun?: unknown }).fallbackRun !== undefined;
 }
 
-async function outcome(host: ExchangeHost, bytes: Uint8Array): Promise<unknown> {
-  useExchangeHost(host);
-  try {
-    return { records: (await decodeExchangeFile(bytes.slice(), undefined, now)).records };
-  } catch (e) {
-    return { refused: e instanceof Error ? e.message : String(e) };
-  } finally {
-    useExchangeHost(WEB_HOST);
-  }
-}
+const outcome = (host: ExchangeHost, bytes: Uint8Array) => verdictWithHost(host, bytes, now);
 
 describe("the exchange schema's parser built ahead of time", () => {
   it('is installed where evaluating code is refused', () => {
