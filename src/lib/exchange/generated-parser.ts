@@ -13,10 +13,10 @@ import { compileFn, withParser } from 'zod/v4/core';
  * The build writes the generated functions into the bundle instead (src/build/prebuilt-parsers.ts): it runs
  * `compileFn` in Node and records the parameter names and body of each function it hands to `new Function`. In
  * the browser, `compileFn` runs again on the same schema, and the constructor it reaches for is lent, for that one
- * call, a stand-in that answers with the function the build wrote for exactly those names and that body. So zod builds
- * the parameters' values from the schema in hand, and the parser is zod's own: the same schema decides, with the
- * same messages (every rejection is handed to the schema as written, as `z.compile` does). Where the body differs
- * from every one the build wrote, nothing is evaluated and the schema is used as written.
+ * call, a stand-in that answers with the function the build wrote for exactly those names and that body. So zod
+ * builds the parameters' values from the schema in hand, and the parser is zod's own: the same schema decides, with
+ * the same messages (every rejection is handed to the schema as written, as `z.compile` does). Where the body
+ * differs from every one the build wrote, nothing is evaluated and the schema is used as written.
  */
 
 /** What zod handed to `new Function`: the parameter names, then the body. */
@@ -46,17 +46,21 @@ export function generatedParserKey({ parameters, body }: GeneratedParserSource):
 }
 
 /**
- * Runs zod's `compileFn` with `Function` lent `construct` for that call (zod looks it up as it compiles, and calls
- * it with `new`: `construct` must be a plain function, whose returned function `new` then gives back). Nothing
- * else runs meanwhile: the call is synchronous.
+ * Runs zod's `compileFn` with `Function` lent, for that call, a stand-in that hands each generated function's
+ * source to `make` and returns what `make` gives (zod looks `Function` up as it compiles and calls it with `new`:
+ * the stand-in is a plain function, whose returned function `new` then gives back). Nothing else runs meanwhile:
+ * the call is synchronous.
  */
 function compileThrough<T extends z.ZodType>(
   schema: T,
-  construct: (...args: string[]) => unknown
+  make: (source: GeneratedParserSource) => unknown
 ): ReturnType<typeof compileFn<T>> {
   const scope = globalThis as { Function: FunctionConstructor };
   const own = scope.Function;
-  scope.Function = construct as unknown as FunctionConstructor;
+  scope.Function = function standIn(...args: string[]) {
+    const body = args.pop() ?? '';
+    return make({ parameters: args, body });
+  } as unknown as FunctionConstructor;
   try {
     return compileFn(schema);
   } finally {
@@ -72,10 +76,9 @@ function compileThrough<T extends z.ZodType>(
 export function generatedParserSources(schema: z.ZodType): GeneratedParserSource[] {
   const sources: GeneratedParserSource[] = [];
   const own = Function;
-  compileThrough(schema, function capture(...args: string[]) {
-    const body = args.pop() ?? '';
-    sources.push({ parameters: args, body });
-    return own(...args, body);
+  compileThrough(schema, (source) => {
+    sources.push(source);
+    return own(...source.parameters, source.body);
   });
   if (sources.length === 0) throw new Error('zod compiled the schema without generating a function');
   return sources;
@@ -87,9 +90,8 @@ export function generatedParserSources(schema: z.ZodType): GeneratedParserSource
  */
 export function withPrebuiltParser<T extends z.ZodType>(schema: T, prebuilt: PrebuiltParsers): T {
   try {
-    const parser = compileThrough(schema, function lookUp(...args: string[]) {
-      const body = args.pop() ?? '';
-      const made = prebuilt.get(generatedParserKey({ parameters: args, body }));
+    const parser = compileThrough(schema, (source) => {
+      const made = prebuilt.get(generatedParserKey(source));
       if (!made) throw new EvalError('no parser was built ahead of time for this schema');
       return made;
     });
